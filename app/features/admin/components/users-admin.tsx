@@ -1,0 +1,80 @@
+import { useState } from 'react';
+import { useForm } from 'react-hook-form';
+import { zodResolver } from '@hookform/resolvers/zod';
+import { CreateUserInputSchema, ROLES, type CreateUserInput, type Role, type User } from '../../../../shared/schemas/auth';
+import { Button } from '../../../components/ui/button';
+import { SelectField, TextField, inputClass } from '../../../components/ui/field';
+import { DataTable, columnHelperFor } from '../../../components/ui/data-table';
+import { ErrorText } from '../../../components/ui/notice';
+import { applyServerIssues } from '../../../lib/form-errors';
+import { useCreateUser, useUpdateUser, useUsers } from '../api';
+
+const ROLE_OPTIONS = ROLES.map((r) => ({ value: r, label: r }));
+
+function RoleCell({ user }: { user: User }) {
+  const update = useUpdateUser();
+  return (
+    <div className="flex flex-col">
+      <select aria-label={`Role of ${user.email}`} className={`${inputClass} w-40`} value={user.role} disabled={update.isPending}
+        onChange={(ev) => update.mutate({ id: user.id, patch: { role: ev.target.value as Role } })}>
+        {ROLES.map((r) => <option key={r} value={r}>{r}</option>)}
+      </select>
+      {update.error ? <span role="alert" className="text-sm text-danger-700">{update.error.message}</span> : null}
+    </div>
+  );
+}
+
+function ActiveCell({ user }: { user: User }) {
+  const update = useUpdateUser();
+  return (
+    <div className="flex items-center gap-2">
+      <span>{user.active ? 'active' : 'deactivated'}</span>
+      <Button variant={user.active ? 'danger' : 'secondary'} disabled={update.isPending} onClick={() => update.mutate({ id: user.id, patch: { active: !user.active } })}>
+        {user.active ? 'Deactivate' : 'Reactivate'}
+      </Button>
+      {update.error ? <span role="alert" className="text-sm text-danger-700">{update.error.message}</span> : null}
+    </div>
+  );
+}
+
+const col = columnHelperFor<User>();
+const columns = col.columns([
+  col.accessor('email', { header: 'E-mail' }),
+  col.accessor('name', { header: 'Name' }),
+  col.accessor('role', { header: 'Role', cell: (c) => <RoleCell user={c.row.original} /> }),
+  col.accessor('active', { header: 'Status', cell: (c) => <ActiveCell user={c.row.original} /> }),
+]);
+
+export function UsersAdmin() {
+  const users = useUsers();
+  const [filter, setFilter] = useState('');
+  return (
+    <div className="flex flex-col gap-6">
+      <div className="max-w-sm"><TextField label="Filter users" value={filter} onChange={(e) => setFilter(e.target.value)} /></div>
+      <ErrorText error={users.error} />
+      <DataTable caption="Users" columns={columns} data={users.data?.items ?? NO_USERS} filter={filter} getRowId={(u) => String(u.id)} />
+      <AddUserForm />
+    </div>
+  );
+}
+const NO_USERS: User[] = [];
+
+function AddUserForm() {
+  const create = useCreateUser();
+  const form = useForm<CreateUserInput>({ resolver: zodResolver(CreateUserInputSchema), defaultValues: { email: '', name: '', role: 'operator', password: '' } });
+  const e = form.formState.errors;
+  const submit = form.handleSubmit((v) => create.mutate(v, { onSuccess: () => form.reset(), onError: (err) => applyServerIssues(err, form.setError) }));
+  return (
+    <form onSubmit={submit} noValidate className="flex max-w-3xl flex-col gap-3 rounded border border-slate-300 bg-white p-4">
+      <h2 className="text-lg font-semibold">Add a user</h2>
+      <div className="grid grid-cols-1 gap-3 sm:grid-cols-2">
+        <TextField label="E-mail address" type="email" error={e.email?.message} {...form.register('email')} />
+        <TextField label="Name" error={e.name?.message} {...form.register('name')} />
+        <SelectField label="Role" options={ROLE_OPTIONS} error={e.role?.message} {...form.register('role')} />
+        <TextField label="First password" type="password" autoComplete="new-password" hint="At least 10 characters; tell the user to change it." error={e.password?.message} {...form.register('password')} />
+      </div>
+      <ErrorText error={create.error} />
+      <div><Button type="submit" disabled={create.isPending}>Add user</Button></div>
+    </form>
+  );
+}

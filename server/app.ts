@@ -1,0 +1,108 @@
+import { existsSync } from 'node:fs';
+import path from 'node:path';
+import express, { Router } from 'express';
+import session from 'express-session';
+import helmet from 'helmet';
+import { Passport } from 'passport';
+import { Strategy as LocalStrategy } from 'passport-local';
+import { ConnectSessionKnexStore } from 'connect-session-knex';
+import { csrfSync } from 'csrf-sync';
+import type { Db } from './db/knex';
+import { usersRepo } from './db/users-repo';
+import { catalogRepo } from './db/catalog-repo';
+import { settingsRepo } from './db/settings-repo';
+import { usersService } from './services/users';
+import { catalogService } from './services/catalog';
+import { apiNotFound, errorHandler } from './middleware/errors';
+import { mount, type RouteDef } from './routes/route-table';
+import { authRoutes } from './routes/auth';
+import { userRoutes } from './routes/users';
+import { catalogRoutes } from './routes/catalog';
+import { settingsRoutes } from './routes/settings';
+
+export interface AppDeps {
+  db: Db;
+  sessionSecret: string;
+  dataDir: string;
+  /** Built client (vite build output); served with a single-page fallback when present. */
+  clientDir?: string;
+  uploadLimitBytes?: number;
+  /** Where unexpected errors are logged; tests pass a collector. */
+  log?: (err: unknown) => void;
+}
+
+export type GridsetApp = express.Express & { locals: { routes: RouteDef[] } };
+
+/** Builds the whole app from its dependencies; never listens (server/index.ts does). */
+export function createApp(deps: AppDeps): GridsetApp {
+  const { db } = deps;
+  const users = usersService(usersRepo(db));
+  const catalog = catalogService(catalogRepo(db));
+  const settings = settingsRepo(db);
+
+  const app = express() as GridsetApp;
+  app.disable('x-powered-by');
+  app.set('trust proxy', 'loopback');
+  app.use(helmet());
+
+  const api = Router();
+  api.use(express.json({ limit: '10mb' }));
+  api.use(
+    session({
+      name: 'gridset.sid',
+      secret: deps.sessionSecret,
+      resave: false,
+      saveUninitialized: false,
+      store: new ConnectSessionKnexStore({ knex: db, tableName: 'sessions', createTable: true, cleanupInterval: 15 * 60 * 1000 }),
+      cookie: { httpOnly: true, sameSite: 'lax', secure: 'auto', maxAge: 12 * 60 * 60 * 1000 },
+    }),
+  );
+
+  // One passport instance per app: the default export is shared by every app in a process.
+  const passport = new Passport();
+  passport.use(
+    new LocalStrategy({ usernameField: 'email' }, (email, password, done) => {
+      users.authenticate(email, password).then((u) => done(null, u ?? false), done);
+    }),
+  );
+  passport.serializeUser((user, done) => done(null, (user as Express.User).id));
+  passport.deserializeUser((id: number, done) => {
+    // A deactivated user's existing sessions stop working at their next request.
+    usersRepo(db).findById(id).then((u) => done(null, u && u.active ? u : false), done);
+  });
+  api.use(passport.session());
+
+  const { generateToken, csrfSynchronisedProtection } = csrfSync({
+    getTokenFromRequest: (req) => req.headers['x-csrf-token'] as string | undefined,
+    errorConfig: {
+      statusCode: 403,
+      code: 'csrf-invalid',
+      message: 'The request is missing a valid CSRF token; fetch one from GET /api/auth/csrf and send it in the X-CSRF-Token header.',
+    },
+  });
+  api.use(csrfSynchronisedProtection);
+
+  const routes: RouteDef[] = [
+    { method: 'get', path: '/health', access: 'public', handler: async (_req, res) => {
+      await db.raw('select 1');
+      res.json({ ok: true });
+    } },
+    ...authRoutes({ users, passport, csrfToken: (req, overwrite) => generateToken(req, overwrite) }),
+    ...userRoutes(users),
+    ...catalogRoutes(catalog),
+    ...settingsRoutes(settings),
+  ];
+  mount(api, routes);
+  api.use(apiNotFound);
+  api.use(errorHandler(deps.log));
+  app.use('/api', api);
+  app.locals.routes = routes;
+
+  if (deps.clientDir && existsSync(path.join(deps.clientDir, 'index.html'))) {
+    const clientDir = deps.clientDir;
+    app.use(express.static(clientDir, { index: false, maxAge: '1h' }));
+    app.get('/{*splat}', (_req, res) => res.sendFile(path.join(clientDir, 'index.html')));
+  }
+  app.use(errorHandler(deps.log));
+  return app;
+}

@@ -1,0 +1,40 @@
+import { randomBytes } from 'node:crypto';
+import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
+import path from 'node:path';
+
+export interface Config {
+  port: number;
+  dataDir: string;
+  databaseFile: string;
+  sessionSecret: string;
+  uploadLimitBytes: number;
+  smtpUrl: string | undefined;
+  publicUrl: string;
+}
+
+/** Reads the environment once at start-up; the secret is generated and kept in the data dir when unset. */
+export function readConfig(env: NodeJS.ProcessEnv = process.env): Config {
+  const port = Number(env.PORT ?? 3000);
+  if (!Number.isInteger(port) || port < 0 || port > 65535) throw new Error(`PORT must be a whole number from 0 to 65535; got "${env.PORT}".`);
+  const dataDir = path.resolve(env.GRIDSET_DATA_DIR ?? './data');
+  mkdirSync(dataDir, { recursive: true });
+  const uploadMb = Number(env.GRIDSET_UPLOAD_LIMIT_MB ?? 20);
+  if (!(uploadMb > 0)) throw new Error(`GRIDSET_UPLOAD_LIMIT_MB must be a positive number; got "${env.GRIDSET_UPLOAD_LIMIT_MB}".`);
+  return {
+    port,
+    dataDir,
+    databaseFile: path.join(dataDir, 'gridset.sqlite'),
+    sessionSecret: env.SESSION_SECRET || loadOrCreateSecret(dataDir),
+    uploadLimitBytes: Math.round(uploadMb * 1024 * 1024),
+    smtpUrl: env.SMTP_URL || undefined,
+    publicUrl: env.GRIDSET_PUBLIC_URL ?? `http://localhost:${port}`,
+  };
+}
+
+function loadOrCreateSecret(dataDir: string): string {
+  const file = path.join(dataDir, 'session-secret');
+  if (existsSync(file)) return readFileSync(file, 'utf8').trim();
+  const secret = randomBytes(32).toString('hex');
+  writeFileSync(file, secret + '\n', { mode: 0o600 });
+  return secret;
+}

@@ -1,0 +1,14 @@
+import type { Knex } from 'knex';
+import * as foundation from '../../migrations/20261201000000_foundation';
+
+// Migrations are imported statically so the same list runs under tsx, vitest and the bench
+// scripts; knex's directory loader cannot import .ts files by itself.
+const MIGRATIONS: Record<string, Knex.Migration> = {
+  '20261201000000_foundation': foundation,
+};
+
+export const migrationSource: Knex.MigrationSource<string> = {
+  getMigrations: async () => Object.keys(MIGRATIONS).sort(),
+  getMigrationName: (name) => name,
+  getMigration: async (name) => MIGRATIONS[name]!,
+};

@@ -1,0 +1,116 @@
+import type { Db } from './knex';
+import { ComponentInputSchema, PlateInputSchema, type ComponentInput, type PlateInput } from '../../shared/schemas/catalog';
+import type { Role } from '../../shared/schemas/auth';
+import type { Outline } from '../../shared/schemas/geometry';
+import { hashPassword } from '../services/passwords';
+import { catalogRepo } from './catalog-repo';
+import { settingsRepo, DEFAULT_SETTINGS } from './settings-repo';
+
+/** Demo only: an invented shop; every account shares this password, so never keep them on a real server. */
+export const DEMO_PASSWORD = 'gridset-demo';
+
+export const DEMO_USERS: { email: string; name: string; role: Role }[] = [
+  { email: 'admin@gridset.test', name: 'Avery Admin', role: 'admin' },
+  { email: 'lead@gridset.test', name: 'Lane Lead', role: 'lead' },
+  { email: 'programmer@gridset.test', name: 'Parker Programmer', role: 'programmer' },
+  { email: 'reviewer@gridset.test', name: 'Rowan Reviewer', role: 'reviewer' },
+  { email: 'operator@gridset.test', name: 'Oakley Operator', role: 'operator' },
+];
+
+const rect = (x0: number, y0: number, x1: number, y1: number, layer?: string): Outline['paths'][number] => ({
+  layer,
+  closed: true,
+  points: [{ x: x0, y: y0 }, { x: x1, y: y0 }, { x: x1, y: y1 }, { x: x0, y: y1 }],
+});
+
+export const DEMO_PLATES: PlateInput[] = [
+  { code: 'GP-IN-12x8', name: 'Grid plate 24 × 16 in, 2 in pitch', unit: 'in', pitch: 2, columns: 12, rows: 8, holeDiameter: 0.5, thread: '1/2-13', edgeMargin: 1, notes: 'Bushed dowel holes on a 2.000 in grid; datum hole at the front-left corner.' },
+  { code: 'GP-MM-10x7', name: 'Grid plate 500 × 350 mm, 50 mm pitch', unit: 'mm', pitch: 50, columns: 10, rows: 7, holeDiameter: 12, thread: 'M12', edgeMargin: 25, notes: 'Metric plate for the horizontal cell.' },
+];
+
+// Inch edge-clamp model used by the demo jaw rails (invented figures of a plausible low-profile clamp).
+const demoClamp = { acceptBelow: 0.03, acceptAbove: 0.03, topHeight: 0.16, topSlope: 0.5, gripLow: 0.04, gripHigh: 0.16, gripSlope: 0.5, slotSlop: 0.015 };
+
+export const DEMO_COMPONENTS: ComponentInput[] = [
+  {
+    code: 'CR-8', kind: 'center-rail', name: 'Center rail, 8 stops at 1.000 in', unit: 'in', layer: 'FX-CR-8',
+    dowels: [{ x: 0, y: 0 }, { x: 8, y: 0 }],
+    stops: Array.from({ length: 8 }, (_, k) => ({ x: 0.5 + k, y: 0.375, angle: 0, face: 0 })),
+    jawFaces: [{ x: 0, y: 0.375, normal: 90 }],
+    outline: { paths: [rect(-0.5, -0.375, 8.5, 0.375)], circles: [{ x: 0, y: 0, r: 0.25 }, { x: 8, y: 0, r: 0.25 }] },
+    notes: 'Fixed jaw face 0.375 in in front of the dowel line.',
+  },
+  {
+    code: 'JR-1.000', kind: 'jaw-rail', name: 'Jaw rail, holds 1.000 in one row out', unit: 'in', layer: 'FX-JR-1000',
+    dowels: [{ x: 0, y: 0 }, { x: 8, y: 0 }],
+    jawFaces: [{ x: 0, y: -0.625, normal: 270 }],
+    clamp: demoClamp,
+    outline: { paths: [rect(-0.5, -0.625, 8.5, 0.375)], circles: [{ x: 0, y: 0, r: 0.25 }, { x: 8, y: 0, r: 0.25 }] },
+    notes: 'Clamp faces 0.625 in behind the dowel line; one grid row from CR-8 it holds 1.000 in.',
+  },
+  {
+    code: 'JR-1.500', kind: 'jaw-rail', name: 'Jaw rail, holds 1.500 in one row out', unit: 'in', layer: 'FX-JR-1500',
+    dowels: [{ x: 0, y: 0 }, { x: 8, y: 0 }],
+    jawFaces: [{ x: 0, y: -0.125, normal: 270 }],
+    clamp: { ...demoClamp, acceptBelow: 0.035, acceptAbove: 0.035 },
+    outline: { paths: [rect(-0.5, -0.125, 8.5, 0.5)], circles: [{ x: 0, y: 0, r: 0.25 }, { x: 8, y: 0, r: 0.25 }] },
+    notes: 'Clamp faces 0.125 in behind the dowel line; one grid row from CR-8 it holds 1.500 in.',
+  },
+  {
+    code: 'SR-4', kind: 'short-rail', name: 'Short rail, 4 stops at 1.000 in', unit: 'in', layer: 'FX-SR-4',
+    dowels: [{ x: 0, y: 0 }, { x: 4, y: 0 }],
+    stops: Array.from({ length: 4 }, (_, k) => ({ x: 0.5 + k, y: 0.375, angle: 0, face: 0 })),
+    jawFaces: [{ x: 0, y: 0.375, normal: 90 }],
+    outline: { paths: [rect(-0.5, -0.375, 4.5, 0.375)], circles: [{ x: 0, y: 0, r: 0.25 }, { x: 4, y: 0, r: 0.25 }] },
+    notes: 'Sits across the long rails to use the plate ends.',
+  },
+  {
+    code: 'JR-S4-1.000', kind: 'jaw-rail', name: 'Short jaw rail, holds 1.000 in one row out', unit: 'in', layer: 'FX-JR-S4',
+    dowels: [{ x: 0, y: 0 }, { x: 4, y: 0 }],
+    jawFaces: [{ x: 0, y: -0.625, normal: 270 }],
+    clamp: demoClamp,
+    outline: { paths: [rect(-0.5, -0.625, 4.5, 0.375)], circles: [{ x: 0, y: 0, r: 0.25 }, { x: 4, y: 0, r: 0.25 }] },
+  },
+  {
+    code: 'VS-6', kind: 'vise', name: 'Self-centering vise, 6 in jaws', unit: 'in', layer: 'FX-VS-6',
+    dowels: [{ x: 0, y: 0 }, { x: 4, y: 0 }],
+    stops: [{ x: -1, y: 1.25, angle: 0, face: 0 }],
+    jawFaces: [{ x: -1, y: 1.25, normal: 90 }],
+    outline: { paths: [rect(-1, -0.75, 5, 2.75)], circles: [] },
+  },
+  {
+    code: 'ST-0.5', kind: 'stop', name: 'Dowel stop, 0.500 in', unit: 'in', layer: 'FX-ST',
+    dowels: [{ x: 0, y: 0 }],
+    stops: [{ x: 0.25, y: 0, angle: 0 }],
+    outline: { paths: [], circles: [{ x: 0, y: 0, r: 0.25 }] },
+  },
+  {
+    code: 'CR-M-200', kind: 'center-rail', name: 'Metric center rail, 4 stops at 50 mm', unit: 'mm', layer: 'FX-CRM-200',
+    dowels: [{ x: 0, y: 0 }, { x: 200, y: 0 }],
+    stops: Array.from({ length: 4 }, (_, k) => ({ x: 25 + 50 * k, y: 10, angle: 0, face: 0 })),
+    jawFaces: [{ x: 0, y: 10, normal: 90 }],
+    outline: { paths: [rect(-12, -10, 212, 10)], circles: [{ x: 0, y: 0, r: 6 }, { x: 200, y: 0, r: 6 }] },
+  },
+  {
+    code: 'JR-M-30', kind: 'jaw-rail', name: 'Metric jaw rail, holds 30 mm one row out', unit: 'mm', layer: 'FX-JRM-30',
+    dowels: [{ x: 0, y: 0 }, { x: 200, y: 0 }],
+    jawFaces: [{ x: 0, y: -10, normal: 270 }],
+    clamp: { acceptBelow: 0.8, acceptAbove: 0.8, topHeight: 4, topSlope: 0.5, gripLow: 1, gripHigh: 4, gripSlope: 0.5, slotSlop: 0.4 },
+    outline: { paths: [rect(-12, -10, 212, 12)], circles: [{ x: 0, y: 0, r: 6 }, { x: 200, y: 0, r: 6 }] },
+  },
+];
+
+/** Loads the invented demo shop into a new, empty database; does nothing when users exist. */
+export async function seedDemoDataIfEmpty(db: Db): Promise<boolean> {
+  const existing = await db('users').count<{ n: number }[]>({ n: '*' });
+  if (Number(existing[0]?.n ?? 0) > 0) return false;
+  const hashes = await Promise.all(DEMO_USERS.map(() => hashPassword(DEMO_PASSWORD)));
+  await db.transaction(async (trx) => {
+    await trx('users').insert(DEMO_USERS.map((u, i) => ({ email: u.email, name: u.name, role: u.role, password_hash: hashes[i] })));
+    const trxCatalog = catalogRepo(trx);
+    for (const p of DEMO_PLATES) await trxCatalog.insertPlate(PlateInputSchema.parse(p));
+    for (const c of DEMO_COMPONENTS) await trxCatalog.insertComponent(ComponentInputSchema.parse(c));
+    await settingsRepo(trx).put({ ...DEFAULT_SETTINGS, shopName: 'Brightwater Fixture Works (demo)' });
+  });
+  return true;
+}

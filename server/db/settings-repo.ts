@@ -1,0 +1,28 @@
+import type { Db } from './knex';
+import { ShopSettingsSchema, type ShopSettings } from '../../shared/schemas/settings';
+
+export const DEFAULT_SETTINGS: ShopSettings = {
+  shopName: 'My shop',
+  defaultUnit: 'in',
+  // Grid tolerance: how close a dowel must land to a hole; probe-check: the pinned-station repeat (common practice).
+  gridToleranceIn: 0.0005,
+  gridToleranceMm: 0.01,
+  probeToleranceIn: 0.003,
+  probeToleranceMm: 0.08,
+};
+
+export function settingsRepo(db: Db) {
+  return {
+    async get(): Promise<ShopSettings> {
+      const row = await db('settings').where({ key: 'shop' }).first();
+      if (!row) return DEFAULT_SETTINGS;
+      const parsed = ShopSettingsSchema.safeParse({ ...DEFAULT_SETTINGS, ...JSON.parse(row.value) });
+      return parsed.success ? parsed.data : DEFAULT_SETTINGS;
+    },
+    async put(s: ShopSettings): Promise<ShopSettings> {
+      await db('settings').insert({ key: 'shop', value: JSON.stringify(s) }).onConflict('key').merge({ value: JSON.stringify(s), updated_at: db.fn.now() });
+      return s;
+    },
+  };
+}
+export type SettingsRepo = ReturnType<typeof settingsRepo>;

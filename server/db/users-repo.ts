@@ -1,0 +1,61 @@
+import type { Db } from './knex';
+import type { Role, User } from '../../shared/schemas/auth';
+import type { Unit } from '../../shared/schemas/common';
+
+interface UserRow {
+  id: number;
+  email: string;
+  name: string;
+  role: Role;
+  password_hash: string | null;
+  active: number | boolean;
+  display_unit: Unit | null;
+  created_at: string;
+}
+
+const toUser = (r: UserRow): User => ({
+  id: r.id,
+  email: r.email,
+  name: r.name,
+  role: r.role,
+  active: !!r.active,
+  displayUnit: r.display_unit ?? null,
+  createdAt: String(r.created_at),
+});
+
+export function usersRepo(db: Db) {
+  return {
+    async findById(id: number): Promise<User | undefined> {
+      const row = await db<UserRow>('users').where({ id }).first();
+      return row && toUser(row);
+    },
+    async findWithHashByEmail(email: string): Promise<(User & { passwordHash: string | null }) | undefined> {
+      const row = await db<UserRow>('users').where({ email }).first();
+      return row && { ...toUser(row), passwordHash: row.password_hash };
+    },
+    async list(): Promise<User[]> {
+      return (await db<UserRow>('users').orderBy('email')).map(toUser);
+    },
+    async insert(u: { email: string; name: string; role: Role; passwordHash: string | null }, trx: Db = db): Promise<User> {
+      const [row] = await trx<UserRow>('users')
+        .insert({ email: u.email, name: u.name, role: u.role, password_hash: u.passwordHash })
+        .returning('*');
+      return toUser(row as UserRow);
+    },
+    async update(id: number, patch: { name?: string; role?: Role; active?: boolean; displayUnit?: Unit | null; passwordHash?: string }): Promise<User | undefined> {
+      const row: Partial<UserRow> & { updated_at: unknown } = { updated_at: db.fn.now() };
+      if (patch.name !== undefined) row.name = patch.name;
+      if (patch.role !== undefined) row.role = patch.role;
+      if (patch.active !== undefined) row.active = patch.active;
+      if (patch.displayUnit !== undefined) row.display_unit = patch.displayUnit;
+      if (patch.passwordHash !== undefined) row.password_hash = patch.passwordHash;
+      await db('users').where({ id }).update(row);
+      return this.findById(id);
+    },
+    async countActiveAdmins(): Promise<number> {
+      const r = await db('users').where({ role: 'admin', active: true }).count<{ n: number }[]>({ n: '*' });
+      return Number(r[0]?.n ?? 0);
+    },
+  };
+}
+export type UsersRepo = ReturnType<typeof usersRepo>;

@@ -1,0 +1,34 @@
+import path from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { readConfig } from './config';
+import { openDb, migrate } from './db/knex';
+import { seedDemoDataIfEmpty } from './db/seed-demo';
+import { createApp } from './app';
+
+const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..');
+
+async function main() {
+  const config = readConfig();
+  const db = openDb(config.databaseFile);
+  await migrate(db);
+  const seeded = await seedDemoDataIfEmpty(db);
+  if (seeded) console.log('New database: demo data loaded (demo accounts use the password gridset-demo).');
+  const app = createApp({
+    db,
+    sessionSecret: config.sessionSecret,
+    dataDir: config.dataDir,
+    clientDir: path.join(root, 'dist'),
+    uploadLimitBytes: config.uploadLimitBytes,
+  });
+  const server = app.listen(config.port, () => {
+    console.log(`Gridset is serving http://localhost:${config.port} (data in ${config.dataDir})`);
+  });
+  const stop = () => server.close(() => db.destroy().then(() => process.exit(0)));
+  process.on('SIGINT', stop);
+  process.on('SIGTERM', stop);
+}
+
+main().catch((err) => {
+  console.error(err);
+  process.exit(1);
+});

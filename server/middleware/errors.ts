@@ -1,0 +1,68 @@
+import type { ErrorRequestHandler, RequestHandler } from 'express';
+import { ZodError } from 'zod';
+
+/** The one error type routes and services throw; the handler below turns it into the error body. */
+export class HttpError extends Error {
+  constructor(
+    readonly status: number,
+    readonly code: string,
+    message: string,
+    readonly details: unknown = null,
+  ) {
+    super(message);
+  }
+}
+
+export const badRequest = (message: string, details: unknown = null, code = 'bad-request') => new HttpError(400, code, message, details);
+export const notFound = (what: string) => new HttpError(404, 'not-found', `${what} was not found.`);
+export const conflict = (message: string, details: unknown = null) => new HttpError(409, 'conflict', message, details);
+
+export interface FieldIssue {
+  path: string;
+  message: string;
+}
+
+export function zodIssues(error: ZodError): FieldIssue[] {
+  return error.issues.map((i) => ({ path: i.path.map(String).join('.'), message: i.message }));
+}
+
+/** A 400 whose message repeats the first problem so a script's log line says what to fix. */
+export function validationError(error: ZodError, where = 'request'): HttpError {
+  const issues = zodIssues(error);
+  const first = issues[0];
+  const lead = first ? `${first.path ? `${first.path}: ` : ''}${first.message}` : 'The input is not valid.';
+  const more = issues.length > 1 ? ` (and ${issues.length - 1} more problem${issues.length > 2 ? 's' : ''})` : '';
+  return new HttpError(400, 'invalid-input', `The ${where} is not valid: ${lead}${more}`, { issues });
+}
+
+export const apiNotFound: RequestHandler = (req) => {
+  throw new HttpError(404, 'not-found', `There is no API route ${req.method} ${req.path}.`);
+};
+
+export function errorHandler(log: (err: unknown) => void = console.error): ErrorRequestHandler {
+  return (err, _req, res, _next) => {
+    if (err instanceof ZodError) {
+      const e = validationError(err);
+      res.status(e.status).json({ error: { code: e.code, message: e.message, details: e.details } });
+      return;
+    }
+    if (err instanceof HttpError) {
+      res.status(err.status).json({ error: { code: err.code, message: err.message, details: err.details } });
+      return;
+    }
+    // body-parser and multer errors carry a status of their own and are the user's to fix.
+    const status = typeof err?.status === 'number' ? err.status : typeof err?.statusCode === 'number' ? err.statusCode : 500;
+    if (status >= 400 && status < 500) {
+      const message =
+        err.type === 'entity.parse.failed'
+          ? 'The request body is not valid JSON; check quotes and commas.'
+          : err.type === 'entity.too.large'
+            ? 'The request body is too large.'
+            : String(err.message || 'The request was refused.');
+      res.status(status).json({ error: { code: err.code ? String(err.code).toLowerCase() : 'bad-request', message, details: null } });
+      return;
+    }
+    log(err);
+    res.status(500).json({ error: { code: 'internal', message: 'Something went wrong on the server; the error is logged.', details: null } });
+  };
+}

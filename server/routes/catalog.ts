@@ -1,0 +1,49 @@
+import { ComponentInputSchema, ComponentKindSchema, PlateInputSchema } from '../../shared/schemas/catalog';
+import { IdParamSchema, ListQuerySchema } from '../../shared/schemas/common';
+import { CAN } from '../../shared/schemas/auth';
+import type { CatalogService } from '../services/catalog';
+import { parseOr400 } from './parse';
+import type { RouteDef } from './route-table';
+
+const ComponentListQuerySchema = ListQuerySchema.extend({ kind: ComponentKindSchema.optional() });
+
+export function catalogRoutes(catalog: CatalogService): RouteDef[] {
+  const id = (params: unknown) => parseOr400(IdParamSchema, params, 'address').id;
+  return [
+    { method: 'get', path: '/plates', access: 'signed-in', handler: async (req, res) => {
+      res.json(await catalog.listPlates(parseOr400(ListQuerySchema, req.query, 'query')));
+    } },
+    { method: 'post', path: '/plates', access: CAN.editCatalog, handler: async (req, res) => {
+      res.status(201).json(await catalog.createPlate(parseOr400(PlateInputSchema, req.body, 'plate')));
+    } },
+    { method: 'get', path: '/plates/:id', access: 'signed-in', handler: async (req, res) => {
+      res.json(await catalog.getPlate(id(req.params)));
+    } },
+    { method: 'put', path: '/plates/:id', access: CAN.editCatalog, handler: async (req, res) => {
+      const plateId = id(req.params);
+      res.json(await catalog.updatePlate(plateId, parseOr400(PlateInputSchema, req.body, 'plate')));
+    } },
+    { method: 'delete', path: '/plates/:id', access: CAN.deleteCatalog, handler: async (req, res) => {
+      await catalog.deletePlate(id(req.params));
+      res.status(204).end();
+    } },
+
+    { method: 'get', path: '/components', access: 'signed-in', handler: async (req, res) => {
+      res.json(await catalog.listComponents(parseOr400(ComponentListQuerySchema, req.query, 'query')));
+    } },
+    { method: 'post', path: '/components', access: CAN.editCatalog, handler: async (req, res) => {
+      res.status(201).json(await catalog.createComponent(parseOr400(ComponentInputSchema, req.body, 'component')));
+    } },
+    { method: 'get', path: '/components/:id', access: 'signed-in', handler: async (req, res) => {
+      res.json(await catalog.getComponent(id(req.params)));
+    } },
+    { method: 'put', path: '/components/:id', access: CAN.editCatalog, handler: async (req, res) => {
+      const componentId = id(req.params);
+      res.json(await catalog.updateComponent(componentId, parseOr400(ComponentInputSchema, req.body, 'component')));
+    } },
+    { method: 'delete', path: '/components/:id', access: CAN.deleteCatalog, handler: async (req, res) => {
+      await catalog.deleteComponent(id(req.params));
+      res.status(204).end();
+    } },
+  ];
+}

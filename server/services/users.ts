@@ -1,0 +1,40 @@
+import type { CreateUserInput, UpdateUserInput, User } from '../../shared/schemas/auth';
+import type { UsersRepo } from '../db/users-repo';
+import { HttpError, conflict, notFound } from '../middleware/errors';
+import { hashPassword, verifyPassword } from './passwords';
+
+export function usersService(repo: UsersRepo) {
+  return {
+    /** Resolves to the user when the address and password match an active account, else null. */
+    async authenticate(email: string, password: string): Promise<User | null> {
+      const found = await repo.findWithHashByEmail(email.trim().toLowerCase());
+      // Verify even when the address is unknown, so timing does not tell which addresses exist.
+      const ok = await verifyPassword(password, found?.passwordHash ?? DUMMY_HASH);
+      if (!found || !ok || !found.active) return null;
+      const { passwordHash: _omit, ...user } = found;
+      return user;
+    },
+    list: () => repo.list(),
+    async create(input: CreateUserInput): Promise<User> {
+      if (await repo.findWithHashByEmail(input.email)) throw conflict(`A user with the address ${input.email} already exists.`);
+      return repo.insert({ email: input.email, name: input.name, role: input.role, passwordHash: await hashPassword(input.password) });
+    },
+    async update(actor: User, id: number, input: UpdateUserInput): Promise<User> {
+      const target = await repo.findById(id);
+      if (!target) throw notFound(`User ${id}`);
+      const losesAdmin = target.role === 'admin' && target.active && ((input.role && input.role !== 'admin') || input.active === false);
+      if (losesAdmin && (await repo.countActiveAdmins()) <= 1) {
+        throw conflict('This is the last active admin; make another user admin first.');
+      }
+      if (actor.id === id && input.active === false) throw new HttpError(409, 'conflict', 'You cannot deactivate your own account.');
+      return (await repo.update(id, input))!;
+    },
+    async setDisplayUnit(id: number, displayUnit: User['displayUnit']): Promise<User> {
+      return (await repo.update(id, { displayUnit }))!;
+    },
+  };
+}
+export type UsersService = ReturnType<typeof usersService>;
+
+// A fixed hash of a random string, verified against when the address is unknown.
+const DUMMY_HASH = 'scrypt$32768$8$1$AAAAAAAAAAAAAAAAAAAAAA==$Gk0wb9b2ZBqFpy1m8Qx4o4uF3kTn5bTzFfMZ4l9c8Ss=';

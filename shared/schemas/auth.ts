@@ -1,0 +1,58 @@
+import { z } from 'zod';
+import { UnitSchema, listOf } from './common';
+
+export const ROLES = ['admin', 'lead', 'programmer', 'reviewer', 'operator'] as const;
+export const RoleSchema = z.enum(ROLES, { message: `Role must be one of ${ROLES.join(', ')}.` });
+export type Role = z.infer<typeof RoleSchema>;
+
+const email = z.string({ message: 'E-mail address is required.' }).trim().toLowerCase().email('Enter a valid e-mail address, like name@example.com.').max(254);
+
+export const LoginInputSchema = z.object({
+  email,
+  password: z.string({ message: 'Password is required.' }).min(1, 'Password is required.').max(200),
+});
+export type LoginInput = z.infer<typeof LoginInputSchema>;
+
+export const UserSchema = z.object({
+  id: z.number().int(),
+  email: z.string(),
+  name: z.string(),
+  role: RoleSchema,
+  active: z.boolean(),
+  displayUnit: UnitSchema.nullable(),
+  createdAt: z.string(),
+});
+export type User = z.infer<typeof UserSchema>;
+export const UserListSchema = listOf(UserSchema);
+
+export const PasswordSchema = z.string().min(10, 'Choose a password of at least 10 characters.').max(200, 'Passwords are limited to 200 characters.');
+
+export const CreateUserInputSchema = z.object({
+  email,
+  name: z.string().trim().min(1, 'Name is required.').max(120),
+  role: RoleSchema,
+  password: PasswordSchema,
+});
+export type CreateUserInput = z.infer<typeof CreateUserInputSchema>;
+
+export const UpdateUserInputSchema = z
+  .object({
+    name: z.string().trim().min(1, 'Name is required.').max(120).optional(),
+    role: RoleSchema.optional(),
+    active: z.boolean().optional(),
+  })
+  .refine((v) => Object.keys(v).length > 0, 'Send at least one of name, role or active.');
+export type UpdateUserInput = z.infer<typeof UpdateUserInputSchema>;
+
+export const UpdateMeInputSchema = z.object({ displayUnit: UnitSchema.nullable() });
+
+/** What each role may do; the server enforces it, the client uses it to hide controls it would refuse. */
+export const CAN = {
+  editCatalog: ['lead', 'programmer'] as Role[],
+  deleteCatalog: ['lead'] as Role[],
+  editSettings: ['admin', 'lead'] as Role[],
+  manageUsers: ['admin'] as Role[],
+  editTemplates: ['lead', 'programmer'] as Role[],
+  releaseTemplates: ['lead'] as Role[],
+} as const;
+export const may = (role: Role | undefined, action: keyof typeof CAN) => !!role && CAN[action].includes(role);

@@ -1,0 +1,29 @@
+import { z } from 'zod';
+
+/** Length units Gridset works in; 1 in = 25.4 mm exactly (NIST SP 811, Appendix B). */
+export const UnitSchema = z.enum(['in', 'mm'], { message: 'Unit must be "in" or "mm".' });
+export type Unit = z.infer<typeof UnitSchema>;
+
+export const finite = (label: string) =>
+  z.number({ message: `${label} must be a number.` }).refine(Number.isFinite, `${label} must be a finite number.`);
+
+export const positive = (label: string) => finite(label).refine((v) => v > 0, `${label} must be greater than zero.`);
+
+export const nonNegative = (label: string) => finite(label).refine((v) => v >= 0, `${label} must be zero or more.`);
+
+export const PointSchema = z.object({ x: finite('x'), y: finite('y') });
+export type Point = z.infer<typeof PointSchema>;
+
+export const IdParamSchema = z.object({
+  id: z.coerce.number({ message: 'The id in the address must be a whole number.' }).int().positive(),
+});
+
+/** Paging and text filter for every catalog list: ?limit=&offset=&q= */
+export const ListQuerySchema = z.object({
+  limit: z.coerce.number().int().min(1, 'limit must be at least 1.').max(5000, 'limit must be 5000 or less.').optional(),
+  offset: z.coerce.number().int().min(0, 'offset must be zero or more.').default(0),
+  q: z.string().trim().max(100, 'The search text must be 100 characters or fewer.').optional(),
+});
+export type ListQuery = z.infer<typeof ListQuerySchema>;
+
+export const listOf = <T extends z.ZodType>(item: T) => z.object({ items: z.array(item), total: z.number().int() });

@@ -1,0 +1,154 @@
+import { z } from 'zod';
+import { UnitSchema, finite, nonNegative } from './common';
+import { ComponentKindSchema, StopSchema, JawFaceSchema, ClampModelSchema } from './catalog';
+import { OutlineSchema } from './geometry';
+import { PointSchema } from './common';
+
+/** The four rotations a pinned component can take on a square hole grid. */
+export const RotationSchema = z.union([z.literal(0), z.literal(90), z.literal(180), z.literal(270)], {
+  message: 'Rotation must be 0, 90, 180 or 270 degrees.',
+});
+export type Rotation = z.infer<typeof RotationSchema>;
+
+export const HoleSchema = z.object({
+  col: z.number({ message: 'Hole column must be a whole number.' }).int('Hole column must be a whole number.'),
+  row: z.number({ message: 'Hole row must be a whole number.' }).int('Hole row must be a whole number.'),
+});
+export type Hole = z.infer<typeof HoleSchema>;
+
+export const PlacementSchema = z.object({
+  /** Stable identity across versions; stations are identified by placement id and stop index. */
+  id: z.string().trim().min(1, 'Placement id is required.').max(40).regex(/^[A-Za-z0-9._-]+$/, 'Placement id may hold letters, digits, ".", "-" and "_".'),
+  component: z.string().min(1, 'Placement component code is required.'),
+  hole: HoleSchema,
+  rotation: RotationSchema,
+  stopsInUse: z.array(z.number().int().min(0)).default([]),
+});
+export type Placement = z.infer<typeof PlacementSchema>;
+
+export const SharedOffsetSchema = z.discriminatedUnion('kind', [
+  z.object({ kind: z.literal('hole'), hole: HoleSchema, name: z.string().max(40).optional() }),
+  z.object({ kind: z.literal('center'), name: z.string().max(40).optional() }),
+  z.object({ kind: z.literal('point'), x: finite('Shared offset x'), y: finite('Shared offset y'), z: finite('Shared offset z').default(0), name: z.string().max(40).optional() }),
+], { message: 'Shared offset kind must be "hole", "center" or "point".' });
+export type SharedOffset = z.infer<typeof SharedOffsetSchema>;
+
+export const NUMBERING_ORDERS = ['row-by-row', 'serpentine', 'by-rail', 'by-hand'] as const;
+export const NumberingSchema = z.object({
+  order: z.enum(NUMBERING_ORDERS, { message: `Numbering order must be one of ${NUMBERING_ORDERS.join(', ')}.` }),
+  /** For by-hand: station ids ("placementId:stopIndex") in the order they are numbered. */
+  manual: z.array(z.string()).optional(),
+});
+export type Numbering = z.infer<typeof NumberingSchema>;
+
+export const PlateRefSchema = z.object({
+  code: z.string().min(1),
+  unit: UnitSchema,
+  pitch: finite('Plate pitch').refine((v) => v > 0, 'Plate pitch must be greater than zero.'),
+  columns: z.number().int().min(1),
+  rows: z.number().int().min(1),
+  holeDiameter: nonNegative('Plate hole diameter').optional(),
+  edgeMargin: nonNegative('Plate edge margin').optional(),
+  name: z.string().optional(),
+});
+export type PlateRef = z.infer<typeof PlateRefSchema>;
+
+/** A component as carried inside a template file, so the file stands alone. */
+export const TemplateComponentSchema = z.object({
+  code: z.string().min(1),
+  kind: ComponentKindSchema,
+  unit: UnitSchema,
+  name: z.string().optional(),
+  dowels: z.array(PointSchema).min(1),
+  stops: z.array(StopSchema).default([]),
+  jawFaces: z.array(JawFaceSchema).default([]),
+  outline: OutlineSchema.nullable().default(null),
+  clamp: ClampModelSchema.nullable().optional(),
+  layer: z.string().optional(),
+});
+export type TemplateComponent = z.infer<typeof TemplateComponentSchema>;
+
+export const StationSchema = z.object({
+  /** Identity that survives renumbering: "placementId:stopIndex". */
+  id: z.string(),
+  number: z.number().int(),
+  placement: z.string(),
+  stop: z.number().int(),
+  x: z.number(),
+  y: z.number(),
+  z: z.number(),
+  c: z.number(),
+  nominalWidth: z.number().nullable(),
+});
+export type Station = z.infer<typeof StationSchema>;
+
+/** The content of a template version: the body of template.json without derived fields. */
+export const TemplateContentSchema = z.object({
+  name: z.string().trim().min(1, 'Template name is required.').max(120),
+  unit: UnitSchema,
+  plate: PlateRefSchema,
+  components: z.array(TemplateComponentSchema),
+  placements: z.array(PlacementSchema).max(5000),
+  sharedOffset: SharedOffsetSchema,
+  numbering: NumberingSchema.default({ order: 'row-by-row' }),
+});
+export type TemplateContent = z.infer<typeof TemplateContentSchema>;
+
+// ---------- evaluation results (added for the station engine in shared/stations) ----------
+
+export const PROBLEM_CODES = [
+  'duplicate-placement-id',
+  'duplicate-component-code',
+  'unknown-component',
+  'bad-rotation',
+  'dowel-off-grid',
+  'dowel-off-plate',
+  'hole-taken',
+  'off-plate',
+  'overlap',
+  'stop-out-of-range',
+  'duplicate-stop',
+  'shared-offset-off-plate',
+  'numbering-unknown-station',
+  'numbering-duplicate-station',
+] as const;
+export const ProblemCodeSchema = z.enum(PROBLEM_CODES);
+export type ProblemCode = z.infer<typeof ProblemCodeSchema>;
+
+/** A reason a template cannot be released as laid out; the message names what and where. */
+export const ProblemSchema = z.object({
+  code: ProblemCodeSchema,
+  message: z.string(),
+  /** Id of the placement at fault. */
+  placement: z.string().optional(),
+  /** Index into the component's dowels (0 is the primary dowel; messages count from 1). */
+  dowel: z.number().int().optional(),
+  /** The grid hole concerned: the nearest hole for an off-grid dowel. */
+  hole: HoleSchema.optional(),
+  /** Index into the component's stops, for stop problems. */
+  stop: z.number().int().optional(),
+  /** The other placement of an overlap or a shared hole. */
+  otherPlacement: z.string().optional(),
+  /** The station id, for numbering problems. */
+  station: z.string().optional(),
+});
+export type Problem = z.infer<typeof ProblemSchema>;
+
+/** One row of the pairing table: which jaw rail, on which grid hole, holds which width against which fixed face. */
+export const PairingSchema = z.object({
+  fixedPlacement: z.string(),
+  fixedComponent: z.string(),
+  /** Index into the fixed component's jaw faces. */
+  fixedFace: z.number().int(),
+  jawPlacement: z.string(),
+  jawComponent: z.string(),
+  /** Index into the jaw rail's jaw faces. */
+  jawFace: z.number().int(),
+  /** The grid hole under the jaw rail's primary dowel. */
+  jawHole: HoleSchema,
+  /** Distance between the faces, in the template's unit. */
+  width: z.number(),
+  /** Station ids held by this pair, in numbering order. */
+  stations: z.array(z.string()),
+});
+export type Pairing = z.infer<typeof PairingSchema>;

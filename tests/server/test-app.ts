@@ -1,0 +1,69 @@
+import { mkdtempSync, rmSync } from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
+import request from 'supertest';
+import { createApp } from '../../server/app';
+import { openDb, migrate, type Db } from '../../server/db/knex';
+import { seedDemoDataIfEmpty, DEMO_PASSWORD } from '../../server/db/seed-demo';
+import type { Role } from '../../shared/schemas/auth';
+
+export interface TestApp {
+  app: ReturnType<typeof createApp>;
+  db: Db;
+  dataDir: string;
+  errors: unknown[];
+  /** A supertest agent (cookie jar) with a CSRF token, signed in as the demo user of that role when given. */
+  agent(role?: Role): Promise<Agent>;
+  close(): Promise<void>;
+}
+
+export interface Agent {
+  http: ReturnType<typeof request.agent>;
+  token: string;
+  get(url: string): request.Test;
+  post(url: string, body?: object): request.Test;
+  put(url: string, body?: object): request.Test;
+  patch(url: string, body?: object): request.Test;
+  delete(url: string): request.Test;
+}
+
+/** A fresh SQLite file per call, migrated and seeded with the demo shop. */
+export async function makeTestApp(opts: { seed?: boolean } = {}): Promise<TestApp> {
+  const dataDir = mkdtempSync(path.join(os.tmpdir(), 'gridset-test-'));
+  const db = openDb(path.join(dataDir, 'test.sqlite'));
+  await migrate(db);
+  if (opts.seed !== false) await seedDemoDataIfEmpty(db);
+  const errors: unknown[] = [];
+  const app = createApp({ db, sessionSecret: 'test-secret', dataDir, log: (e) => errors.push(e) });
+  return {
+    app, db, dataDir, errors,
+    async agent(role) {
+      const http = request.agent(app);
+      let token = (await http.get('/api/auth/csrf').expect(200)).body.token as string;
+      if (role) {
+        const res = await http.post('/api/auth/login').set('X-CSRF-Token', token).send({ email: `${role}@gridset.test`, password: DEMO_PASSWORD });
+        if (res.status !== 200) throw new Error(`sign-in as ${role} failed: ${res.status} ${JSON.stringify(res.body)}`);
+        token = res.body.csrfToken;
+      }
+      const withToken = (t: request.Test) => t.set('X-CSRF-Token', token);
+      return {
+        http, token,
+        get: (url) => http.get(url),
+        post: (url, body) => withToken(http.post(url)).send(body ?? {}),
+        put: (url, body) => withToken(http.put(url)).send(body ?? {}),
+        patch: (url, body) => withToken(http.patch(url)).send(body ?? {}),
+        delete: (url) => withToken(http.delete(url)),
+      };
+    },
+    async close() {
+      await db.destroy();
+      rmSync(dataDir, { recursive: true, force: true });
+    },
+  };
+}
+
+export async function tableCounts(db: Db, tables: string[]): Promise<Record<string, number>> {
+  const out: Record<string, number> = {};
+  for (const t of tables) out[t] = Number(((await db(t).count({ n: '*' })) as [{ n: number }])[0].n);
+  return out;
+}

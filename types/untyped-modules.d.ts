@@ -1,0 +1,3 @@
+declare module 'dxf';
+declare module 'gcode-parser';
+declare module 'dxf-writer';
