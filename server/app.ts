@@ -5,9 +5,9 @@ import session from 'express-session';
 import helmet from 'helmet';
 import { Passport } from 'passport';
 import { Strategy as LocalStrategy } from 'passport-local';
-import { ConnectSessionKnexStore } from 'connect-session-knex';
 import { csrfSync } from 'csrf-sync';
 import type { Db } from './db/knex';
+import { SessionStore } from './db/session-store';
 import { usersRepo } from './db/users-repo';
 import { catalogRepo } from './db/catalog-repo';
 import { settingsRepo } from './db/settings-repo';
@@ -53,7 +53,7 @@ export function createApp(deps: AppDeps): GridsetApp {
       secret: deps.sessionSecret,
       resave: false,
       saveUninitialized: false,
-      store: new ConnectSessionKnexStore({ knex: db, tableName: 'sessions', createTable: true, cleanupInterval: 15 * 60 * 1000 }),
+      store: new SessionStore(db),
       cookie: { httpOnly: true, sameSite: 'lax', secure: 'auto', maxAge: 12 * 60 * 60 * 1000 },
     }),
   );

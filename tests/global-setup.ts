@@ -1,2 +1,6 @@
-// Filled in by the e2e setup: builds the client once when the browser tests need it.
-export default async function setup() {}
+import { buildClientIfStale } from '../scripts/build-client';
+
+// The browser tests serve the built client; build it once before any test file runs.
+export default async function setup() {
+  buildClientIfStale();
+}

@@ -30,7 +30,7 @@ export function catalogService(repo: CatalogRepo) {
       await repo.deletePlate(id);
     },
 
-    listComponents: (q: ListQuery & { kind?: string }) => repo.listComponents(q),
+    listComponentsJson: (q: ListQuery & { kind?: string }) => repo.listComponentsJson(q),
     async getComponent(id: number) {
       const c = await repo.getComponent(id);
       if (!c) throw notFound(`Component ${id}`);

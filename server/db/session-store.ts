@@ -1,0 +1,35 @@
+import { ConnectSessionKnexStore } from 'connect-session-knex';
+import type { SessionData } from 'express-session';
+import type { Db } from './knex';
+
+const TOUCH_EVERY_MS = 60_000;
+
+/**
+ * Sessions kept in the app's own SQLite file. express-session touches the stored expiry on every
+ * request; writing it at most once a minute per session keeps reads from paying a write each
+ * (the same idea as connect-mongo's touchAfter). A 12-hour session cannot lapse early for it.
+ */
+export class SessionStore extends ConnectSessionKnexStore {
+  private lastTouch = new Map<string, number>();
+
+  constructor(db: Db) {
+    super({ knex: db, tableName: 'sessions', createTable: true, cleanupInterval: 15 * 60 * 1000 });
+  }
+
+  override async touch(sid: string, session: SessionData, callback?: () => void): Promise<void> {
+    const now = Date.now();
+    const last = this.lastTouch.get(sid);
+    if (last !== undefined && now - last < TOUCH_EVERY_MS) {
+      callback?.();
+      return;
+    }
+    if (this.lastTouch.size > 10_000) this.lastTouch.clear();
+    this.lastTouch.set(sid, now);
+    return super.touch(sid, session, callback);
+  }
+
+  override async destroy(sid: string, callback?: (err?: unknown) => void): Promise<number> {
+    this.lastTouch.delete(sid);
+    return super.destroy(sid, callback);
+  }
+}

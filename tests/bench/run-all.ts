@@ -1,0 +1,12 @@
+// `npm run bench [name…]`: runs each benchmark in turn (never part of `npm test`).
+const BENCHES: Record<string, () => Promise<{ run: () => Promise<void> }>> = {
+  'catalog-list': () => import('./catalog-list.bench'),
+};
+
+const wanted = process.argv.slice(2);
+for (const [name, load] of Object.entries(BENCHES)) {
+  if (wanted.length && !wanted.includes(name)) continue;
+  console.log(`\n== ${name} ==`);
+  await (await load()).run();
+}
+process.exit(0);

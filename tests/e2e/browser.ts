@@ -1,0 +1,63 @@
+import { mkdtempSync, rmSync } from 'node:fs';
+import type { AddressInfo } from 'node:net';
+import type { Server } from 'node:http';
+import os from 'node:os';
+import path from 'node:path';
+import { chromium, type BrowserContext, type Page } from 'playwright-core';
+import { createApp } from '../../server/app';
+import { openDb, migrate, type Db } from '../../server/db/knex';
+import { seedDemoDataIfEmpty, DEMO_PASSWORD } from '../../server/db/seed-demo';
+import { clientDir } from '../../scripts/build-client';
+import type { Role } from '../../shared/schemas/auth';
+
+/** Debian's chromium, never a downloaded browser; flags keep it off this machine's closed network. */
+export const CHROMIUM_PATH = process.env.CHROMIUM_PATH ?? '/usr/bin/chromium';
+const CHROMIUM_ARGS = ['--headless', '--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update', '--no-first-run'];
+
+export interface E2E {
+  baseUrl: string;
+  db: Db;
+  context: BrowserContext;
+  newPage(): Promise<Page>;
+  signIn(page: Page, role: Role): Promise<void>;
+  close(): Promise<void>;
+}
+
+/** A real server on a free port over a fresh SQLite file, and a fresh Chromium profile. */
+export async function startE2E(): Promise<E2E> {
+  const dataDir = mkdtempSync(path.join(os.tmpdir(), 'gridset-e2e-'));
+  const db = openDb(path.join(dataDir, 'e2e.sqlite'));
+  await migrate(db);
+  await seedDemoDataIfEmpty(db);
+  const app = createApp({ db, sessionSecret: 'e2e-secret', dataDir, clientDir });
+  const server: Server = await new Promise((resolve) => {
+    const s = app.listen(0, '127.0.0.1', () => resolve(s));
+  });
+  const baseUrl = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
+  const profile = mkdtempSync(path.join(os.tmpdir(), 'gridset-chromium-'));
+  const context = await chromium.launchPersistentContext(profile, { executablePath: CHROMIUM_PATH, headless: true, args: CHROMIUM_ARGS, viewport: { width: 1280, height: 900 } });
+  return {
+    baseUrl, db, context,
+    async newPage() {
+      const page = await context.newPage();
+      page.setDefaultTimeout(10_000);
+      return page;
+    },
+    async signIn(page, role) {
+      // One persistent profile per run: drop the last test's session so the sign-in form shows.
+      await context.clearCookies();
+      await page.goto(`${baseUrl}/sign-in`);
+      await page.getByLabel('E-mail address').fill(`${role}@gridset.test`);
+      await page.getByLabel('Password').fill(DEMO_PASSWORD);
+      await page.getByRole('button', { name: 'Sign in' }).click();
+      await page.getByTestId('signed-in-user').waitFor();
+    },
+    async close() {
+      await context.close();
+      await new Promise((resolve) => server.close(resolve));
+      await db.destroy();
+      rmSync(dataDir, { recursive: true, force: true });
+      rmSync(profile, { recursive: true, force: true });
+    },
+  };
+}
