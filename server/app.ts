@@ -19,6 +19,9 @@ import { authRoutes } from './routes/auth';
 import { userRoutes } from './routes/users';
 import { catalogRoutes } from './routes/catalog';
 import { settingsRoutes } from './routes/settings';
+import { templateRoutes } from './routes/templates';
+import { templatesRepo } from './db/templates-repo';
+import { templatesService } from './services/templates';
 
 export interface AppDeps {
   db: Db;
@@ -38,6 +41,7 @@ export function createApp(deps: AppDeps): GridsetApp {
   const { db } = deps;
   const users = usersService(usersRepo(db));
   const catalog = catalogService(catalogRepo(db));
+  const templates = templatesService({ db, templates: templatesRepo(db), catalog: catalogRepo(db) });
   const settings = settingsRepo(db);
 
   const app = express() as GridsetApp;
@@ -91,6 +95,7 @@ export function createApp(deps: AppDeps): GridsetApp {
     ...userRoutes(users),
     ...catalogRoutes(catalog),
     ...settingsRoutes(settings),
+    ...templateRoutes(templates),
   ];
   mount(api, routes);
   api.use(apiNotFound);

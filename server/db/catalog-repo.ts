@@ -63,8 +63,12 @@ export function catalogRepo(db: Db) {
       if (exceptId) q.whereNot({ id: exceptId });
       return !!(await q.first());
     },
-    async insertPlate(p: PlateFields): Promise<number> {
-      const [row] = await db('plates').insert(plateToRow(p)).returning('id');
+    async plateByCode(code: string): Promise<Plate | undefined> {
+      const r = await db('plates').where({ code }).first();
+      return r && plateFromRow(r);
+    },
+    async insertPlate(p: PlateFields, trx: Db = db): Promise<number> {
+      const [row] = await trx('plates').insert(plateToRow(p)).returning('id');
       return (row as { id: number }).id;
     },
     async updatePlate(id: number, p: PlateFields) {

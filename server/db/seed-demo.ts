@@ -5,6 +5,10 @@ import type { Outline } from '../../shared/schemas/geometry';
 import { hashPassword } from '../services/passwords';
 import { catalogRepo } from './catalog-repo';
 import { settingsRepo, DEFAULT_SETTINGS } from './settings-repo';
+import { templatesRepo } from './templates-repo';
+import { usersRepo } from './users-repo';
+import { templatesService } from '../services/templates';
+import type { Placement, SharedOffset } from '../../shared/schemas/template';
 
 /** Demo only: an invented shop; every account shares this password, so never keep them on a real server. */
 export const DEMO_PASSWORD = 'gridset-demo';
@@ -112,5 +116,53 @@ export async function seedDemoDataIfEmpty(db: Db): Promise<boolean> {
     for (const c of DEMO_COMPONENTS) await trxCatalog.insertComponent(ComponentInputSchema.parse(c));
     await settingsRepo(trx).put({ ...DEFAULT_SETTINGS, shopName: 'Brightwater Fixture Works (demo)' });
   });
+  await seedDemoTemplates(db);
   return true;
+}
+
+const allStops = (n: number) => Array.from({ length: n }, (_, k) => k);
+
+/**
+ * Demo layouts. Inch plate, 20 stations: two long rail sets (CR-8 with a 1.000 in jaw rail one
+ * grid row out, CR-8 with a 1.500 in jaw rail) and a short rail turned 90° with its jaw rail, all
+ * from one shared offset on hole (1, 1). Metric plate: one rail pair, 4 stations.
+ */
+export const DEMO_TEMPLATES: { name: string; plate: string; placements: Placement[]; sharedOffset: SharedOffset; release: boolean }[] = [
+  {
+    name: 'Bracket 1 in bar, 20 up',
+    plate: 'GP-IN-12x8',
+    sharedOffset: { kind: 'hole', hole: { col: 1, row: 1 }, name: 'G54' },
+    release: true,
+    placements: [
+      { id: 'A-CR', component: 'CR-8', hole: { col: 1, row: 1 }, rotation: 0, stopsInUse: allStops(8) },
+      { id: 'A-JR', component: 'JR-1.000', hole: { col: 1, row: 2 }, rotation: 0, stopsInUse: [] },
+      { id: 'B-CR', component: 'CR-8', hole: { col: 1, row: 4 }, rotation: 0, stopsInUse: allStops(8) },
+      { id: 'B-JR', component: 'JR-1.500', hole: { col: 1, row: 5 }, rotation: 0, stopsInUse: [] },
+      { id: 'C-SR', component: 'SR-4', hole: { col: 9, row: 1 }, rotation: 90, stopsInUse: allStops(4) },
+      { id: 'C-JR', component: 'JR-S4-1.000', hole: { col: 8, row: 1 }, rotation: 90, stopsInUse: [] },
+    ],
+  },
+  {
+    name: 'Metric clip, 4 up',
+    plate: 'GP-MM-10x7',
+    sharedOffset: { kind: 'hole', hole: { col: 1, row: 1 }, name: 'G54' },
+    release: true,
+    placements: [
+      { id: 'M-CR', component: 'CR-M-200', hole: { col: 1, row: 1 }, rotation: 0, stopsInUse: allStops(4) },
+      { id: 'M-JR', component: 'JR-M-30', hole: { col: 1, row: 2 }, rotation: 0, stopsInUse: [] },
+    ],
+  },
+];
+
+async function seedDemoTemplates(db: Db) {
+  const users = usersRepo(db);
+  const lead = (await users.findWithHashByEmail('lead@gridset.test'))!;
+  const catalog = catalogRepo(db);
+  const service = templatesService({ db, templates: templatesRepo(db), catalog });
+  for (const t of DEMO_TEMPLATES) {
+    const plate = (await catalog.plateByCode(t.plate))!;
+    const created = await service.create(lead, { name: t.name, plateId: plate.id });
+    await service.saveDraft(created.id, 1, { revision: 1, placements: t.placements, sharedOffset: t.sharedOffset, numbering: { order: 'row-by-row' } });
+    if (t.release) await service.release(created.id, 1);
+  }
 }

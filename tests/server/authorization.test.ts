@@ -32,6 +32,19 @@ const EXPECTED: Record<string, typeof PUBLIC | readonly Role[]> = {
   'DELETE /components/:id': ['lead'],
   'GET /settings': SIGNED_IN,
   'PUT /settings': ['admin', 'lead'],
+  'GET /templates': SIGNED_IN,
+  'POST /templates': EDITORS,
+  'POST /templates/import': EDITORS,
+  'GET /templates/:id': SIGNED_IN,
+  'POST /templates/:id/versions': EDITORS,
+  'GET /templates/:id/versions/:n': SIGNED_IN,
+  'PUT /templates/:id/versions/:n': EDITORS,
+  'POST /templates/:id/versions/:n/release': ['lead'],
+  'GET /templates/:id/versions/:n/stations': SIGNED_IN,
+  'GET /templates/:id/versions/:n/stations.csv': SIGNED_IN,
+  'GET /templates/:id/versions/:n/stations.xlsx': SIGNED_IN,
+  'GET /templates/:id/versions/:n/template.json': SIGNED_IN,
+  'GET /templates/:id/versions/:n/offsets.nc': SIGNED_IN,
 };
 
 let t: TestApp;

@@ -109,7 +109,8 @@ describe('components', () => {
     expect(res.body.error.message).toMatch(/TEST-USED is used by 1 template version/);
     const plateRes = await lead.delete('/api/plates/1');
     expect(plateRes.status).toBe(409);
-    expect(plateRes.body.error.message).toMatch(/used by 1 template/);
+    // the demo template and the one above
+    expect(plateRes.body.error.message).toMatch(/used by 2 template/);
   });
 });
 

@@ -1,0 +1,67 @@
+import type { Db } from './knex';
+import type { TemplateContent } from '../../shared/schemas/template';
+import type { VersionState } from '../../shared/schemas/template-api';
+
+export interface TemplateRow { id: number; name: string; plate_id: number; created_by: number | null; created_at: string; updated_at: string }
+export interface VersionRow {
+  id: number; template_id: number; number: number; state: VersionState; content: string; content_hash: string;
+  revision: number; author_id: number | null; created_at: string; updated_at: string;
+}
+export interface StoredVersion { row: VersionRow; content: TemplateContent }
+
+export function templatesRepo(db: Db) {
+  return {
+    async list(): Promise<{ t: TemplateRow & { plate_code: string; plate_unit: string }; versions: VersionRow[] }[]> {
+      const templates = await db('templates as t').join('plates as p', 'p.id', 't.plate_id').select('t.*', 'p.code as plate_code', 'p.unit as plate_unit').orderBy('t.name');
+      const versions: VersionRow[] = await db('template_versions').select('id', 'template_id', 'number', 'state', 'content_hash', 'revision', 'updated_at', 'created_at', db.raw("json_array_length(content, '$.placements') as placements")).orderBy(['template_id', 'number']);
+      const byTemplate = new Map<number, VersionRow[]>();
+      for (const v of versions) byTemplate.set(v.template_id, [...(byTemplate.get(v.template_id) ?? []), v]);
+      return templates.map((t) => ({ t, versions: byTemplate.get(t.id) ?? [] }));
+    },
+    async get(id: number) {
+      return db('templates as t').join('plates as p', 'p.id', 't.plate_id').select('t.*', 'p.code as plate_code', 'p.unit as plate_unit').where('t.id', id).first() as Promise<(TemplateRow & { plate_code: string; plate_unit: string }) | undefined>;
+    },
+    nameTaken: async (name: string, trx: Db = db) => !!(await trx('templates').whereRaw('lower(name) = lower(?)', [name]).first()),
+    versions: (templateId: number) => db<VersionRow>('template_versions').where({ template_id: templateId }).orderBy('number'),
+    async version(templateId: number, number: number, trx: Db = db): Promise<StoredVersion | undefined> {
+      const row = await trx<VersionRow>('template_versions').where({ template_id: templateId, number }).first();
+      return row && { row, content: JSON.parse(row.content) as TemplateContent };
+    },
+    async insertTemplate(trx: Db, t: { name: string; plateId: number; createdBy: number | null }): Promise<number> {
+      const [row] = await trx('templates').insert({ name: t.name, plate_id: t.plateId, created_by: t.createdBy }).returning('id');
+      return (row as { id: number }).id;
+    },
+    async insertVersion(trx: Db, v: { templateId: number; number: number; state: VersionState; content: TemplateContent; hash: string; authorId: number | null; componentIds: number[] }): Promise<number> {
+      const [row] = await trx('template_versions')
+        .insert({ template_id: v.templateId, number: v.number, state: v.state, content: JSON.stringify(v.content), content_hash: v.hash, author_id: v.authorId })
+        .returning('id');
+      const id = (row as { id: number }).id;
+      await linkComponents(trx, id, v.componentIds);
+      await trx('templates').where({ id: v.templateId }).update({ updated_at: trx.fn.now() });
+      return id;
+    },
+    /** Saves a draft only if it is still at the revision the caller read; false when someone saved first. */
+    async updateDraft(trx: Db, versionId: number, expectedRevision: number, content: TemplateContent, hash: string, componentIds: number[]): Promise<boolean> {
+      const n = await trx('template_versions')
+        .where({ id: versionId, revision: expectedRevision, state: 'draft' })
+        .update({ content: JSON.stringify(content), content_hash: hash, revision: expectedRevision + 1, updated_at: trx.fn.now() });
+      if (n === 0) return false;
+      await trx('template_version_components').where({ version_id: versionId }).delete();
+      await linkComponents(trx, versionId, componentIds);
+      return true;
+    },
+    async setState(trx: Db, versionId: number, state: VersionState) {
+      await trx('template_versions').where({ id: versionId }).update({ state, updated_at: trx.fn.now() });
+    },
+    async nextNumber(trx: Db, templateId: number): Promise<number> {
+      const r = await trx('template_versions').where({ template_id: templateId }).max({ n: 'number' });
+      return Number((r as [{ n: number | null }])[0].n ?? 0) + 1;
+    },
+  };
+}
+export type TemplatesRepo = ReturnType<typeof templatesRepo>;
+
+async function linkComponents(trx: Db, versionId: number, componentIds: number[]) {
+  const unique = [...new Set(componentIds)];
+  if (unique.length) await trx('template_version_components').insert(unique.map((component_id) => ({ version_id: versionId, component_id })));
+}

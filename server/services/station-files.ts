@@ -1,0 +1,79 @@
+import ExcelJS from 'exceljs';
+import type { Unit } from '../../shared/schemas/common';
+import type { Station } from '../../shared/schemas/template';
+import type { TemplateVersion } from '../../shared/schemas/template-api';
+import { DISPLAY_DECIMALS, formatNumber } from '../../shared/units/units';
+import { writeOffsetFile, type OffsetDialect } from '../../shared/gcode/offsets';
+import { badRequest } from '../middleware/errors';
+
+/** The station table columns, in order; CSV headers are the keys, XLSX headers the labels with the unit. */
+const COLUMNS = [
+  { key: 'station', label: 'Station' },
+  { key: 'x', label: 'X', length: true },
+  { key: 'y', label: 'Y', length: true },
+  { key: 'z', label: 'Z', length: true },
+  { key: 'c', label: 'C (deg)' },
+  { key: 'nominal_width', label: 'Nominal width', length: true },
+  { key: 'placement', label: 'Placement' },
+  { key: 'stop', label: 'Stop' },
+  { key: 'station_id', label: 'Station id' },
+] as const;
+
+const csvCell = (v: string) => (/[",\n\r]/.test(v) ? `"${v.replace(/"/g, '""')}"` : v);
+
+/** RFC 4180 CSV; lengths at display precision, with the unit in its own column. */
+export function stationsCsv(unit: Unit, stations: readonly Station[]): string {
+  const header = [...COLUMNS.map((c) => c.key), 'unit'].join(',');
+  const rows = stations.map((s) =>
+    [
+      String(s.number), formatNumber(s.x, unit), formatNumber(s.y, unit), formatNumber(s.z, unit), formatNumber(s.c, 'mm'),
+      s.nominalWidth === null ? '' : formatNumber(s.nominalWidth, unit), s.placement, String(s.stop + 1), s.id, unit,
+    ].map(csvCell).join(','),
+  );
+  return `${[header, ...rows].join('\r\n')}\r\n`;
+}
+
+/** XLSX with numbers stored as numbers, a number format per unit, the unit in each length header, and a frozen header row. */
+export async function stationsXlsx(v: Pick<TemplateVersion, 'name' | 'version' | 'contentHash' | 'unit' | 'stations'>): Promise<Buffer> {
+  const wb = new ExcelJS.Workbook();
+  wb.creator = 'Gridset';
+  const ws = wb.addWorksheet('Stations', { views: [{ state: 'frozen', ySplit: 1 }] });
+  const lengthFormat = v.unit === 'in' ? '0.0000' : '0.000';
+  ws.columns = COLUMNS.map((c) => ({
+    header: 'length' in c && c.length ? `${c.label} (${v.unit})` : c.label,
+    key: c.key,
+    width: c.key === 'station_id' || c.key === 'placement' ? 16 : 14,
+    style: 'length' in c && c.length ? { numFmt: lengthFormat } : c.key === 'c' ? { numFmt: '0.000' } : {},
+  }));
+  ws.getRow(1).font = { bold: true };
+  const round = (x: number) => Number(x.toFixed(DISPLAY_DECIMALS[v.unit] + 2));
+  for (const s of v.stations) {
+    ws.addRow({ station: s.number, x: round(s.x), y: round(s.y), z: round(s.z), c: Number(s.c.toFixed(6)), nominal_width: s.nominalWidth === null ? null : round(s.nominalWidth), placement: s.placement, stop: s.stop + 1, station_id: s.id });
+  }
+  const info = wb.addWorksheet('About');
+  info.addRows([['Template', v.name], ['Version', v.version], ['Content hash (SHA-256)', v.contentHash], ['Unit', v.unit], ['Translations are relative to the shared work offset.']]);
+  info.getColumn(1).width = 26;
+  info.getColumn(2).width = 70;
+  return Buffer.from(await wb.xlsx.writeBuffer());
+}
+
+export function parseBase(base: string | undefined): { x: number; y: number; z: number } | null {
+  if (!base) return null;
+  const [x, y, z] = base.split(',').map((s) => Number(s.trim()));
+  return { x: x!, y: y!, z: z! };
+}
+
+export function offsetsNc(v: TemplateVersion, q: { mode: 'g10' | 'g52'; dialect: OffsetDialect; base?: string }): string {
+  const source = { templateName: v.name, version: v.version, contentHash: v.contentHash };
+  const common = { source, unit: v.unit, stations: v.stations, dialect: q.dialect, sharedOffsetName: v.sharedOffset.name };
+  if (q.mode === 'g10') {
+    const at = parseBase(q.base);
+    if (!at) throw badRequest('mode=g10 needs base=x,y,z: the machine position of the shared offset (entered or probed once), e.g. base=-20.5,-12.25,-14.0.', null, 'missing-base');
+    const r = writeOffsetFile({ ...common, mode: 'g10', sharedOffsetAt: at });
+    if (!r.ok) throw badRequest(r.error.message, null, r.error.code);
+    return r.text;
+  }
+  const r = writeOffsetFile({ ...common, mode: 'g52' });
+  if (!r.ok) throw badRequest(r.error.message, null, r.error.code);
+  return r.text;
+}

@@ -1,0 +1,182 @@
+import { createHash } from 'node:crypto';
+import type { Plate, Component } from '../../shared/schemas/catalog';
+import type { User } from '../../shared/schemas/auth';
+import type { PlateRef, TemplateComponent, TemplateContent } from '../../shared/schemas/template';
+import type { CreateTemplateInput, SaveVersionInput, TemplateSummary, TemplateVersion, VersionState } from '../../shared/schemas/template-api';
+import { canonicalJson } from '../../shared/interchange/canonical-json';
+import { layoutForHash, TEMPLATE_FORMAT, TEMPLATE_FORMAT_VERSION } from '../../shared/interchange/template-file';
+import { evaluateTemplate, type TemplateEvaluation } from '../../shared/stations/evaluate-template';
+import type { Db } from '../db/knex';
+import type { CatalogRepo } from '../db/catalog-repo';
+import type { StoredVersion, TemplatesRepo } from '../db/templates-repo';
+import { HttpError, badRequest, conflict, notFound } from '../middleware/errors';
+
+export const sha256Hex = (text: string) => createHash('sha256').update(text, 'utf8').digest('hex');
+export const contentHash = (content: TemplateContent) => sha256Hex(canonicalJson(layoutForHash(content)));
+
+export const plateRef = (p: Plate): PlateRef => ({ code: p.code, name: p.name, unit: p.unit, pitch: p.pitch, columns: p.columns, rows: p.rows, holeDiameter: p.holeDiameter, edgeMargin: p.edgeMargin });
+
+export const componentCopy = (c: Component): TemplateComponent => ({
+  code: c.code, kind: c.kind, unit: c.unit, name: c.name, dowels: c.dowels, stops: c.stops, jawFaces: c.jawFaces,
+  outline: c.outline, clamp: c.clamp, layer: c.layer,
+});
+
+/** Released and retired versions are production tooling: they never change. */
+const FROZEN: VersionState[] = ['released', 'retired'];
+
+export function templatesService(deps: { db: Db; templates: TemplatesRepo; catalog: CatalogRepo }) {
+  const { db, templates, catalog } = deps;
+
+  async function requireTemplate(id: number) {
+    const t = await templates.get(id);
+    if (!t) throw notFound(`Template ${id}`);
+    return t;
+  }
+  async function requireVersion(templateId: number, number: number, trx: Db = db): Promise<StoredVersion> {
+    const v = await templates.version(templateId, number, trx);
+    if (!v) throw notFound(`Version ${number} of template ${templateId}`);
+    return v;
+  }
+
+  /**
+   * The layout as it will be stored: components the caller sends are kept (a version carries its
+   * own copies, so a file stands alone); codes it does not carry are copied from the catalog.
+   * Only components some placement uses are kept.
+   */
+  async function assemble(base: { name: string; plate: PlateRef }, body: Pick<SaveVersionInput, 'placements' | 'sharedOffset' | 'numbering' | 'components'>) {
+    const carried = new Map((body.components ?? []).map((c) => [c.code, c]));
+    const used = [...new Set(body.placements.map((p) => p.component))];
+    const fromCatalog = await catalog.componentsByCodes(used);
+    const catalogByCode = new Map(fromCatalog.map((c) => [c.code, c]));
+    const components: TemplateComponent[] = [];
+    const unknown: string[] = [];
+    for (const code of used.sort()) {
+      const c = carried.get(code) ?? (catalogByCode.has(code) ? componentCopy(catalogByCode.get(code)!) : undefined);
+      if (c) components.push(c);
+      else unknown.push(code);
+    }
+    if (unknown.length) {
+      throw badRequest(`Component${unknown.length > 1 ? 's' : ''} ${unknown.join(', ')} ${unknown.length > 1 ? 'are' : 'is'} neither in the catalog nor carried by the template; add ${unknown.length > 1 ? 'them' : 'it'} to the catalog or remove the placements.`, { unknown }, 'unknown-component');
+    }
+    const content: TemplateContent = {
+      name: base.name, unit: base.plate.unit, plate: base.plate, components,
+      placements: body.placements, sharedOffset: body.sharedOffset, numbering: body.numbering ?? { order: 'row-by-row' },
+    };
+    const evaluation = evaluateTemplate(content);
+    if (evaluation.problems.length) {
+      const first = evaluation.problems[0]!;
+      const more = evaluation.problems.length > 1 ? ` (and ${evaluation.problems.length - 1} more problem${evaluation.problems.length > 2 ? 's' : ''})` : '';
+      throw new HttpError(400, 'layout-problems', `The layout cannot be saved: ${first.message}${more}`, { problems: evaluation.problems });
+    }
+    const componentIds = components.map((c) => catalogByCode.get(c.code)?.id).filter((id): id is number => id !== undefined);
+    return { content, evaluation, componentIds };
+  }
+
+  function present(templateId: number, v: StoredVersion, evaluation: TemplateEvaluation = evaluateTemplate(v.content)): TemplateVersion {
+    return {
+      format: TEMPLATE_FORMAT, formatVersion: TEMPLATE_FORMAT_VERSION,
+      ...v.content,
+      numbering: v.content.numbering ?? { order: 'row-by-row' },
+      templateId, version: v.row.number, state: v.row.state, revision: v.row.revision, contentHash: v.row.content_hash,
+      stations: evaluation.stations, problems: evaluation.problems, pairings: evaluation.pairings, updatedAt: String(v.row.updated_at),
+    };
+  }
+
+  return {
+    present,
+    async list(): Promise<{ items: TemplateSummary[]; total: number }> {
+      const rows = await templates.list();
+      const items = rows.map(({ t, versions }) => ({
+        id: t.id, name: t.name, plateId: t.plate_id, plateCode: t.plate_code, unit: t.plate_unit as TemplateSummary['unit'],
+        versions: versions.map((v) => ({ number: v.number, state: v.state, contentHash: v.content_hash, placements: Number((v as unknown as { placements: number }).placements ?? 0), updatedAt: String(v.updated_at) })),
+        createdAt: String(t.created_at), updatedAt: String(t.updated_at),
+      }));
+      return { items, total: items.length };
+    },
+    async get(id: number): Promise<TemplateSummary> {
+      const all = await this.list();
+      const t = all.items.find((x) => x.id === id);
+      if (!t) throw notFound(`Template ${id}`);
+      return t;
+    },
+    async create(user: User, input: CreateTemplateInput) {
+      const plate = await catalog.getPlate(input.plateId);
+      if (!plate) throw badRequest(`Plate ${input.plateId} is not in the catalog; choose a plate from the list.`, null, 'unknown-plate');
+      if (await templates.nameTaken(input.name)) throw conflict(`A template named "${input.name}" already exists; choose another name.`);
+      const ref = plateRef(plate);
+      const { content, componentIds } = await assemble({ name: input.name, plate: ref }, { placements: [], sharedOffset: { kind: 'center', name: 'G54' }, numbering: { order: 'row-by-row' } });
+      const id = await db.transaction(async (trx) => {
+        const templateId = await templates.insertTemplate(trx, { name: input.name, plateId: plate.id, createdBy: user.id });
+        await templates.insertVersion(trx, { templateId, number: 1, state: 'draft', content, hash: contentHash(content), authorId: user.id, componentIds });
+        return templateId;
+      });
+      return this.get(id);
+    },
+    async version(templateId: number, number: number): Promise<TemplateVersion> {
+      await requireTemplate(templateId);
+      return present(templateId, await requireVersion(templateId, number));
+    },
+    async saveDraft(templateId: number, number: number, body: SaveVersionInput): Promise<TemplateVersion> {
+      await requireTemplate(templateId);
+      const current = await requireVersion(templateId, number);
+      if (FROZEN.includes(current.row.state)) throw conflict(`Version ${number} is ${current.row.state}; ${current.row.state} versions never change. Start a new draft from it instead.`);
+      if (current.row.state !== 'draft') throw conflict(`Version ${number} is ${current.row.state}; only drafts can be edited.`);
+      if (body.revision !== current.row.revision) {
+        throw new HttpError(409, 'stale-revision', `Someone saved version ${number} after you opened it (your revision ${body.revision}, now ${current.row.revision}); nothing of yours was saved. Compare and save again.`, { current: present(templateId, current) });
+      }
+      const { content, evaluation, componentIds } = await assemble({ name: current.content.name, plate: current.content.plate }, body);
+      const saved = await db.transaction(async (trx) => templates.updateDraft(trx, current.row.id, body.revision, content, contentHash(content), componentIds));
+      if (!saved) {
+        const now = await requireVersion(templateId, number);
+        throw new HttpError(409, 'stale-revision', `Someone saved version ${number} at the same moment; nothing of yours was saved. Compare and save again.`, { current: present(templateId, now) });
+      }
+      return present(templateId, await requireVersion(templateId, number), evaluation);
+    },
+    async newDraft(user: User, templateId: number, from: number): Promise<TemplateVersion> {
+      await requireTemplate(templateId);
+      const source = await requireVersion(templateId, from);
+      const ids = (await catalog.componentsByCodes(source.content.components.map((c) => c.code))).map((c) => c.id);
+      const number = await db.transaction(async (trx) => {
+        const n = await templates.nextNumber(trx, templateId);
+        await templates.insertVersion(trx, { templateId, number: n, state: 'draft', content: source.content, hash: source.row.content_hash, authorId: user.id, componentIds: ids });
+        return n;
+      });
+      return present(templateId, await requireVersion(templateId, number));
+    },
+    /** A lead releases a draft or a version in review; the layout must have no problems. */
+    async release(templateId: number, number: number): Promise<TemplateVersion> {
+      await requireTemplate(templateId);
+      const v = await requireVersion(templateId, number);
+      if (FROZEN.includes(v.row.state)) throw conflict(`Version ${number} is already ${v.row.state}.`);
+      const evaluation = evaluateTemplate(v.content);
+      if (evaluation.problems.length) throw new HttpError(400, 'layout-problems', `Version ${number} cannot be released: ${evaluation.problems[0]!.message}`, { problems: evaluation.problems });
+      await db.transaction((trx) => templates.setState(trx, v.row.id, 'released'));
+      return present(templateId, await requireVersion(templateId, number), evaluation);
+    },
+    /** A template.json (already checked against the JSON Schema) becomes a new template whose version 1 is a draft. */
+    async importFile(user: User, file: TemplateContent & { components: TemplateComponent[] }): Promise<{ id: number; version: number }> {
+      const existingPlate = await catalog.plateByCode(file.plate.code);
+      if (existingPlate) {
+        const p = plateRef(existingPlate);
+        const differs = (['unit', 'pitch', 'columns', 'rows'] as const).filter((k) => p[k] !== file.plate[k]);
+        if (differs.length) {
+          throw badRequest(`The file's plate ${file.plate.code} differs from the catalog's plate of that code in ${differs.join(', ')}; rename the plate in the file or fix it in the catalog.`, { differs }, 'plate-mismatch');
+        }
+      }
+      const plate: PlateRef = existingPlate ? plateRef(existingPlate) : { ...file.plate, edgeMargin: file.plate.edgeMargin ?? file.plate.pitch / 2 };
+      const { content, componentIds } = await assemble({ name: file.name, plate }, { placements: file.placements, sharedOffset: file.sharedOffset, numbering: file.numbering, components: file.components });
+      return db.transaction(async (trx) => {
+        let name = file.name;
+        for (let k = 1; await templates.nameTaken(name, trx); k++) name = `${file.name} (imported${k > 1 ? ` ${k}` : ''})`;
+        const plateId = existingPlate?.id ?? (await catalog.insertPlate({ code: plate.code, name: plate.name ?? plate.code, unit: plate.unit, pitch: plate.pitch, columns: plate.columns, rows: plate.rows, holeDiameter: plate.holeDiameter || plate.pitch / 4, thread: '', edgeMargin: plate.edgeMargin, notes: `Added by importing template "${file.name}".` }, trx));
+        const named = { ...content, name };
+        const id = await templates.insertTemplate(trx, { name, plateId, createdBy: user.id });
+        await templates.insertVersion(trx, { templateId: id, number: 1, state: 'draft', content: named, hash: contentHash(named), authorId: user.id, componentIds });
+        return { id, version: 1 };
+      });
+    },
+    assemble,
+    requireVersion,
+  };
+}
+export type TemplatesService = ReturnType<typeof templatesService>;

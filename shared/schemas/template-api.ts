@@ -1,0 +1,85 @@
+import { z } from 'zod';
+import { listOf } from './common';
+import {
+  NumberingSchema, PairingSchema, PlacementSchema, ProblemSchema, SharedOffsetSchema, StationSchema,
+  TemplateComponentSchema, TemplateContentSchema, PlateRefSchema,
+} from './template';
+import { UnitSchema } from './common';
+
+export const VERSION_STATES = ['draft', 'in-review', 'released', 'retired'] as const;
+export const VersionStateSchema = z.enum(VERSION_STATES);
+export type VersionState = z.infer<typeof VersionStateSchema>;
+
+export const CreateTemplateInputSchema = z.object({
+  name: z.string({ message: 'Template name is required.' }).trim().min(1, 'Template name is required.').max(120, 'Template name must be 120 characters or fewer.'),
+  plateId: z.number({ message: 'Choose a plate.' }).int().positive('Choose a plate.'),
+});
+export type CreateTemplateInput = z.infer<typeof CreateTemplateInputSchema>;
+
+/** PUT of a draft: the template.json shape with the revision it was read at. */
+export const SaveVersionInputSchema = z.object({
+  revision: z.number({ message: 'revision is required: send the revision the draft was read at.' }).int().min(1),
+  placements: z.array(PlacementSchema).max(5000, 'A template holds at most 5,000 placements.'),
+  sharedOffset: SharedOffsetSchema,
+  numbering: NumberingSchema.default({ order: 'row-by-row' }),
+  /** Copies of components the version carries; codes not listed are taken from the catalog. */
+  components: z.array(TemplateComponentSchema).max(5000).optional(),
+}).passthrough();
+export type SaveVersionInput = z.infer<typeof SaveVersionInputSchema>;
+
+export const VersionSummarySchema = z.object({
+  number: z.number().int(),
+  state: VersionStateSchema,
+  contentHash: z.string(),
+  placements: z.number().int(),
+  updatedAt: z.string(),
+});
+
+export const TemplateSummarySchema = z.object({
+  id: z.number().int(),
+  name: z.string(),
+  plateId: z.number().int(),
+  plateCode: z.string(),
+  unit: UnitSchema,
+  versions: z.array(VersionSummarySchema),
+  createdAt: z.string(),
+  updatedAt: z.string(),
+});
+export type TemplateSummary = z.infer<typeof TemplateSummarySchema>;
+export const TemplateListSchema = listOf(TemplateSummarySchema);
+
+/** A version as the API answers it: the template.json fields plus state, revision and derived checks. */
+export const TemplateVersionSchema = TemplateContentSchema.extend({
+  format: z.literal('gridset-template'),
+  formatVersion: z.literal(1),
+  templateId: z.number().int(),
+  version: z.number().int(),
+  state: VersionStateSchema,
+  revision: z.number().int(),
+  contentHash: z.string(),
+  stations: z.array(StationSchema),
+  problems: z.array(ProblemSchema),
+  pairings: z.array(PairingSchema),
+  plate: PlateRefSchema,
+  components: z.array(TemplateComponentSchema),
+  updatedAt: z.string(),
+});
+export type TemplateVersion = z.infer<typeof TemplateVersionSchema>;
+
+export const StationsAnswerSchema = z.object({
+  unit: UnitSchema,
+  sharedOffset: SharedOffsetSchema,
+  stations: z.array(StationSchema.pick({ number: true, x: true, y: true, z: true, c: true, nominalWidth: true, placement: true, stop: true, id: true })),
+});
+export type StationsAnswer = z.infer<typeof StationsAnswerSchema>;
+
+export const NewVersionInputSchema = z.object({ from: z.number({ message: 'from must be the number of the version to copy.' }).int().min(1) });
+
+export const OffsetsQuerySchema = z.object({
+  mode: z.enum(['g10', 'g52'], { message: 'mode must be g10 or g52.' }).default('g10'),
+  dialect: z.enum(['standard', 'extended'], { message: 'dialect must be standard or extended.' }).default('standard'),
+  base: z
+    .string()
+    .regex(/^\s*-?\d+(\.\d+)?\s*,\s*-?\d+(\.\d+)?\s*,\s*-?\d+(\.\d+)?\s*$/, 'base must be three numbers x,y,z: the machine position of the shared offset, e.g. base=-20.5,-12.25,-14.0.')
+    .optional(),
+});

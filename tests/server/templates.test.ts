@@ -1,0 +1,229 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { createHash } from 'node:crypto';
+import { parse as parseCsv } from 'csv-parse/sync';
+import JSZip from 'jszip';
+import { parseLine } from 'gcode-parser';
+import { makeTestApp, tableCounts, type Agent, type TestApp } from './test-app';
+
+let t: TestApp;
+let programmer: Agent;
+let lead: Agent;
+let operator: Agent;
+beforeAll(async () => {
+  t = await makeTestApp();
+  [programmer, lead, operator] = await Promise.all([t.agent('programmer'), t.agent('lead'), t.agent('operator')]);
+});
+afterAll(async () => { await t.close(); });
+
+const binary = (res: { body: unknown }) => res.body as Buffer;
+const asBuffer = (r: import('supertest').Test) => r.buffer(true).parse((res, cb) => {
+  const chunks: Buffer[] = [];
+  res.on('data', (c: Buffer) => chunks.push(c));
+  res.on('end', () => cb(null, Buffer.concat(chunks)));
+});
+
+/** A fresh draft on the inch demo plate (2.000 in pitch, 12 × 8 holes). */
+async function newDraft(name: string) {
+  const res = await programmer.post('/api/templates', { name, plateId: 1 }).expect(201);
+  return res.body.id as number;
+}
+
+// Hand-worked (arithmetic in the comment): CR-8 has dowels (0,0),(8,0), stops (0.5+k, 0.375).
+// Placed on hole (2,3) at 0°: hole = (4,6); datum k = (4.5+k, 6.375). Shared offset on hole (6,5) = (12,10):
+// translation = (−7.5+k, −3.625). The same rail on hole (10,1) at 90°: hole = (20,2); R90·(0.5+k, 0.375) =
+// (−0.375, 0.5+k); datum = (19.625, 2.5+k); translation = (7.625, −7.5+k).
+const handWorked = {
+  placements: [
+    { id: 'P1', component: 'CR-8', hole: { col: 2, row: 3 }, rotation: 0, stopsInUse: [0, 1, 2, 3, 4, 5, 6, 7] },
+    { id: 'P2', component: 'CR-8', hole: { col: 10, row: 1 }, rotation: 90, stopsInUse: [0, 1, 2, 3, 4, 5, 6, 7] },
+  ],
+  sharedOffset: { kind: 'hole', hole: { col: 6, row: 5 }, name: 'G54' },
+  numbering: { order: 'by-rail' },
+};
+
+describe('templates and versions', () => {
+  it('lists the demo templates: a released inch layout with 20 stations and a metric one', async () => {
+    const res = await operator.get('/api/templates').expect(200);
+    expect(res.body.items.map((x: { name: string }) => x.name)).toEqual(['Bracket 1 in bar, 20 up', 'Metric clip, 4 up']);
+    const st = await operator.get('/api/templates/1/versions/1/stations').expect(200);
+    expect(st.body.stations).toHaveLength(20);
+    expect(st.body.stations.filter((s: { c: number }) => s.c === 90)).toHaveLength(4); // the short rail turned 90°
+    expect((await operator.get('/api/templates/1')).body.versions).toEqual([expect.objectContaining({ number: 1, state: 'released' })]);
+  });
+
+  it('saves a draft and computes the hand-worked station translations', async () => {
+    const id = await newDraft('Hand-worked');
+    const saved = await programmer.put(`/api/templates/${id}/versions/1`, { ...handWorked, revision: 1 }).expect(200);
+    expect(saved.body.revision).toBe(2);
+    const st = (await operator.get(`/api/templates/${id}/versions/1/stations`).expect(200)).body;
+    expect(st.unit).toBe('in');
+    expect(st.sharedOffset).toMatchObject({ kind: 'hole', hole: { col: 6, row: 5 } });
+    for (let k = 0; k < 8; k++) {
+      const a = st.stations[k];
+      expect([a.number, a.placement, a.x, a.y, a.z, a.c]).toEqual([k + 1, 'P1', -7.5 + k, -3.625, 0, 0]);
+      const b = st.stations[8 + k];
+      expect(b.placement).toBe('P2');
+      expect(b.x).toBeCloseTo(7.625, 12);
+      expect(b.y).toBeCloseTo(-7.5 + k, 12);
+      expect(b.c).toBe(90);
+    }
+    // The version carries its own copy of CR-8 and links it for the catalog's "used by".
+    expect(saved.body.components.map((c: { code: string }) => c.code)).toEqual(['CR-8']);
+    expect((await operator.get('/api/components?q=CR-8')).body.items.find((c: { code: string }) => c.code === 'CR-8').usedBy).toBeGreaterThan(0);
+  });
+
+  it('refuses a stale revision with 409 and the current content, and loses nothing', async () => {
+    const id = await newDraft('Two editors');
+    await programmer.put(`/api/templates/${id}/versions/1`, { ...handWorked, revision: 1 }).expect(200);
+    const stale = await lead.put(`/api/templates/${id}/versions/1`, { ...handWorked, placements: handWorked.placements.slice(0, 1), revision: 1 });
+    expect(stale.status).toBe(409);
+    expect(stale.body.error.code).toBe('stale-revision');
+    expect(stale.body.error.details.current.placements).toHaveLength(2);
+    expect((await operator.get(`/api/templates/${id}/versions/1`)).body.placements).toHaveLength(2);
+  });
+
+  it('refuses layouts that cannot be built with 400 naming what to change, and saves nothing', async () => {
+    const id = await newDraft('Bad layouts');
+    const before = (await operator.get(`/api/templates/${id}/versions/1`)).body;
+    const cases: [string, object, RegExp][] = [
+      // CR-8 turned 0° with its second dowel 8 in away lands on a hole; a 45° turn is refused by the schema.
+      ['bad rotation', { placements: [{ ...handWorked.placements[0], rotation: 45 }] }, /Rotation must be 0, 90, 180 or 270/],
+      ['unknown component', { placements: [{ ...handWorked.placements[0], component: 'NO-SUCH' }] }, /NO-SUCH is neither in the catalog/],
+      ['off the plate', { placements: [{ ...handWorked.placements[0], hole: { col: 8, row: 3 } }] }, /P1/],
+      ['overlap', { placements: [handWorked.placements[0], { ...handWorked.placements[0], id: 'P9' }] }, /P9|P1/],
+      ['stop out of range', { placements: [{ ...handWorked.placements[0], stopsInUse: [8] }] }, /stop/i],
+    ];
+    for (const [label, patch, message] of cases) {
+      const res = await programmer.put(`/api/templates/${id}/versions/1`, { ...handWorked, ...patch, revision: before.revision });
+      expect(res.status, label).toBe(400);
+      expect(res.body.error.message, label).toMatch(message);
+    }
+    const after = (await operator.get(`/api/templates/${id}/versions/1`)).body;
+    expect(after.revision).toBe(before.revision);
+    expect(after.contentHash).toBe(before.contentHash);
+  });
+
+  it('refuses an off-grid dowel, naming the component, the dowel and the hole', async () => {
+    const rail = { code: 'CR-OFF', kind: 'center-rail', name: 'Off-pitch rail', unit: 'in', dowels: [{ x: 0, y: 0 }, { x: 7.75, y: 0 }], stops: [{ x: 0.5, y: 0.375 }], jawFaces: [{ x: 0, y: 0.375, normal: 90 }] };
+    await lead.post('/api/components', rail).expect(201);
+    const id = await newDraft('Off grid');
+    const res = await programmer.put(`/api/templates/${id}/versions/1`, { ...handWorked, placements: [{ id: 'P1', component: 'CR-OFF', hole: { col: 1, row: 1 }, rotation: 0, stopsInUse: [0] }], revision: 1 });
+    expect(res.status).toBe(400);
+    const problem = res.body.error.details.problems[0];
+    expect(problem).toMatchObject({ code: 'dowel-off-grid', placement: 'P1', dowel: 1 });
+    expect(problem.message).toMatch(/CR-OFF/);
+    expect(problem.message).toMatch(/dowel 2/);
+    expect(problem.message).toMatch(/\(\d+, \d+\)/);
+  });
+
+  it('lets a lead release a draft; released versions refuse every change with 409', async () => {
+    const id = await newDraft('To release');
+    await programmer.put(`/api/templates/${id}/versions/1`, { ...handWorked, revision: 1 }).expect(200);
+    expect((await programmer.post(`/api/templates/${id}/versions/1/release`)).status).toBe(403);
+    const rel = await lead.post(`/api/templates/${id}/versions/1/release`).expect(200);
+    expect(rel.body.state).toBe('released');
+    const put = await programmer.put(`/api/templates/${id}/versions/1`, { ...handWorked, revision: rel.body.revision });
+    expect(put.status).toBe(409);
+    expect(put.body.error.message).toMatch(/released versions never change/);
+    const next = await programmer.post(`/api/templates/${id}/versions`, { from: 1 }).expect(201);
+    expect(next.body).toMatchObject({ version: 2, state: 'draft', contentHash: rel.body.contentHash });
+  });
+});
+
+describe('station files', () => {
+  it('writes the station table as CSV that csv-parse reads back', async () => {
+    const res = await operator.get('/api/templates/1/versions/1/stations.csv').expect(200);
+    expect(res.headers['content-type']).toMatch(/text\/csv/);
+    const rows = parseCsv(res.text, { columns: true }) as Record<string, string>[];
+    expect(res.text.split('\r\n')[0]!.startsWith('station,x,y,z,c,')).toBe(true);
+    expect(rows).toHaveLength(20);
+    expect(rows[0]).toMatchObject({ station: '1', x: '0.5000', y: '0.3750', z: '0.0000', c: '0.000', nominal_width: '1.0000', placement: 'A-CR', unit: 'in' });
+  });
+
+  it('writes XLSX whose cells hold numbers, read back with jszip as raw Office Open XML', async () => {
+    const res = await asBuffer(operator.get('/api/templates/1/versions/1/stations.xlsx')).expect(200);
+    const zip = await JSZip.loadAsync(binary(res));
+    const sheet = await zip.file('xl/worksheets/sheet1.xml')!.async('string');
+    const shared = await zip.file('xl/sharedStrings.xml')!.async('string');
+    // ECMA-376 Part 1, §18.3.1.4 c (Cell): t="s" marks a shared string; a number cell has no t and its value in <v>.
+    const b2 = /<c r="B2"([^>]*)><v>([^<]+)<\/v>/.exec(sheet)!;
+    expect(b2[1]).not.toMatch(/t="s"/);
+    expect(Number(b2[2])).toBe(0.5);
+    expect(shared).toContain('X (in)');
+    expect(shared).toContain('Nominal width (in)');
+  });
+
+  it('writes G10 L2 blocks that an independent tokenizer reads back as base + translation', async () => {
+    const metric = await operator.get('/api/templates/2/versions/1/offsets.nc?mode=g10&base=-400,-250,-300.5').expect(200);
+    const lines = metric.text.split('\n');
+    expect(lines[0]).toMatch(/^\(/);
+    expect(metric.text).toMatch(/G21/); // mm → G21 (NISTIR 6556 "Length Units — G20 and G21")
+    expect(metric.text).toMatch(/CAUTION|caution|Caution/);
+    const blocks = lines.filter((l) => l.startsWith('G10'));
+    const st = (await operator.get('/api/templates/2/versions/1/stations')).body.stations;
+    expect(blocks).toHaveLength(st.length);
+    blocks.forEach((line, i) => {
+      const w = Object.fromEntries(parseLine(line).words.map(([k, v]: [string, number]) => [k, v]));
+      // G10 L2 Pn: P1 = G54 … (LinuxCNC "G10 L2 Set Coordinate System"; NISTIR 6556).
+      expect(w).toMatchObject({ G: 10, L: 2, P: i + 1 });
+      expect(w.X).toBeCloseTo(-400 + st[i].x, 3);
+      expect(w.Y).toBeCloseTo(-250 + st[i].y, 3);
+      expect(w.Z).toBeCloseTo(-300.5 + st[i].z, 3);
+    });
+  });
+
+  it('refuses G10 for more stations than P1–P9 and answers a G52 sequence instead', async () => {
+    const res = await operator.get('/api/templates/1/versions/1/offsets.nc?mode=g10&base=0,0,0');
+    expect(res.status).toBe(400);
+    expect(res.body.error.message).toMatch(/P1-P9|P1–P9/);
+    const g52 = await operator.get('/api/templates/1/versions/1/offsets.nc?mode=g52').expect(200);
+    expect(g52.text).toMatch(/G20/);
+    expect(g52.text.trim().split('\n').at(-1)).toBe('G52 X0 Y0 Z0');
+    expect(g52.text.split('\n').filter((l) => l.startsWith('G52 X'))).toHaveLength(21);
+    expect((await operator.get('/api/templates/1/versions/1/offsets.nc?mode=g10')).status).toBe(400);
+    expect((await operator.get('/api/templates/1/versions/1/offsets.nc?mode=g10&base=1,2')).status).toBe(400);
+    const ext = await operator.get('/api/templates/1/versions/1/offsets.nc?mode=g10&base=0,0,0&dialect=extended').expect(200);
+    expect(ext.text).toMatch(/CONTROL-SPECIFIC/);
+  });
+});
+
+describe('template.json', () => {
+  it('exports, re-imports as a new draft, and keeps the content hash (SHA-256 of the canonical JSON)', async () => {
+    const file = JSON.parse((await operator.get('/api/templates/1/versions/1/template.json').expect(200)).text);
+    expect(file).toMatchObject({ format: 'gridset-template', formatVersion: 1, unit: 'in', plate: { code: 'GP-IN-12x8', pitch: 2, columns: 12, rows: 8 } });
+    expect(file.stations).toHaveLength(20);
+    const imported = await programmer.post('/api/templates/import', file).expect(201);
+    expect(imported.body).toEqual({ id: expect.any(Number), version: 1 });
+    const v = (await operator.get(`/api/templates/${imported.body.id}/versions/1`)).body;
+    expect(v.state).toBe('draft');
+    expect(v.name).toBe('Bracket 1 in bar, 20 up (imported)');
+    expect(v.contentHash).toBe(file.contentHash);
+    expect(v.stations).toEqual(file.stations);
+    // Node's crypto over the canonical text gives the same hash as the server's (FIPS 180-4 SHA-256).
+    const { canonicalJson } = await import('../../shared/interchange/canonical-json');
+    const { layoutForHash } = await import('../../shared/interchange/template-file');
+    const { name, unit, plate, components, placements, sharedOffset, numbering } = file;
+    expect(createHash('sha256').update(canonicalJson(layoutForHash({ name, unit, plate, components, placements, sharedOffset, numbering }))).digest('hex')).toBe(file.contentHash);
+  });
+
+  it('refuses a file that does not match the JSON Schema with JSON pointers, writing nothing', async () => {
+    const before = await tableCounts(t.db, ['templates', 'template_versions', 'plates']);
+    const file = JSON.parse((await operator.get('/api/templates/2/versions/1/template.json')).text);
+    file.placements[0].rotation = 45;
+    delete file.plate.pitch;
+    const res = await programmer.post('/api/templates/import', file);
+    expect(res.status).toBe(400);
+    const pointers = res.body.error.details.issues.map((i: { pointer: string }) => i.pointer);
+    expect(pointers).toEqual(expect.arrayContaining(['/plate', '/placements/0/rotation']));
+    expect(await tableCounts(t.db, ['templates', 'template_versions', 'plates'])).toEqual(before);
+  });
+
+  it('imports a file onto a plate code the catalog lacks by adding that plate, and refuses a mismatching plate', async () => {
+    const file = JSON.parse((await operator.get('/api/templates/2/versions/1/template.json')).text);
+    const mismatch = await programmer.post('/api/templates/import', { ...file, plate: { ...file.plate, pitch: 25 } });
+    expect(mismatch.status).toBe(400);
+    expect(mismatch.body.error.message).toMatch(/pitch/);
+    const res = await programmer.post('/api/templates/import', { ...file, plate: { ...file.plate, code: 'GP-MM-NEW' } }).expect(201);
+    expect((await operator.get(`/api/templates/${res.body.id}`)).body.plateCode).toBe('GP-MM-NEW');
+  });
+});
