@@ -39,7 +39,8 @@ export type GridsetApp = express.Express & { locals: { routes: RouteDef[] } };
 /** Builds the whole app from its dependencies; never listens (server/index.ts does). */
 export function createApp(deps: AppDeps): GridsetApp {
   const { db } = deps;
-  const users = usersService(usersRepo(db));
+  const userRows = usersRepo(db);
+  const users = usersService(userRows);
   const catalog = catalogService(catalogRepo(db));
   const templates = templatesService({ db, templates: templatesRepo(db), catalog: catalogRepo(db) });
   const settings = settingsRepo(db);
@@ -72,7 +73,7 @@ export function createApp(deps: AppDeps): GridsetApp {
   passport.serializeUser((user, done) => done(null, (user as Express.User).id));
   passport.deserializeUser((id: number, done) => {
     // A deactivated user's existing sessions stop working at their next request.
-    usersRepo(db).findById(id).then((u) => done(null, u && u.active ? u : false), done);
+    userRows.findById(id).then((u) => done(null, u && u.active ? u : false), done);
   });
   api.use(passport.session());
 

@@ -24,10 +24,17 @@ const toUser = (r: UserRow): User => ({
 });
 
 export function usersRepo(db: Db) {
+  // Every signed-in request loads its user; keep them until this repository writes that user.
+  // One process owns the database file, so no other writer can make an entry stale.
+  const byId = new Map<number, User>();
   return {
     async findById(id: number): Promise<User | undefined> {
+      const hit = byId.get(id);
+      if (hit) return hit;
       const row = await db<UserRow>('users').where({ id }).first();
-      return row && toUser(row);
+      const user = row && toUser(row);
+      if (user) byId.set(id, user);
+      return user;
     },
     async findWithHashByEmail(email: string): Promise<(User & { passwordHash: string | null }) | undefined> {
       const row = await db<UserRow>('users').where({ email }).first();
@@ -49,6 +56,7 @@ export function usersRepo(db: Db) {
       if (patch.active !== undefined) row.active = patch.active;
       if (patch.displayUnit !== undefined) row.display_unit = patch.displayUnit;
       if (patch.passwordHash !== undefined) row.password_hash = patch.passwordHash;
+      byId.delete(id);
       await db('users').where({ id }).update(row);
       return this.findById(id);
     },

@@ -41,6 +41,8 @@ function onSweep(t: number, t0: number, sweep: number): boolean {
  * Grow `ext` by the elliptical arc p(t) = C + U cos t + V sin t, t from t0 through t0 + sweep.
  * Exact: besides the end points, x is extreme where dx/dt = −Ux sin t + Vx cos t = 0, that is at
  * t = atan2(Vx, Ux) + kπ, and likewise for y. A circular arc is the case U = (r, 0), V = (0, r).
+ * With `ends` false the caller adds the end points itself (exact polyline vertices), and extremes
+ * within 1e-9 rad of an end are left to them, so rounding in C + U cos t does not move the box.
  */
 export function addArcExtents(
   ext: Extents,
@@ -52,17 +54,27 @@ export function addArcExtents(
   vy: number,
   t0: number,
   sweep: number,
+  ends = true,
 ): void {
   const t1 = t0 + sweep;
-  ext.add(cx + ux * Math.cos(t0) + vx * Math.sin(t0), cy + uy * Math.cos(t0) + vy * Math.sin(t0));
-  ext.add(cx + ux * Math.cos(t1) + vx * Math.sin(t1), cy + uy * Math.cos(t1) + vy * Math.sin(t1));
+  const full = Math.abs(sweep) >= TAU;
+  if (ends) {
+    ext.add(cx + ux * Math.cos(t0) + vx * Math.sin(t0), cy + uy * Math.cos(t0) + vy * Math.sin(t0));
+    ext.add(cx + ux * Math.cos(t1) + vx * Math.sin(t1), cy + uy * Math.cos(t1) + vy * Math.sin(t1));
+  }
   const tx = Math.atan2(vx, ux);
   const ty = Math.atan2(vy, uy);
-  for (const t of [tx, tx + Math.PI, ty, ty + Math.PI]) {
-    if (onSweep(t, t0, sweep)) {
-      ext.add(cx + ux * Math.cos(t) + vx * Math.sin(t), cy + uy * Math.cos(t) + vy * Math.sin(t));
-    }
+  for (let k = 0; k < 4; k++) {
+    const t = (k < 2 ? tx : ty) + (k % 2) * Math.PI;
+    if (!onSweep(t, t0, sweep)) continue;
+    if (!ends && !full && (nearAngle(t, t0) || nearAngle(t, t1))) continue;
+    ext.add(cx + ux * Math.cos(t) + vx * Math.sin(t), cy + uy * Math.cos(t) + vy * Math.sin(t));
   }
+}
+
+function nearAngle(a: number, b: number): boolean {
+  const d = (((a - b) % TAU) + TAU) % TAU;
+  return d < 1e-9 || TAU - d < 1e-9;
 }
 
 /** Circle through a bulge segment: centre, signed radius (negative when clockwise), start angle, sweep. */
@@ -98,9 +110,11 @@ export function addBulgeExtents(ext: Extents, x0: number, y0: number, x1: number
     ext.add(x1, y1);
     return;
   }
+  ext.add(x0, y0);
+  ext.add(x1, y1);
   const a = bulgeArc(x0, y0, x1, y1, b);
   const r = Math.abs(a.r);
-  addArcExtents(ext, a.cx, a.cy, r, 0, 0, r, a.a0, a.sweep);
+  addArcExtents(ext, a.cx, a.cy, r, 0, 0, r, a.a0, a.sweep, false);
 }
 
 /**

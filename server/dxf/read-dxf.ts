@@ -270,15 +270,14 @@ function textValue(raw: string): string {
 
 /** MTEXT with its inline formatting (DXF Reference, MTEXT "Inline codes") removed. */
 function mtextValue(raw: string): string {
-  let s = textValue(raw);
-  s = s.replace(/\\[Pp]/g, '\n').replace(/\\~/g, ' ');
+  // Escaped backslashes and braces first, so the codes below leave them alone.
+  let s = textValue(raw).replace(/\\([\\{}])/g, (_, c: string) => (c === '\\' ? '\u0001' : c === '{' ? '\u0002' : '\u0003'));
+  s = s.replace(/\\P/g, '\n').replace(/\\~/g, ' ');
   s = s.replace(/\\S([^;]*?)[\^/#]([^;]*?);/g, '$1/$2');
   s = s.replace(/\\[ACFfHQTWcp][^;\\{}]*;/g, '');
   s = s.replace(/\\[LlOoKkNX]/g, '');
-  s = s.replace(/\\([\\{}])/g, '\u0000$1');
   s = s.replace(/[{}]/g, '');
-  s = s.replace(/\u0000/g, '');
-  return s;
+  return s.replace(/\u0001/g, '\\').replace(/\u0002/g, '{').replace(/\u0003/g, '}');
 }
 
 function hasOwn(o: object | undefined, key: string): boolean {

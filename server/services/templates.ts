@@ -24,8 +24,29 @@ export const componentCopy = (c: Component): TemplateComponent => ({
 /** Released and retired versions are production tooling: they never change. */
 const FROZEN: VersionState[] = ['released', 'retired'];
 
+/**
+ * Evaluations by content hash: the evaluation is a pure function of the layout, and a stored
+ * layout with a given hash never changes, so reads of a version skip re-running the engine.
+ */
+const EVALUATION_CACHE_SIZE = 200;
+
 export function templatesService(deps: { db: Db; templates: TemplatesRepo; catalog: CatalogRepo }) {
   const { db, templates, catalog } = deps;
+  const evaluations = new Map<string, TemplateEvaluation>();
+  function evaluateStored(v: StoredVersion): TemplateEvaluation {
+    const key = v.row.content_hash;
+    const hit = evaluations.get(key);
+    if (hit) {
+      // Map keeps insertion order: re-inserting makes this the most recently used.
+      evaluations.delete(key);
+      evaluations.set(key, hit);
+      return hit;
+    }
+    const evaluation = evaluateTemplate(v.content);
+    evaluations.set(key, evaluation);
+    if (evaluations.size > EVALUATION_CACHE_SIZE) evaluations.delete(evaluations.keys().next().value!);
+    return evaluation;
+  }
 
   async function requireTemplate(id: number) {
     const t = await templates.get(id);
@@ -72,7 +93,7 @@ export function templatesService(deps: { db: Db; templates: TemplatesRepo; catal
     return { content, evaluation, componentIds };
   }
 
-  function present(templateId: number, v: StoredVersion, evaluation: TemplateEvaluation = evaluateTemplate(v.content)): TemplateVersion {
+  function present(templateId: number, v: StoredVersion, evaluation: TemplateEvaluation = evaluateStored(v)): TemplateVersion {
     return {
       format: TEMPLATE_FORMAT, formatVersion: TEMPLATE_FORMAT_VERSION,
       ...v.content,
@@ -113,7 +134,7 @@ export function templatesService(deps: { db: Db; templates: TemplatesRepo; catal
       return this.get(id);
     },
     async version(templateId: number, number: number): Promise<TemplateVersion> {
-      await requireTemplate(templateId);
+      // One query: a version of a missing template is simply not found.
       return present(templateId, await requireVersion(templateId, number));
     },
     async saveDraft(templateId: number, number: number, body: SaveVersionInput): Promise<TemplateVersion> {
@@ -148,7 +169,7 @@ export function templatesService(deps: { db: Db; templates: TemplatesRepo; catal
       await requireTemplate(templateId);
       const v = await requireVersion(templateId, number);
       if (FROZEN.includes(v.row.state)) throw conflict(`Version ${number} is already ${v.row.state}.`);
-      const evaluation = evaluateTemplate(v.content);
+      const evaluation = evaluateStored(v);
       if (evaluation.problems.length) throw new HttpError(400, 'layout-problems', `Version ${number} cannot be released: ${evaluation.problems[0]!.message}`, { problems: evaluation.problems });
       await db.transaction((trx) => templates.setState(trx, v.row.id, 'released'));
       return present(templateId, await requireVersion(templateId, number), evaluation);

@@ -1,6 +1,8 @@
 // `npm run bench [name…]`: runs each benchmark in turn (never part of `npm test`).
 const BENCHES: Record<string, () => Promise<{ run: () => Promise<void> }>> = {
   'catalog-list': () => import('./catalog-list.bench'),
+  stations: () => import('./stations.bench'),
+  'stock-check': () => import('./stock-check.bench'),
 };
 
 const wanted = process.argv.slice(2);

@@ -1,0 +1,372 @@
+import type { Point, Unit } from '../schemas/common';
+import type { Hole, Pairing, Placement, Problem, Station, TemplateComponent, TemplateContent } from '../schemas/template';
+import { GRID_TOLERANCE, convert, formatLength } from '../units/units';
+import { applyTransform, cosSinDeg, isGridRotation, normalizeDegrees, placementTransform, type RigidTransform } from '../geometry/transform';
+import { componentGeometryIn, type ComponentGeometry } from '../geometry/component-geometry';
+import { boxOfPoints, footprintsOverlap, overlappingBoxPairs, outlineBounds, outlineFootprint, type Box, type Polygon } from '../geometry/outline';
+import { orderStations } from './numbering';
+import { createClampFinder, type ClampFace, type ClampMatch, type FixedFace } from './nominal-width';
+
+export interface EvaluateOptions {
+  /** How far a dowel may sit from a hole center, in the plate's unit. GRID_TOLERANCE of the plate's unit by default. */
+  gridTolerance?: number;
+  /** Touching is not overlapping, and flush is not off the plate, up to this much (plate unit). */
+  slack?: number;
+  /** Arcs are flattened to chords within this (plate unit). A tenth of the grid tolerance by default. */
+  chordTolerance?: number;
+  /** Height of a numbering row band, in the template's unit. A quarter pitch by default. */
+  rowTolerance?: number;
+}
+
+export interface TemplateEvaluation {
+  /** Every station of every placement whose component and rotation are known, in numbering order. */
+  stations: Station[];
+  /** Empty when the layout can be released; otherwise each names the placement, dowel, hole or stop at fault. */
+  problems: Problem[];
+  /** Which jaw rail holds which width against which fixed face. */
+  pairings: Pairing[];
+  /** The shared offset origin in plate coordinates, in the template's unit; datum = origin + translation. */
+  origin: { x: number; y: number; z: number };
+  /** Placements whose component has no closed outline: checked for shared holes, not for overlap. */
+  notOverlapChecked: string[];
+}
+
+/** Kinds whose jaw face is the fixed jaw a part is pushed against. */
+const FIXED_KINDS = new Set(['center-rail', 'short-rail', 'vise']);
+
+interface PreparedComponent {
+  code: string;
+  kind: TemplateComponent['kind'];
+  geometry: ComponentGeometry;
+  /** Local footprint polygons, or null when the component has no closed outline. */
+  footprint: Polygon[] | null;
+  /** Local extent: the outline's exact bounds, or the box of dowels, stops and jaw faces. */
+  extent: Box;
+}
+
+interface Placed {
+  index: number;
+  placement: Placement;
+  component: PreparedComponent;
+  transform: RigidTransform;
+  extent: Box;
+}
+
+interface Draft {
+  id: string;
+  placement: Placed;
+  stop: number;
+  /** Translation, template unit. */
+  x: number;
+  y: number;
+  /** Plate unit until the stations are written. */
+  z: number;
+  c: number;
+  sequence: number;
+  /** Index of the fixed jaw face the stop sits against, when there is one. */
+  face: number;
+  match: ClampMatch | null;
+}
+
+const holeText = (h: Hole) => `hole (${h.col}, ${h.row})`;
+const who = (p: Placement) => `Placement ${p.id} (${p.component})`;
+
+function prepare(component: TemplateComponent, unit: Unit, chordTolerance: number): PreparedComponent {
+  const geometry = componentGeometryIn(component, unit);
+  const footprint = geometry.outline ? outlineFootprint(geometry.outline, chordTolerance) : [];
+  const features = [...geometry.dowels, ...geometry.stops, ...geometry.jawFaces];
+  return {
+    code: component.code,
+    kind: component.kind,
+    geometry,
+    footprint: footprint.length ? footprint : null,
+    extent: geometry.outline && (geometry.outline.paths.length || geometry.outline.circles.length) ? outlineBounds(geometry.outline) : boxOfPoints(features),
+  };
+}
+
+/** A local box under a quarter-turn transform is still a box: its corners map onto the new corners. */
+function transformBox(t: RigidTransform, b: Box): Box {
+  return boxOfPoints([
+    applyTransform(t, { x: b.minX, y: b.minY }),
+    applyTransform(t, { x: b.maxX, y: b.minY }),
+    applyTransform(t, { x: b.minX, y: b.maxY }),
+    applyTransform(t, { x: b.maxX, y: b.maxY }),
+  ]);
+}
+
+/** The shared offset origin in plate coordinates and the plate's unit. */
+function originOf(content: TemplateContent): { x: number; y: number; z: number } {
+  const { plate, sharedOffset: so } = content;
+  switch (so.kind) {
+    case 'hole':
+      return { x: so.hole.col * plate.pitch, y: so.hole.row * plate.pitch, z: 0 };
+    case 'center':
+      return { x: ((plate.columns - 1) * plate.pitch) / 2, y: ((plate.rows - 1) * plate.pitch) / 2, z: 0 };
+    case 'point':
+      // A point is entered in the template's unit, like every other number the template shows.
+      return { x: convert(so.x, content.unit, plate.unit), y: convert(so.y, content.unit, plate.unit), z: convert(so.z ?? 0, content.unit, plate.unit) };
+  }
+}
+
+/**
+ * Lays a template out on its plate: checks every placement, and derives the numbered stations,
+ * their translations from the shared offset, the width each holds, and the pairing table.
+ *
+ * Computed in the plate's unit (the grid is exact there); stations, widths and origin are
+ * reported in the template's unit. Stations of a placement that has problems are still
+ * reported so the layout can be shown; a template with any problem must not be released.
+ */
+export function evaluateTemplate(content: TemplateContent, options: EvaluateOptions = {}): TemplateEvaluation {
+  const { plate } = content;
+  const pu = plate.unit;
+  const tu = content.unit;
+  const pitch = plate.pitch;
+  const tolerance = options.gridTolerance ?? GRID_TOLERANCE[pu];
+  const slack = options.slack ?? 1e-6;
+  const chordTolerance = options.chordTolerance ?? GRID_TOLERANCE[pu] / 10;
+  const rowTolerance = options.rowTolerance ?? convert(pitch / 4, pu, tu);
+  const margin = plate.edgeMargin ?? pitch / 2;
+  const lastCol = plate.columns - 1;
+  const lastRow = plate.rows - 1;
+  const plateBox: Box = { minX: -margin, minY: -margin, maxX: lastCol * pitch + margin, maxY: lastRow * pitch + margin };
+  const onPlate = (h: Hole) => h.col >= 0 && h.row >= 0 && h.col <= lastCol && h.row <= lastRow;
+  const problems: Problem[] = [];
+  const len = (v: number) => formatLength(v, pu);
+
+  // ---- the catalog carried in the template ----
+  const components = new Map<string, PreparedComponent>();
+  for (const c of content.components) {
+    if (components.has(c.code)) {
+      problems.push({ code: 'duplicate-component-code', message: `Component code ${c.code} appears more than once in the template's component list; the first is used.` });
+      continue;
+    }
+    components.set(c.code, prepare(c, pu, chordTolerance));
+  }
+
+  // ---- the shared offset ----
+  const origin = originOf(content);
+  const so = content.sharedOffset;
+  if (so.kind === 'hole' && !onPlate(so.hole)) {
+    problems.push({ code: 'shared-offset-off-plate', hole: so.hole, message: `The shared offset sits on ${holeText(so.hole)}, which is off the plate (holes run from (0, 0) to (${lastCol}, ${lastRow})).` });
+  } else if (so.kind === 'point' && (origin.x < plateBox.minX - slack || origin.x > plateBox.maxX + slack || origin.y < plateBox.minY - slack || origin.y > plateBox.maxY + slack)) {
+    problems.push({ code: 'shared-offset-off-plate', message: `The shared offset point (${formatLength(so.x, tu)}, ${formatLength(so.y, tu)}) lies off the plate.` });
+  }
+
+  // ---- each placement on its own ----
+  const seenIds = new Set<string>();
+  const holeOwner = new Map<number, { placement: Placement; dowel: number }>();
+  const holeKey = (h: Hole) => h.col * 1_000_003 + h.row;
+  const placed: Placed[] = [];
+  content.placements.forEach((placement, index) => {
+    if (seenIds.has(placement.id)) {
+      problems.push({ code: 'duplicate-placement-id', placement: placement.id, message: `Placement id ${placement.id} is used more than once; ids must be unique because stations are named after them.` });
+      return;
+    }
+    seenIds.add(placement.id);
+    const component = components.get(placement.component);
+    if (!component) {
+      problems.push({ code: 'unknown-component', placement: placement.id, message: `Placement ${placement.id} names component ${placement.component}, which is not in the template's component list.` });
+      return;
+    }
+    if (!isGridRotation(placement.rotation)) {
+      problems.push({ code: 'bad-rotation', placement: placement.id, message: `${who(placement)} is turned ${placement.rotation}°; a pinned component can only be turned 0, 90, 180 or 270°.` });
+      return;
+    }
+    const transform = placementTransform(placement.hole, placement.rotation, pitch);
+
+    component.geometry.dowels.forEach((local, dowel) => {
+      const p = applyTransform(transform, local);
+      const hole = { col: Math.round(p.x / pitch), row: Math.round(p.y / pitch) };
+      const off = Math.hypot(p.x - hole.col * pitch, p.y - hole.row * pitch);
+      if (off > tolerance) {
+        problems.push({
+          code: 'dowel-off-grid', placement: placement.id, dowel, hole,
+          message: `${who(placement)} dowel ${dowel + 1} lands ${len(off)} from ${holeText(hole)}; every dowel must sit within ${len(tolerance)} of a grid hole.`,
+        });
+        return;
+      }
+      if (!onPlate(hole)) {
+        problems.push({
+          code: 'dowel-off-plate', placement: placement.id, dowel, hole,
+          message: `${who(placement)} dowel ${dowel + 1} lands on ${holeText(hole)}, which is off the plate (holes run from (0, 0) to (${lastCol}, ${lastRow})).`,
+        });
+        return;
+      }
+      // Two pins cannot share a bushing, outline or not.
+      const owner = holeOwner.get(holeKey(hole));
+      if (owner) {
+        problems.push({
+          code: 'hole-taken', placement: placement.id, dowel, hole, otherPlacement: owner.placement.id,
+          message: `${who(placement)} dowel ${dowel + 1} needs ${holeText(hole)}, which already holds dowel ${owner.dowel + 1} of placement ${owner.placement.id} (${owner.placement.component}).`,
+        });
+      } else {
+        holeOwner.set(holeKey(hole), { placement, dowel });
+      }
+    });
+
+    const extent = transformBox(transform, component.extent);
+    const overhang: Array<[string, number]> = [
+      ['−X', plateBox.minX - extent.minX],
+      ['+X', extent.maxX - plateBox.maxX],
+      ['−Y', plateBox.minY - extent.minY],
+      ['+Y', extent.maxY - plateBox.maxY],
+    ];
+    const [side, worst] = overhang.reduce((a, b) => (b[1] > a[1] ? b : a));
+    if (worst > slack) {
+      problems.push({
+        code: 'off-plate', placement: placement.id, hole: placement.hole,
+        message: `${who(placement)} on ${holeText(placement.hole)} reaches ${len(worst)} past the plate's ${side} edge, which lies ${len(margin)} beyond the outer holes.`,
+      });
+    }
+
+    placed.push({ index, placement, component, transform, extent });
+  });
+
+  // ---- overlaps: a grid of cells finds the neighbours; outlines are moved onto the plate only for them ----
+  const onPlateFootprint = new Map<Placed, Polygon[]>();
+  const footprintOf = (p: Placed) => {
+    let fp = onPlateFootprint.get(p);
+    if (!fp) {
+      fp = p.component.footprint!.map((poly) => poly.map((v) => applyTransform(p.transform, v)));
+      onPlateFootprint.set(p, fp);
+    }
+    return fp;
+  };
+  const solid = placed.filter((p) => p.component.footprint);
+  const overlapping = overlappingBoxPairs(solid.map((p) => p.extent), slack)
+    .map(([i, j]) => ({ a: solid[i]!, b: solid[j]! }))
+    .filter(({ a, b }) => footprintsOverlap(footprintOf(a), footprintOf(b), slack))
+    .map(({ a, b }) => (a.index > b.index ? { later: a, earlier: b } : { later: b, earlier: a }))
+    .sort((x, y) => x.later.index - y.later.index || x.earlier.index - y.earlier.index);
+  for (const { later, earlier } of overlapping) {
+    problems.push({
+      code: 'overlap', placement: later.placement.id, hole: later.placement.hole, otherPlacement: earlier.placement.id,
+      message: `${who(later.placement)} on ${holeText(later.placement.hole)} overlaps placement ${earlier.placement.id} (${earlier.placement.component}) on ${holeText(earlier.placement.hole)}.`,
+    });
+  }
+  const notOverlapChecked = placed.filter((p) => !p.component.footprint).map((p) => p.placement.id);
+
+  // ---- clamp faces of the jaw rails ----
+  // A rail clamps along its whole length: its reach along a face is its extent's.
+  const clamps: ClampFace[] = [];
+  for (const p of placed) {
+    if (p.component.kind !== 'jaw-rail') continue;
+    const e = p.extent;
+    const reach = [{ x: e.minX, y: e.minY }, { x: e.maxX, y: e.minY }, { x: e.minX, y: e.maxY }, { x: e.maxX, y: e.maxY }];
+    p.component.geometry.jawFaces.forEach((face, index) => {
+      const at = applyTransform(p.transform, face);
+      const normal = normalizeDegrees(face.normal + p.transform.degrees);
+      const lateral = lateralSpan(reach, normal);
+      clamps.push({ placement: p.placement.id, component: p.component.code, hole: p.placement.hole, face: index, x: at.x, y: at.y, normal, lateralMin: lateral.min, lateralMax: lateral.max });
+    });
+  }
+  const findClamp = createClampFinder(clamps, pitch, slack);
+
+  // ---- stations ----
+  const drafts: Draft[] = [];
+  for (const p of placed) {
+    const { placement, component, transform: t } = p;
+    const stops = component.geometry.stops;
+    const used = new Set<number>();
+    const fixedFaces: Array<FixedFace | undefined> = FIXED_KINDS.has(component.kind)
+      ? component.geometry.jawFaces.map((f) => ({ ...applyTransform(t, f), normal: normalizeDegrees(f.normal + t.degrees) }))
+      : [];
+    // Stop index order, i.e. along the rail, whatever order the stops were ticked in.
+    for (const stopIndex of [...placement.stopsInUse].sort((a, b) => a - b)) {
+      const stop = Number.isInteger(stopIndex) ? stops[stopIndex] : undefined;
+      if (!stop) {
+        problems.push({
+          code: 'stop-out-of-range', placement: placement.id, stop: stopIndex,
+          message: stops.length
+            ? `${who(placement)} uses stop index ${stopIndex}, but ${component.code} has ${stops.length} stop${stops.length === 1 ? '' : 's'} (indexes 0–${stops.length - 1}).`
+            : `${who(placement)} uses stop index ${stopIndex}, but ${component.code} has no stops.`,
+        });
+        continue;
+      }
+      if (used.has(stopIndex)) {
+        problems.push({ code: 'duplicate-stop', placement: placement.id, stop: stopIndex, message: `${who(placement)} lists stop index ${stopIndex} more than once; it makes one station.` });
+        continue;
+      }
+      used.add(stopIndex);
+      // datum = hole + R(θ)·stop, written out: this loop runs once per station
+      const dx = t.tx + t.cos * stop.x - t.sin * stop.y;
+      const dy = t.ty + t.sin * stop.x + t.cos * stop.y;
+      const face = stop.face ?? 0;
+      const fixed = fixedFaces[face];
+      drafts.push({
+        id: `${placement.id}:${stopIndex}`,
+        placement: p,
+        stop: stopIndex,
+        x: convert(dx - origin.x, pu, tu),
+        y: convert(dy - origin.y, pu, tu),
+        z: (stop.z ?? 0) - origin.z,
+        c: normalizeDegrees(t.degrees + (stop.angle ?? 0)),
+        sequence: drafts.length,
+        face,
+        match: fixed ? findClamp(fixed, dx, dy) : null,
+      });
+    }
+  }
+
+  const { ordered, problems: numberingProblems } = orderStations(drafts, content.numbering ?? { order: 'row-by-row' }, rowTolerance);
+  problems.push(...numberingProblems);
+
+  const stations: Station[] = ordered.map((d, i) => ({
+    id: d.id,
+    number: i + 1,
+    placement: d.placement.placement.id,
+    stop: d.stop,
+    x: d.x,
+    y: d.y,
+    z: convert(d.z, pu, tu),
+    c: d.c,
+    nominalWidth: d.match ? convert(d.match.width, pu, tu) : null,
+  }));
+
+  return {
+    stations,
+    problems,
+    pairings: pairingTable(ordered, tu, pu),
+    origin: { x: convert(origin.x, pu, tu), y: convert(origin.y, pu, tu), z: convert(origin.z, pu, tu) },
+    notOverlapChecked,
+  };
+}
+
+/** Extent of points along the tangent (−sin, cos) of a face whose normal points at `normalDeg`. */
+function lateralSpan(points: readonly Point[], normalDeg: number): { min: number; max: number } {
+  const { cos, sin } = cosSinDeg(normalDeg);
+  let min = Infinity;
+  let max = -Infinity;
+  for (const v of points) {
+    const t = -sin * v.x + cos * v.y;
+    if (t < min) min = t;
+    if (t > max) max = t;
+  }
+  return { min, max };
+}
+
+function pairingTable(ordered: readonly Draft[], tu: Unit, pu: Unit): Pairing[] {
+  const rows = new Map<string, Pairing>();
+  for (const d of ordered) {
+    if (!d.match) continue;
+    const { clamp } = d.match;
+    const key = `${d.placement.placement.id}\u0000${d.face}\u0000${clamp.placement}\u0000${clamp.face}`;
+    let row = rows.get(key);
+    if (!row) {
+      row = {
+        fixedPlacement: d.placement.placement.id,
+        fixedComponent: d.placement.component.code,
+        fixedFace: d.face,
+        jawPlacement: clamp.placement,
+        jawComponent: clamp.component,
+        jawFace: clamp.face,
+        jawHole: clamp.hole,
+        width: convert(d.match.width, pu, tu),
+        stations: [],
+      };
+      rows.set(key, row);
+    }
+    row.stations.push(d.id);
+  }
+  return [...rows.values()];
+}
