@@ -25,6 +25,7 @@ export function Layout() {
           <NavLink to="/" className="mr-3 flex items-center gap-2 text-xl font-semibold text-accent-800">
             <img src="/favicon.svg" alt="" className="h-7 w-7" /> Gridset
           </NavLink>
+          <NavLink to="/templates" className={navClass}>Templates</NavLink>
           <NavLink to="/catalog/components" className={navClass}>Components</NavLink>
           <NavLink to="/catalog/plates" className={navClass}>Plates</NavLink>
           {may(user.role, 'editSettings') ? <NavLink to="/settings" className={navClass}>Shop settings</NavLink> : null}

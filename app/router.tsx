@@ -12,6 +12,8 @@ import { ComponentEditRoute } from './routes/component-edit';
 import { UsersRoute } from './routes/users';
 import { SettingsRoute } from './routes/settings';
 import { NotFoundRoute } from './routes/not-found';
+import { TemplatesRoute } from './routes/templates';
+import { TemplateVersionRoute } from './routes/template-version';
 
 function RequireSignIn() {
   const me = useMe();
@@ -36,6 +38,8 @@ export const router = createBrowserRouter([
         element: <Layout />,
         children: [
           { index: true, element: <HomeRoute /> },
+          { path: 'templates', element: <TemplatesRoute /> },
+          { path: 'templates/:id/versions/:n', element: <TemplateVersionRoute /> },
           { path: 'catalog/plates', element: <PlatesRoute /> },
           { path: 'catalog/plates/:id', element: <PlateEditRoute /> },
           { path: 'catalog/components', element: <ComponentsRoute /> },

@@ -4,9 +4,7 @@ import { ShopSettingsSchema, type ShopSettings } from '../../shared/schemas/sett
 export const DEFAULT_SETTINGS: ShopSettings = {
   shopName: 'My shop',
   defaultUnit: 'in',
-  // Grid tolerance: how close a dowel must land to a hole; probe-check: the pinned-station repeat (common practice).
-  gridToleranceIn: 0.0005,
-  gridToleranceMm: 0.01,
+  // The pinned-station repeat, 0.002–0.003 in (common practice).
   probeToleranceIn: 0.003,
   probeToleranceMm: 0.08,
 };

@@ -22,6 +22,11 @@ export function boxOfPoints(points: readonly Point[]): Box {
   return { minX, minY, maxX, maxY };
 }
 
+/** The smallest box holding both. */
+export function unionBox(a: Box, b: Box): Box {
+  return { minX: Math.min(a.minX, b.minX), minY: Math.min(a.minY, b.minY), maxX: Math.max(a.maxX, b.maxX), maxY: Math.max(a.maxY, b.maxY) };
+}
+
 /**
  * Index pairs of boxes that overlap by more than `slack`, found through a uniform grid of cells
  * about one box across, so the work grows with the number of neighbours, not with n².

@@ -4,9 +4,11 @@ import { UnitSchema, positive } from './common';
 export const ShopSettingsSchema = z.object({
   shopName: z.string().trim().min(1, 'Shop name is required.').max(120, 'Shop name must be 120 characters or fewer.'),
   defaultUnit: UnitSchema,
-  /** Default tolerances, kept in inches and in millimetres because shops set each on its own. */
-  gridToleranceIn: positive('Grid tolerance (in)'),
-  gridToleranceMm: positive('Grid tolerance (mm)'),
+  /**
+   * How far a probed station may sit from the computed table before it is flagged, kept in inches
+   * and in millimetres because shops set each on its own. (The dowel-on-hole tolerance is not a
+   * setting: 0.0005 in / 0.01 mm is the fit of a pinned component.)
+   */
   probeToleranceIn: positive('Probe-check tolerance (in)'),
   probeToleranceMm: positive('Probe-check tolerance (mm)'),
 });

@@ -1,3 +1,4 @@
+export {};
 // `npm run bench [name…]`: runs each benchmark in turn (never part of `npm test`).
 const BENCHES: Record<string, () => Promise<{ run: () => Promise<void> }>> = {
   'catalog-list': () => import('./catalog-list.bench'),

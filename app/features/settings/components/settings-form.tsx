@@ -18,8 +18,6 @@ export function SettingsForm({ settings, readOnly }: { settings: ShopSettings; r
       <fieldset disabled={readOnly} className="contents">
         <TextField label="Shop name" error={e.shopName?.message} {...form.register('shopName')} />
         <SelectField label="Default unit" options={UNITS} error={e.defaultUnit?.message} {...form.register('defaultUnit')} />
-        <TextField label="Dowel-on-hole tolerance" unit="in" type="number" step="any" error={e.gridToleranceIn?.message} {...form.register('gridToleranceIn', num)} />
-        <TextField label="Dowel-on-hole tolerance" unit="mm" type="number" step="any" error={e.gridToleranceMm?.message} {...form.register('gridToleranceMm', num)} />
         <TextField label="Station probe-check tolerance" unit="in" type="number" step="any" error={e.probeToleranceIn?.message} {...form.register('probeToleranceIn', num)} />
         <TextField label="Station probe-check tolerance" unit="mm" type="number" step="any" error={e.probeToleranceMm?.message} {...form.register('probeToleranceMm', num)} />
       </fieldset>

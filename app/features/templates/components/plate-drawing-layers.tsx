@@ -1,0 +1,363 @@
+// The plate drawing's layers. Each is memoized on props that change only with the content (or,
+// for labels, with the level of detail), so zooming and panning, which change only the root
+// viewBox, do not re-render 2,000 placements and 16,000 stations.
+//
+// Geometry layers are children of one scale(1, -1) group and draw in plate coordinates (+Y up,
+// ISO 841). Label layers sit outside it, at (x, −y), so text stays upright.
+import { memo, useImperativeHandle, useMemo, useState, type Ref } from 'react';
+import type { Point } from '../../../../shared/schemas/common';
+import type { Hole } from '../../../../shared/schemas/template';
+import { arrowPathData, boxPathData, circlePathData, holesPathData, num, originSymbolData } from './plate-drawing-geometry';
+import type { Detail } from './plate-drawing-view';
+import type { DrawnPlacement, DrawnStation, PlacementFault, PlacementMove } from './plate-drawing-scene';
+
+/** Tailwind classes for each thing drawn. Safety hues appear only where a problem is named in words. */
+export interface Ink {
+  plate: string;
+  hole: string;
+  datum: string;
+  component: string;
+  componentLines: string;
+  selected: string;
+  selectedText: string;
+  text: string;
+  halo: string;
+  station: string;
+  tag: string;
+  order: string;
+  offset: string;
+  older: string;
+  arrow: string;
+  fault: string;
+  faultText: string;
+  hover: string;
+}
+
+export const SCREEN_INK: Ink = {
+  plate: 'fill-slate-100 stroke-slate-500',
+  hole: 'stroke-slate-400',
+  datum: 'stroke-slate-900 fill-slate-900',
+  component: 'fill-slate-300/70 stroke-slate-700',
+  componentLines: 'stroke-slate-700',
+  selected: 'fill-accent-100/80 stroke-accent-700',
+  selectedText: 'fill-accent-800',
+  text: 'fill-slate-900',
+  halo: 'stroke-white',
+  station: 'stroke-slate-900',
+  tag: 'fill-white stroke-slate-700',
+  order: 'stroke-slate-600',
+  offset: 'stroke-slate-900 fill-slate-900',
+  older: 'stroke-slate-500',
+  arrow: 'stroke-slate-900 fill-slate-900',
+  fault: 'stroke-danger-700',
+  faultText: 'fill-danger-700',
+  hover: 'stroke-accent-700',
+};
+
+/** Black strokes on white for setup sheets (DESIGN.md, Print); the words and dash patterns carry the meaning. */
+export const PRINT_INK: Ink = {
+  plate: 'fill-white stroke-black',
+  hole: 'stroke-black',
+  datum: 'stroke-black fill-black',
+  component: 'fill-white stroke-black',
+  componentLines: 'stroke-black',
+  selected: 'fill-white stroke-black',
+  selectedText: 'fill-black',
+  text: 'fill-black',
+  halo: 'stroke-white',
+  station: 'stroke-black',
+  tag: 'fill-white stroke-black',
+  order: 'stroke-black',
+  offset: 'stroke-black fill-black',
+  older: 'stroke-black',
+  arrow: 'stroke-black fill-black',
+  fault: 'stroke-black',
+  faultText: 'fill-black',
+  hover: 'stroke-black',
+};
+
+// Stroke widths in screen pixels: vector-effect keeps them constant at any zoom.
+const NS = 'non-scaling-stroke' as const;
+
+/** Above this many holes one path string grows to megabytes; a repeating pattern draws the same. */
+export const HOLE_PATH_LIMIT = 40_000;
+
+export const PlateLayer = memo(function PlateLayer(props: {
+  pitch: number;
+  columns: number;
+  rows: number;
+  holeRadius: number;
+  minX: number;
+  minY: number;
+  maxX: number;
+  maxY: number;
+  patternId: string;
+  ink: Ink;
+}) {
+  const { pitch, columns, rows, holeRadius: r, minX, minY, maxX, maxY, patternId, ink } = props;
+  const holes = useMemo(
+    () => (columns * rows <= HOLE_PATH_LIMIT ? holesPathData({ pitch, columns, rows }, r) : null),
+    [pitch, columns, rows, r],
+  );
+  return (
+    <g aria-hidden="true">
+      <path d={boxPathData({ minX, minY, maxX, maxY })} className={ink.plate} strokeWidth={1.5} vectorEffect={NS} />
+      {holes !== null ? (
+        <path d={holes} fill="none" className={ink.hole} strokeWidth={1} vectorEffect={NS} />
+      ) : (
+        <>
+          <defs>
+            <pattern id={patternId} patternUnits="userSpaceOnUse" x={-pitch / 2} y={-pitch / 2} width={pitch} height={pitch}>
+              <circle cx={pitch / 2} cy={pitch / 2} r={r} fill="none" className={ink.hole} strokeWidth={r * 0.15} />
+            </pattern>
+          </defs>
+          <rect x={-pitch / 2} y={-pitch / 2} width={columns * pitch} height={rows * pitch} fill={`url(#${patternId})`} />
+        </>
+      )}
+      {/* The datum hole: a heavier ring with a filled center, so it reads apart from the grid. */}
+      <circle cx={0} cy={0} r={r * 1.35} fill="none" className={ink.datum} strokeWidth={2.5} vectorEffect={NS} />
+      <circle cx={0} cy={0} r={r * 0.35} className={ink.datum} stroke="none" />
+    </g>
+  );
+});
+
+export const ComponentsLayer = memo(function ComponentsLayer({ placements, ink, variant }: {
+  placements: readonly DrawnPlacement[];
+  ink: Ink;
+  /** 'older' is the comparison version: faint, dashed, beneath, and not clickable. */
+  variant: 'current' | 'older';
+}) {
+  if (variant === 'older') {
+    return (
+      <g aria-hidden="true" pointerEvents="none" fill="none" className={ink.older} strokeWidth={1.25} strokeDasharray="5 4" opacity={0.85}>
+        {placements.map((p) => (
+          <g key={p.key} transform={p.transform}>
+            <path d={p.shape.fill + p.shape.lines} vectorEffect={NS} />
+          </g>
+        ))}
+      </g>
+    );
+  }
+  return (
+    <g>
+      {placements.map((p) => (
+        // Clicks are found by data-placement on one listener, not by 2,000 handlers.
+        <g key={p.key} role="img" data-placement={p.id} transform={p.transform} className="cursor-pointer">
+          <title>{p.title}</title>
+          <path d={p.shape.fill} fillRule="evenodd" className={ink.component} strokeWidth={1} vectorEffect={NS} />
+          {p.shape.lines ? <path d={p.shape.lines} fill="none" className={ink.componentLines} strokeWidth={1} vectorEffect={NS} /> : null}
+        </g>
+      ))}
+    </g>
+  );
+});
+
+/** The selected placement drawn again on top in the accent color, so selecting repaints one shape, not all. */
+export const SelectionLayer = memo(function SelectionLayer({ placement, ink }: { placement: DrawnPlacement | null; ink: Ink }) {
+  if (!placement) return null;
+  return (
+    <g aria-hidden="true" pointerEvents="none" transform={placement.transform}>
+      <path d={placement.shape.fill} fillRule="evenodd" className={ink.selected} strokeWidth={3} vectorEffect={NS} />
+      {placement.shape.lines ? <path d={placement.shape.lines} fill="none" className={ink.selected} strokeWidth={2} vectorEffect={NS} /> : null}
+    </g>
+  );
+});
+
+export const FaultOutlines = memo(function FaultOutlines({ placements, ink }: { placements: readonly DrawnPlacement[]; ink: Ink }) {
+  if (placements.length === 0) return null;
+  return (
+    <g aria-hidden="true" pointerEvents="none" fill="none" className={ink.fault} strokeWidth={2.5} strokeDasharray="7 4">
+      {placements.map((p) => (
+        <g key={p.key} transform={p.transform}>
+          <path d={p.shape.fill + p.shape.lines} vectorEffect={NS} />
+        </g>
+      ))}
+    </g>
+  );
+});
+
+export const OrderLayer = memo(function OrderLayer({ d, ink }: { d: string; ink: Ink }) {
+  if (!d) return null;
+  return <path aria-hidden="true" pointerEvents="none" d={d} fill="none" className={ink.order} strokeWidth={1.25} strokeLinejoin="round" vectorEffect={NS} />;
+});
+
+export const CrossesLayer = memo(function CrossesLayer({ d, ink, faint }: { d: string; ink: Ink; faint?: boolean }) {
+  if (!d) return null;
+  return (
+    <path aria-hidden="true" pointerEvents="none" d={d} fill="none" className={faint ? ink.older : ink.station}
+      strokeWidth={faint ? 1 : 1.5} opacity={faint ? 0.7 : 1} vectorEffect={NS} />
+  );
+});
+
+export const MovedLayer = memo(function MovedLayer({ moves, head, ink }: { moves: readonly PlacementMove[]; head: number; ink: Ink }) {
+  const arrows = useMemo(() => {
+    let shafts = '';
+    let heads = '';
+    for (const m of moves) {
+      const a = arrowPathData(m.from, m.to, head);
+      if (!a) continue;
+      shafts += a.shaft;
+      heads += a.head;
+    }
+    return { shafts, heads };
+  }, [moves, head]);
+  if (!arrows.shafts) return null;
+  return (
+    <g aria-hidden="true" pointerEvents="none" className={ink.arrow}>
+      <path d={arrows.shafts} fill="none" strokeWidth={2} vectorEffect={NS} />
+      <path d={arrows.heads} stroke="none" />
+    </g>
+  );
+});
+
+export const OffsetSymbol = memo(function OffsetSymbol({ x, y, arm, ink }: { x: number; y: number; arm: number; ink: Ink }) {
+  const s = useMemo(() => originSymbolData({ x, y }, arm), [x, y, arm]);
+  return (
+    <g aria-hidden="true" pointerEvents="none" className={ink.offset}>
+      <path d={s.axes} fill="none" strokeWidth={2.5} vectorEffect={NS} />
+      <path d={s.heads} stroke="none" />
+      <path d={circlePathData(x, y, arm * 0.12)} fill="none" strokeWidth={2} vectorEffect={NS} />
+    </g>
+  );
+});
+
+/** The hole under the pointer, when holes can be clicked. Its own state, so hovering repaints one ring. */
+export interface HoleHoverHandle {
+  show(hole: Hole | null): void;
+}
+
+export function HoleHover({ handle, pitch, r, ink }: { handle: Ref<HoleHoverHandle>; pitch: number; r: number; ink: Ink }) {
+  const [hole, setHole] = useState<Hole | null>(null);
+  useImperativeHandle(handle, () => ({
+    show: (next) => setHole((prev) => (prev?.col === next?.col && prev?.row === next?.row ? prev : next)),
+  }), []);
+  if (!hole) return null;
+  return <circle aria-hidden="true" pointerEvents="none" cx={hole.col * pitch} cy={hole.row * pitch} r={r * 1.8} fill="none" className={ink.hover} strokeWidth={2.5} vectorEffect={NS} />;
+}
+
+// ---------- labels: upright text at (x, −y) ----------
+
+const textProps = (size: number, ink: Ink) => ({
+  fontSize: size,
+  textAnchor: 'middle' as const,
+  dominantBaseline: 'central' as const,
+  // A halo keeps a label legible over holes and outlines.
+  paintOrder: 'stroke' as const,
+  strokeWidth: size * 0.22,
+  strokeLinejoin: 'round' as const,
+  className: `${ink.text} ${ink.halo}`,
+});
+
+function Label({ p, ink, className, weight }: { p: DrawnPlacement; ink: Ink; className?: string; weight?: number }) {
+  const x = p.labelAt.x;
+  const y = -p.labelAt.y;
+  const base = textProps(p.labelSize, ink);
+  return (
+    <text x={num(x)} y={num(y)} {...base} className={`font-mono ${className ?? ink.text} ${ink.halo}`} fontWeight={weight}
+      transform={p.labelVertical ? `rotate(-90 ${num(x)} ${num(y)})` : undefined}>
+      {p.code}
+    </text>
+  );
+}
+
+export const CodeLabels = memo(function CodeLabels({ placements, ink, detail }: { placements: readonly DrawnPlacement[]; ink: Ink; detail: Detail }) {
+  if (detail === 'sparse') return null;
+  return (
+    <g aria-hidden="true" pointerEvents="none">
+      {placements.map((p) => <Label key={p.key} p={p} ink={ink} />)}
+    </g>
+  );
+});
+
+export const SelectedLabel = memo(function SelectedLabel({ placement, ink }: { placement: DrawnPlacement | null; ink: Ink }) {
+  if (!placement) return null;
+  return <g aria-hidden="true" pointerEvents="none"><Label p={placement} ink={ink} className={ink.selectedText} weight={600} /></g>;
+});
+
+/**
+ * Station crosses are one path (CrossesLayer); here each station gets its number tag and a
+ * title. When the tags are too small to read, an invisible dot keeps the title under the pointer.
+ */
+export const StationTags = memo(function StationTags({ stations, ink, tag, cross, detail }: {
+  stations: readonly DrawnStation[];
+  ink: Ink;
+  tag: number;
+  cross: number;
+  detail: Detail;
+}) {
+  // The tag sits up and right of the cross (45°), clear of the cross itself.
+  const off = cross + tag * 0.85;
+  return (
+    <g>
+      {stations.map((s) => {
+        const x = s.datum.x + off;
+        const y = -(s.datum.y + off);
+        const digits = String(s.number).length;
+        const size = tag * (digits <= 2 ? 1.15 : digits === 3 ? 0.85 : digits === 4 ? 0.66 : 0.54);
+        return (
+          <g key={s.id} role="img" data-placement={s.placement} className="cursor-pointer">
+            <title>{s.title}</title>
+            {detail === 'full' ? (
+              <>
+                <circle cx={num(x)} cy={num(y)} r={tag} className={ink.tag} strokeWidth={1} vectorEffect={NS} />
+                <text x={num(x)} y={num(y)} fontSize={size} textAnchor="middle" dominantBaseline="central" className={`font-mono ${ink.text}`}>{s.number}</text>
+              </>
+            ) : (
+              <circle cx={num(s.datum.x)} cy={num(-s.datum.y)} r={cross * 1.5} fill="transparent" />
+            )}
+          </g>
+        );
+      })}
+    </g>
+  );
+});
+
+/**
+ * Words that must be read at any zoom (the datum, the shared offset, problems) are sized in
+ * screen pixels: `px` is view units per pixel. They are few, so re-rendering them as the zoom
+ * changes costs nothing.
+ */
+const LABEL_PX = 13;
+
+export function DatumLabel({ holeRadius, px, ink }: { holeRadius: number; px: number; ink: Ink }) {
+  const size = LABEL_PX * px;
+  return (
+    <text aria-hidden="true" pointerEvents="none" x={num(holeRadius * 1.35 + 3 * px)} y={num(holeRadius * 1.35 + size * 0.8)}
+      {...textProps(size, ink)} textAnchor="start">
+      datum (0, 0)
+    </text>
+  );
+}
+
+export function OffsetLabels({ origin, arm, name, px, ink }: { origin: Point; arm: number; name: string; px: number; ink: Ink }) {
+  const s = originSymbolData(origin, arm);
+  const size = LABEL_PX * px;
+  const base = textProps(size, ink);
+  return (
+    <g aria-hidden="true" pointerEvents="none" fontWeight={600}>
+      <text x={num(s.xLabel.x + size * 0.4)} y={num(-s.xLabel.y)} {...base}>X</text>
+      <text x={num(s.yLabel.x)} y={num(-s.yLabel.y - size * 0.4)} {...base}>Y</text>
+      <text x={num(origin.x + arm * 0.15)} y={num(-origin.y + size * 1.1)} {...base} textAnchor="start">{name}</text>
+    </g>
+  );
+}
+
+export function FaultLabels({ faults, px, ink }: { faults: ReadonlyArray<{ fault: PlacementFault; placement: DrawnPlacement }>; px: number; ink: Ink }) {
+  if (faults.length === 0) return null;
+  const size = LABEL_PX * px;
+  const base = textProps(size, ink);
+  return (
+    <g fontWeight={600}>
+      {faults.map(({ fault, placement }) => (
+        // Clicking a problem's words selects the placement it is about.
+        <g key={placement.key} role="img" data-placement={placement.id} className="cursor-pointer">
+          <title>{fault.messages.length ? `Problem at placement ${fault.id}: ${fault.messages.join(' ')}` : `Problem at placement ${fault.id}.`}</title>
+          <text x={num(placement.bounds.minX)} y={num(-placement.bounds.maxY - size * 0.7)} {...base}
+            textAnchor="start" className={`${ink.faultText} ${ink.halo}`}>
+            {`problem — ${fault.label}`}
+          </text>
+        </g>
+      ))}
+    </g>
+  );
+}

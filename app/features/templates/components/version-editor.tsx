@@ -1,0 +1,127 @@
+import { useState } from 'react';
+import type { Component } from '../../../../shared/schemas/catalog';
+import type { Unit } from '../../../../shared/schemas/common';
+import type { Hole } from '../../../../shared/schemas/template';
+import type { TemplateVersion } from '../../../../shared/schemas/template-api';
+import { formatLength } from '../../../../shared/units/units';
+import { Button } from '../../../components/ui/button';
+import { ErrorText, Notice } from '../../../components/ui/notice';
+import { ApiError } from '../../../lib/api-client';
+import { useSaveVersion } from '../api';
+import { useLayoutDraft } from '../use-layout-draft';
+import { PlateDrawing } from './plate-drawing';
+import { AddPlacement, NumberingPicker, PlacementPanel, SharedOffsetPicker } from './layout-controls';
+import { StationTable } from './station-table';
+import { ProbeCheck } from './probe-check';
+import { Downloads } from './downloads';
+
+interface Props {
+  templateId: number;
+  version: TemplateVersion;
+  catalog: Component[];
+  displayUnit: Unit;
+  canEdit: boolean;
+  probeTolerance: number;
+}
+
+/**
+ * One screen for "where is every station?": the plate drawing and the station table follow every
+ * edit at once (the shared engine runs in the browser); the draft is saved explicitly with
+ * "Save draft", and a save that lost a race shows both versions instead of overwriting.
+ */
+export function VersionEditor({ templateId, version, catalog, displayUnit, canEdit, probeTolerance }: Props) {
+  const editable = canEdit && version.state === 'draft';
+  const layout = useLayoutDraft(version, catalog);
+  const save = useSaveVersion(templateId, version.version);
+  const [selected, setSelected] = useState<string | null>(null);
+  const [hole, setHole] = useState<Hole>({ col: 0, row: 0 });
+  const [showOrder, setShowOrder] = useState(false);
+  const { evaluation } = layout;
+  const conflict = save.error instanceof ApiError && save.error.code === 'stale-revision' ? (save.error.details as { current: TemplateVersion }).current : null;
+  const onSave = (revision = version.revision) =>
+    save.mutate({ revision, placements: layout.draft.placements, sharedOffset: layout.draft.sharedOffset, numbering: layout.draft.numbering, components: version.components });
+  const widths = [...new Set(evaluation.stations.map((s) => s.nominalWidth).filter((w): w is number => w !== null))];
+
+  return (
+    <div className="flex flex-col gap-4">
+      {editable ? (
+        <div className="sticky top-0 z-10 flex flex-wrap items-center gap-3 rounded border border-slate-300 bg-white p-3">
+          <Button onClick={() => onSave()} disabled={!layout.dirty || save.isPending || evaluation.problems.length > 0}>{save.isPending ? 'Saving…' : 'Save draft'}</Button>
+          <span className={layout.dirty ? 'font-semibold text-warning-700' : 'text-slate-600'}>{layout.dirty ? 'Unsaved changes' : `Saved · revision ${version.revision}`}</span>
+          {evaluation.problems.length > 0 ? <span className="text-danger-700">Fix the {evaluation.problems.length} problem{evaluation.problems.length > 1 ? 's' : ''} below to save.</span> : null}
+        </div>
+      ) : (
+        <Notice tone="info" title={version.state === 'draft' ? 'Read only: your role does not edit templates.' : `Version ${version.version} is ${version.state}; it never changes.`}>
+          {version.state !== 'draft' && canEdit ? 'Start a new draft from it to make changes.' : null}
+        </Notice>
+      )}
+      {conflict ? (
+        <Notice tone="warning" title="Someone else saved this draft after you opened it">
+          <p>Their revision {conflict.revision} has {conflict.placements.length} placement(s) and {conflict.stations.length} station(s); yours has {layout.draft.placements.length} placement(s) and {evaluation.stations.length} station(s). Nothing of yours was saved.</p>
+          <div className="mt-2 flex flex-wrap gap-2">
+            <Button variant="secondary" onClick={() => window.location.reload()}>Discard mine and load theirs</Button>
+            <Button variant="danger" onClick={() => onSave(conflict.revision)}>Save mine over theirs</Button>
+          </div>
+        </Notice>
+      ) : <ErrorText error={save.error} />}
+      {evaluation.problems.length ? (
+        <Notice tone="danger" title={`This layout cannot be built as it stands (${evaluation.problems.length} problem${evaluation.problems.length > 1 ? 's' : ''})`}>
+          <ul className="list-disc pl-5">{evaluation.problems.slice(0, 12).map((p, i) => <li key={i}>{p.message}</li>)}</ul>
+        </Notice>
+      ) : null}
+
+      <div className="grid grid-cols-1 gap-4 xl:grid-cols-[minmax(0,1fr)_22rem]">
+        <div className="flex flex-col gap-2">
+          <div className="rounded border border-slate-300 bg-white">
+            <PlateDrawing
+              content={layout.content}
+              stations={evaluation.stations}
+              origin={evaluation.origin}
+              displayUnit={displayUnit}
+              selectedPlacement={selected}
+              onSelectPlacement={setSelected}
+              onHoleClick={(h) => { setHole(h); }}
+              showOrder={showOrder}
+              problems={evaluation.problems}
+              height="34rem"
+            />
+          </div>
+          <label className="flex min-h-10 items-center gap-2"><input type="checkbox" className="h-5 w-5" checked={showOrder} onChange={(e) => setShowOrder(e.target.checked)} />Show machining order</label>
+          <p className="text-slate-700">
+            {evaluation.stations.length} stations · widths held: {widths.length ? widths.map((w) => formatLength(w, version.unit)).join(', ') : 'none'} · plate {version.plate.code}, pitch {formatLength(version.plate.pitch, version.plate.unit)}
+          </p>
+        </div>
+        <aside className="flex flex-col gap-3" aria-label="Layout controls">
+          <PlacementPanel layout={layout} selected={selected} onSelect={setSelected} readOnly={!editable} />
+          <AddPlacement layout={layout} catalog={catalog} hole={hole} setHole={setHole} readOnly={!editable} />
+          <SharedOffsetPicker layout={layout} readOnly={!editable} />
+          <NumberingPicker layout={layout} stations={evaluation.stations} readOnly={!editable} />
+        </aside>
+      </div>
+      <StationTable stations={evaluation.stations} unit={version.unit} displayUnit={displayUnit} />
+      {evaluation.pairings.length ? (
+        <section aria-labelledby="pairings-title" className="flex flex-col gap-2">
+          <h2 id="pairings-title" className="text-lg font-semibold">Widths held</h2>
+          <table className="w-fit border-collapse rounded border border-slate-300 bg-white text-[15px]">
+            <thead className="bg-slate-100"><tr>{['Fixed jaw', 'Jaw rail', 'On hole', 'Width held', 'Stations'].map((h) => <th key={h} className="px-3 py-2 text-left">{h}</th>)}</tr></thead>
+            <tbody>
+              {evaluation.pairings.map((p, i) => (
+                <tr key={i} className="border-t border-slate-200">
+                  <td className="px-3 py-2 font-mono">{p.fixedPlacement} ({p.fixedComponent})</td>
+                  <td className="px-3 py-2 font-mono">{p.jawPlacement} ({p.jawComponent})</td>
+                  <td className="num px-3 py-2">({p.jawHole.col}, {p.jawHole.row})</td>
+                  <td className="num px-3 py-2">{formatLength(p.width, version.unit)}</td>
+                  <td className="num px-3 py-2">{p.stations.length}</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </section>
+      ) : null}
+      <div className="grid grid-cols-1 gap-4 lg:grid-cols-2">
+        <Downloads templateId={templateId} version={version} dirty={layout.dirty} />
+        <ProbeCheck stations={version.stations} unit={version.unit} displayUnit={displayUnit} tolerance={probeTolerance} />
+      </div>
+    </div>
+  );
+}
