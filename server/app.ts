@@ -20,6 +20,7 @@ import { userRoutes } from './routes/users';
 import { catalogRoutes } from './routes/catalog';
 import { settingsRoutes } from './routes/settings';
 import { templateRoutes } from './routes/templates';
+import { stockCheckRoutes } from './routes/stock-check';
 import { templatesRepo } from './db/templates-repo';
 import { templatesService } from './services/templates';
 
@@ -97,6 +98,7 @@ export function createApp(deps: AppDeps): GridsetApp {
     ...catalogRoutes(catalog),
     ...settingsRoutes(settings),
     ...templateRoutes(templates),
+    ...stockCheckRoutes(),
   ];
   mount(api, routes);
   api.use(apiNotFound);

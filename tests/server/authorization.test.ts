@@ -45,6 +45,7 @@ const EXPECTED: Record<string, typeof PUBLIC | readonly Role[]> = {
   'GET /templates/:id/versions/:n/stations.xlsx': SIGNED_IN,
   'GET /templates/:id/versions/:n/template.json': SIGNED_IN,
   'GET /templates/:id/versions/:n/offsets.nc': SIGNED_IN,
+  'POST /stock-check': SIGNED_IN,
 };
 
 let t: TestApp;
