@@ -21,6 +21,9 @@ import { catalogRoutes } from './routes/catalog';
 import { settingsRoutes } from './routes/settings';
 import { templateRoutes } from './routes/templates';
 import { stockCheckRoutes } from './routes/stock-check';
+import { namingRoutes } from './routes/naming';
+import { namingRepo } from './db/naming-repo';
+import { namingService } from './services/naming';
 import { templatesRepo } from './db/templates-repo';
 import { templatesService } from './services/templates';
 
@@ -42,7 +45,8 @@ export function createApp(deps: AppDeps): GridsetApp {
   const { db } = deps;
   const userRows = usersRepo(db);
   const users = usersService(userRows);
-  const catalog = catalogService(catalogRepo(db));
+  const naming = namingService(namingRepo(db));
+  const catalog = catalogService(catalogRepo(db), naming);
   const templates = templatesService({ db, templates: templatesRepo(db), catalog: catalogRepo(db) });
   const settings = settingsRepo(db);
 
@@ -99,6 +103,7 @@ export function createApp(deps: AppDeps): GridsetApp {
     ...settingsRoutes(settings),
     ...templateRoutes(templates),
     ...stockCheckRoutes(),
+    ...namingRoutes(naming),
   ];
   mount(api, routes);
   api.use(apiNotFound);

@@ -1,10 +1,12 @@
 import type { Knex } from 'knex';
 import * as foundation from '../../migrations/20261201000000_foundation';
+import * as naming from '../../migrations/20261201010000_naming';
 
 // Migrations are imported statically so the same list runs under tsx, vitest and the bench
 // scripts; knex's directory loader cannot import .ts files by itself.
 const MIGRATIONS: Record<string, Knex.Migration> = {
   '20261201000000_foundation': foundation,
+  '20261201010000_naming': naming,
 };
 
 export const migrationSource: Knex.MigrationSource<string> = {

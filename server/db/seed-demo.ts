@@ -6,6 +6,8 @@ import { hashPassword } from '../services/passwords';
 import { catalogRepo } from './catalog-repo';
 import { settingsRepo, DEFAULT_SETTINGS } from './settings-repo';
 import { templatesRepo } from './templates-repo';
+import { namingRepo } from './naming-repo';
+import { DEMO_CONVENTION } from '../../shared/naming/conventions';
 import { usersRepo } from './users-repo';
 import { templatesService } from '../services/templates';
 import type { Placement, SharedOffset } from '../../shared/schemas/template';
@@ -115,6 +117,8 @@ export async function seedDemoDataIfEmpty(db: Db): Promise<boolean> {
     for (const p of DEMO_PLATES) await trxCatalog.insertPlate(PlateInputSchema.parse(p));
     for (const c of DEMO_COMPONENTS) await trxCatalog.insertComponent(ComponentInputSchema.parse(c));
     await settingsRepo(trx).put({ ...DEFAULT_SETTINGS, shopName: 'Brightwater Fixture Works (demo)' });
+    const { version: _v, ...rules } = DEMO_CONVENTION;
+    await namingRepo(trx).save(rules, null, trx);
   });
   await seedDemoTemplates(db);
   return true;

@@ -2,8 +2,9 @@ import type { ComponentFields, PlateFields } from '../../shared/schemas/catalog'
 import type { ListQuery } from '../../shared/schemas/common';
 import type { CatalogRepo } from '../db/catalog-repo';
 import { conflict, notFound } from '../middleware/errors';
+import type { NamingService } from './naming';
 
-export function catalogService(repo: CatalogRepo) {
+export function catalogService(repo: CatalogRepo, naming: NamingService) {
   return {
     listPlates: (q: ListQuery) => repo.listPlates(q),
     async getPlate(id: number) {
@@ -37,11 +38,13 @@ export function catalogService(repo: CatalogRepo) {
       return c;
     },
     async createComponent(input: ComponentFields) {
+      await naming.requireComponentNames(input);
       if (await repo.componentCodeTaken(input.code)) throw conflict(`A component with the code ${input.code} already exists; choose another code.`);
       return repo.getComponent(await repo.insertComponent(input));
     },
     async updateComponent(id: number, input: ComponentFields) {
       const existing = await this.getComponent(id);
+      await naming.requireComponentNames(input);
       if (await repo.componentCodeTaken(input.code, id)) throw conflict(`A component with the code ${input.code} already exists; choose another code.`);
       if (existing.usedBy > 0 && input.code !== existing.code) {
         throw conflict(`Component ${existing.code} is used by ${existing.usedBy} template version(s); its code cannot change.`);

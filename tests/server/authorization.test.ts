@@ -46,6 +46,10 @@ const EXPECTED: Record<string, typeof PUBLIC | readonly Role[]> = {
   'GET /templates/:id/versions/:n/template.json': SIGNED_IN,
   'GET /templates/:id/versions/:n/offsets.nc': SIGNED_IN,
   'POST /stock-check': SIGNED_IN,
+  'GET /naming/convention': SIGNED_IN,
+  'PUT /naming/convention': ['lead'],
+  'GET /naming/conventions': SIGNED_IN,
+  'POST /naming/check': SIGNED_IN,
 };
 
 let t: TestApp;

@@ -13,7 +13,7 @@ afterAll(async () => { await t.close(); });
 
 const plate = { code: 'TEST-PLATE', name: 'Test plate', unit: 'in', pitch: 2, columns: 6, rows: 4, holeDiameter: 0.5, thread: '1/2-13', notes: '' };
 const rail = {
-  code: 'TEST-CR', kind: 'center-rail', name: 'Test rail', unit: 'in',
+  code: 'CR-12', kind: 'center-rail', name: 'Test rail', unit: 'in',
   dowels: [{ x: 0, y: 0 }, { x: 8, y: 0 }], stops: [{ x: 0.5, y: 0.375, angle: 0 }], jawFaces: [{ x: 0, y: 0.375, normal: 90 }],
 };
 
@@ -75,8 +75,8 @@ describe('components', () => {
 
   it('creates a component with dowels, stops, jaw faces and a clamp model', async () => {
     const clamp = { acceptBelow: 0.03, acceptAbove: 0.03, topHeight: 0.2, topSlope: 0.5, gripLow: 0.04, gripHigh: 0.16, gripSlope: 0.5, slotSlop: 0.015 };
-    const res = await lead.post('/api/components', { ...rail, code: 'TEST-JR', kind: 'jaw-rail', stops: [], clamp }).expect(201);
-    expect(res.body).toMatchObject({ code: 'TEST-JR', clamp, outline: null, usedBy: 0 });
+    const res = await lead.post('/api/components', { ...rail, code: 'JR-2.500', kind: 'jaw-rail', stops: [], clamp }).expect(201);
+    expect(res.body).toMatchObject({ code: 'JR-2.500', clamp, outline: null, usedBy: 0 });
     const back = await operator.get(`/api/components/${res.body.id}`).expect(200);
     expect(back.body.dowels).toEqual(rail.dowels);
   });
@@ -100,13 +100,13 @@ describe('components', () => {
   });
 
   it('refuses deleting a component a template version uses, with the reason', async () => {
-    const comp = await lead.post('/api/components', { ...rail, code: 'TEST-USED' }).expect(201);
-    const [tpl] = await t.db('templates').insert({ name: 'Uses TEST-USED', plate_id: 1 }).returning('id');
+    const comp = await lead.post('/api/components', { ...rail, code: 'CR-13' }).expect(201);
+    const [tpl] = await t.db('templates').insert({ name: 'Uses CR-13', plate_id: 1 }).returning('id');
     const [ver] = await t.db('template_versions').insert({ template_id: tpl.id, number: 1, state: 'draft', content: '{}', content_hash: 'x' }).returning('id');
     await t.db('template_version_components').insert({ version_id: ver.id, component_id: comp.body.id });
     const res = await lead.delete(`/api/components/${comp.body.id}`);
     expect(res.status).toBe(409);
-    expect(res.body.error.message).toMatch(/TEST-USED is used by 1 template version/);
+    expect(res.body.error.message).toMatch(/CR-13 is used by 1 template version/);
     const plateRes = await lead.delete('/api/plates/1');
     expect(plateRes.status).toBe(409);
     // the demo template and the one above

@@ -104,14 +104,14 @@ describe('templates and versions', () => {
   });
 
   it('refuses an off-grid dowel, naming the component, the dowel and the hole', async () => {
-    const rail = { code: 'CR-OFF', kind: 'center-rail', name: 'Off-pitch rail', unit: 'in', dowels: [{ x: 0, y: 0 }, { x: 7.75, y: 0 }], stops: [{ x: 0.5, y: 0.375 }], jawFaces: [{ x: 0, y: 0.375, normal: 90 }] };
+    const rail = { code: 'CR-14', kind: 'center-rail', name: 'Off-pitch rail', unit: 'in', dowels: [{ x: 0, y: 0 }, { x: 7.75, y: 0 }], stops: [{ x: 0.5, y: 0.375 }], jawFaces: [{ x: 0, y: 0.375, normal: 90 }] };
     await lead.post('/api/components', rail).expect(201);
     const id = await newDraft('Off grid');
-    const res = await programmer.put(`/api/templates/${id}/versions/1`, { ...handWorked, placements: [{ id: 'P1', component: 'CR-OFF', hole: { col: 1, row: 1 }, rotation: 0, stopsInUse: [0] }], revision: 1 });
+    const res = await programmer.put(`/api/templates/${id}/versions/1`, { ...handWorked, placements: [{ id: 'P1', component: 'CR-14', hole: { col: 1, row: 1 }, rotation: 0, stopsInUse: [0] }], revision: 1 });
     expect(res.status).toBe(400);
     const problem = res.body.error.details.problems[0];
     expect(problem).toMatchObject({ code: 'dowel-off-grid', placement: 'P1', dowel: 1 });
-    expect(problem.message).toMatch(/CR-OFF/);
+    expect(problem.message).toMatch(/CR-14/);
     expect(problem.message).toMatch(/dowel 2/);
     expect(problem.message).toMatch(/\(\d+, \d+\)/);
   });

@@ -1,0 +1,27 @@
+import type { NamingCheckResult, NamingConvention, NamingTarget } from '../../shared/schemas/naming';
+import { checkName } from '../../shared/naming/check-name';
+import type { NamingRepo } from '../db/naming-repo';
+import { HttpError } from '../middleware/errors';
+
+export function namingService(repo: NamingRepo) {
+  return {
+    current: () => repo.current(),
+    history: () => repo.history(),
+    save: (c: Omit<NamingConvention, 'version'>, userId: number) => repo.save(c, userId),
+    async check(target: NamingTarget, name: string): Promise<NamingCheckResult> {
+      const convention = await repo.current();
+      return checkName(convention[target], name, target);
+    },
+    /** Refuses a component whose code or layer breaks the convention, with issues on the fields to fix. */
+    async requireComponentNames(c: { code: string; layer: string }): Promise<void> {
+      const convention = await repo.current();
+      const issues: { path: string; message: string }[] = [];
+      for (const p of checkName(convention.component, c.code, 'component').problems) issues.push({ path: 'code', message: p.message });
+      if (c.layer) for (const p of checkName(convention.layer, c.layer, 'layer').problems) issues.push({ path: 'layer', message: p.message });
+      if (issues.length) {
+        throw new HttpError(400, 'naming', `The naming convention (version ${convention.version}) refuses this: ${issues[0]!.message}`, { issues });
+      }
+    },
+  };
+}
+export type NamingService = ReturnType<typeof namingService>;

@@ -1,0 +1,48 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { DEMO_CONVENTION } from '../../shared/naming/conventions';
+import { makeTestApp, tableCounts, type Agent, type TestApp } from './test-app';
+
+let t: TestApp;
+let lead: Agent;
+let programmer: Agent;
+beforeAll(async () => { t = await makeTestApp(); [lead, programmer] = await Promise.all([t.agent('lead'), t.agent('programmer')]); });
+afterAll(async () => { await t.close(); });
+
+const rail = { kind: 'center-rail', name: 'Rail', unit: 'in', dowels: [{ x: 0, y: 0 }, { x: 8, y: 0 }], stops: [], jawFaces: [] };
+
+describe('naming convention', () => {
+  it('answers the demo convention and checks names with the token that fails', async () => {
+    const current = (await programmer.get('/api/naming/convention').expect(200)).body;
+    expect(current.version).toBe(1);
+    const ok = await programmer.post('/api/naming/check', { target: 'layer', name: 'FX-CR-8' }).expect(200);
+    expect(ok.body).toEqual({ ok: true, problems: [] });
+    const bad = await programmer.post('/api/naming/check', { target: 'component', name: 'JR-1.5' }).expect(200);
+    expect(bad.body.ok).toBe(false);
+    expect(bad.body.problems.some((p: { token: string | null }) => p.token === 'width')).toBe(true);
+    // DXF Reference symbol-table names, R12 set: at most 31 characters of letters, digits, $, - and _.
+    const long = await programmer.post('/api/naming/check', { target: 'layer', name: `PART-${'A'.repeat(27)}` }).expect(200);
+    expect(long.body.ok).toBe(false);
+    expect((await programmer.post('/api/naming/check', { target: 'plate', name: 'x' })).status).toBe(400);
+  });
+
+  it('refuses a component whose code or layer breaks the convention, on the field to fix, writing nothing', async () => {
+    const before = await tableCounts(t.db, ['components']);
+    const res = await lead.post('/api/components', { ...rail, code: 'RAIL-8', layer: 'rails' });
+    expect(res.status).toBe(400);
+    const paths = res.body.error.details.issues.map((i: { path: string }) => i.path);
+    expect(paths).toEqual(expect.arrayContaining(['code', 'layer']));
+    expect(await tableCounts(t.db, ['components'])).toEqual(before);
+    await lead.post('/api/components', { ...rail, code: 'CR-9', layer: 'FX-CR-9' }).expect(201);
+  });
+
+  it('keeps every version; only a lead saves, and a broken rule is refused with its path', async () => {
+    const { version: _v, ...rules } = DEMO_CONVENTION;
+    expect((await programmer.put('/api/naming/convention', rules)).status).toBe(403);
+    const bad = await lead.put('/api/naming/convention', { ...rules, component: { ...rules.component, patterns: ['{nope}-{size}'] } });
+    expect(bad.status).toBe(400);
+    const saved = await lead.put('/api/naming/convention', { ...rules, component: { ...rules.component, patterns: [...rules.component.patterns, 'TEST-{size}'] } }).expect(200);
+    expect(saved.body.version).toBe(2);
+    expect((await programmer.post('/api/naming/check', { target: 'component', name: 'TEST-5' })).body.ok).toBe(true);
+    expect((await programmer.get('/api/naming/conventions')).body.items.map((i: { version: number }) => i.version)).toEqual([2, 1]);
+  });
+});
