@@ -43,11 +43,11 @@ export type GridsetApp = express.Express & { locals: { routes: RouteDef[] } };
 /** Builds the whole app from its dependencies; never listens (server/index.ts does). */
 export function createApp(deps: AppDeps): GridsetApp {
   const { db } = deps;
+  const naming = namingService(namingRepo(db));
   const userRows = usersRepo(db);
   const users = usersService(userRows);
-  const naming = namingService(namingRepo(db));
   const catalog = catalogService(catalogRepo(db), naming);
-  const templates = templatesService({ db, templates: templatesRepo(db), catalog: catalogRepo(db) });
+  const templates = templatesService({ db, templates: templatesRepo(db), catalog: catalogRepo(db), naming });
   const settings = settingsRepo(db);
 
   const app = express() as GridsetApp;

@@ -10,6 +10,7 @@ import { namingRepo } from './naming-repo';
 import { DEMO_CONVENTION } from '../../shared/naming/conventions';
 import { usersRepo } from './users-repo';
 import { templatesService } from '../services/templates';
+import { namingService } from '../services/naming';
 import type { Placement, SharedOffset } from '../../shared/schemas/template';
 
 /** Demo only: an invented shop; every account shares this password, so never keep them on a real server. */
@@ -162,11 +163,11 @@ async function seedDemoTemplates(db: Db) {
   const users = usersRepo(db);
   const lead = (await users.findWithHashByEmail('lead@gridset.test'))!;
   const catalog = catalogRepo(db);
-  const service = templatesService({ db, templates: templatesRepo(db), catalog });
+  const service = templatesService({ db, templates: templatesRepo(db), catalog, naming: namingService(namingRepo(db)) });
   for (const t of DEMO_TEMPLATES) {
     const plate = (await catalog.plateByCode(t.plate))!;
     const created = await service.create(lead, { name: t.name, plateId: plate.id });
     await service.saveDraft(created.id, 1, { revision: 1, placements: t.placements, sharedOffset: t.sharedOffset, numbering: { order: 'row-by-row' } });
-    if (t.release) await service.release(created.id, 1);
+    if (t.release) await service.release(lead, created.id, 1);
   }
 }

@@ -6,6 +6,7 @@ export interface TemplateRow { id: number; name: string; plate_id: number; creat
 export interface VersionRow {
   id: number; template_id: number; number: number; state: VersionState; content: string; content_hash: string;
   revision: number; author_id: number | null; created_at: string; updated_at: string;
+  naming_version?: number | null; naming_waiver?: string | null; naming_waived_by?: number | null;
 }
 export interface StoredVersion { row: VersionRow; content: TemplateContent }
 
@@ -52,6 +53,9 @@ export function templatesRepo(db: Db) {
     },
     async setState(trx: Db, versionId: number, state: VersionState) {
       await trx('template_versions').where({ id: versionId }).update({ state, updated_at: trx.fn.now() });
+    },
+    async setNaming(trx: Db, versionId: number, n: { version: number; waiver: string | null; waivedBy: number | null }) {
+      await trx('template_versions').where({ id: versionId }).update({ naming_version: n.version, naming_waiver: n.waiver, naming_waived_by: n.waivedBy });
     },
     async nextNumber(trx: Db, templateId: number): Promise<number> {
       const r = await trx('template_versions').where({ template_id: templateId }).max({ n: 'number' });

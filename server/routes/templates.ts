@@ -1,7 +1,7 @@
 import { z } from 'zod';
 import { CAN } from '../../shared/schemas/auth';
 import { IdParamSchema } from '../../shared/schemas/common';
-import { CreateTemplateInputSchema, NewVersionInputSchema, OffsetsQuerySchema, SaveVersionInputSchema } from '../../shared/schemas/template-api';
+import { CreateTemplateInputSchema, NewVersionInputSchema, ReleaseInputSchema, OffsetsQuerySchema, SaveVersionInputSchema } from '../../shared/schemas/template-api';
 import { toTemplateFile } from '../../shared/interchange/template-file';
 import { currentUser } from '../middleware/auth';
 import type { TemplatesService } from '../services/templates';
@@ -51,7 +51,8 @@ export function templateRoutes(templates: TemplatesService): RouteDef[] {
     } },
     { method: 'post', path: '/templates/:id/versions/:n/release', access: CAN.releaseTemplates, handler: async (req, res) => {
       const { id, n } = params(req.params);
-      res.json(await templates.release(id, n));
+      const { waiver } = parseOr400(ReleaseInputSchema, req.body ?? {}, 'release');
+      res.json(await templates.release(currentUser(req), id, n, waiver));
     } },
     { method: 'get', path: '/templates/:id/versions/:n/stations', access: 'signed-in', handler: async (req, res) => {
       const v = await load(req.params);

@@ -10,6 +10,8 @@ import type { Db } from '../db/knex';
 import type { CatalogRepo } from '../db/catalog-repo';
 import type { StoredVersion, TemplatesRepo } from '../db/templates-repo';
 import { HttpError, badRequest, conflict, notFound } from '../middleware/errors';
+import { versionNamingProblems } from '../../shared/naming/version-names';
+import type { NamingService } from './naming';
 
 export const sha256Hex = (text: string) => createHash('sha256').update(text, 'utf8').digest('hex');
 export const contentHash = (content: TemplateContent) => sha256Hex(canonicalJson(layoutForHash(content)));
@@ -30,8 +32,8 @@ const FROZEN: VersionState[] = ['released', 'retired'];
  */
 const EVALUATION_CACHE_SIZE = 200;
 
-export function templatesService(deps: { db: Db; templates: TemplatesRepo; catalog: CatalogRepo }) {
-  const { db, templates, catalog } = deps;
+export function templatesService(deps: { db: Db; templates: TemplatesRepo; catalog: CatalogRepo; naming: NamingService }) {
+  const { db, templates, catalog, naming } = deps;
   const evaluations = new Map<string, TemplateEvaluation>();
   function evaluateStored(v: StoredVersion): TemplateEvaluation {
     const key = v.row.content_hash;
@@ -100,6 +102,7 @@ export function templatesService(deps: { db: Db; templates: TemplatesRepo; catal
       numbering: v.content.numbering ?? { order: 'row-by-row' },
       templateId, version: v.row.number, state: v.row.state, revision: v.row.revision, contentHash: v.row.content_hash,
       stations: evaluation.stations, problems: evaluation.problems, pairings: evaluation.pairings, updatedAt: String(v.row.updated_at),
+      namingWaiver: v.row.naming_waiver ?? null,
     };
   }
 
@@ -165,13 +168,26 @@ export function templatesService(deps: { db: Db; templates: TemplatesRepo; catal
       return present(templateId, await requireVersion(templateId, number));
     },
     /** A lead releases a draft or a version in review; the layout must have no problems. */
-    async release(templateId: number, number: number): Promise<TemplateVersion> {
+    /**
+     * Releases a version: its layout must have no problems, and every name it uses must pass the
+     * naming convention unless a lead waives that with a written reason, kept with the version.
+     */
+    async release(user: User, templateId: number, number: number, waiver?: string): Promise<TemplateVersion> {
       await requireTemplate(templateId);
       const v = await requireVersion(templateId, number);
       if (FROZEN.includes(v.row.state)) throw conflict(`Version ${number} is already ${v.row.state}.`);
       const evaluation = evaluateStored(v);
       if (evaluation.problems.length) throw new HttpError(400, 'layout-problems', `Version ${number} cannot be released: ${evaluation.problems[0]!.message}`, { problems: evaluation.problems });
-      await db.transaction((trx) => templates.setState(trx, v.row.id, 'released'));
+      const convention = await naming.current();
+      const nameProblems = versionNamingProblems(v.content, convention);
+      if (nameProblems.length && !waiver) {
+        throw new HttpError(400, 'naming', `Version ${number} breaks the naming convention (version ${convention.version}): ${nameProblems[0]!.message}${nameProblems.length > 1 ? ` (and ${nameProblems.length - 1} more)` : ''}. Fix the names, or have a lead release it with a written waiver.`, { naming: nameProblems });
+      }
+      if (waiver && user.role !== 'lead') throw new HttpError(403, 'forbidden', 'Only a lead may waive the naming convention.');
+      await db.transaction(async (trx) => {
+        await templates.setState(trx, v.row.id, 'released');
+        await templates.setNaming(trx, v.row.id, { version: convention.version, waiver: nameProblems.length ? waiver! : null, waivedBy: nameProblems.length ? user.id : null });
+      });
       return present(templateId, await requireVersion(templateId, number), evaluation);
     },
     /** A template.json (already checked against the JSON Schema) becomes a new template whose version 1 is a draft. */

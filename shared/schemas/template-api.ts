@@ -63,6 +63,8 @@ export const TemplateVersionSchema = TemplateContentSchema.extend({
   plate: PlateRefSchema,
   components: z.array(TemplateComponentSchema),
   updatedAt: z.string(),
+  /** A lead's written reason for releasing despite naming problems, kept with the version. */
+  namingWaiver: z.string().nullable().default(null),
 });
 export type TemplateVersion = z.infer<typeof TemplateVersionSchema>;
 
@@ -72,6 +74,10 @@ export const StationsAnswerSchema = z.object({
   stations: z.array(StationSchema.pick({ number: true, x: true, y: true, z: true, c: true, nominalWidth: true, placement: true, stop: true, id: true })),
 });
 export type StationsAnswer = z.infer<typeof StationsAnswerSchema>;
+
+export const ReleaseInputSchema = z.object({
+  waiver: z.string().trim().min(10, 'A waiver needs a written reason of at least 10 characters.').max(2000).optional(),
+});
 
 export const NewVersionInputSchema = z.object({ from: z.number({ message: 'from must be the number of the version to copy.' }).int().min(1) });
 

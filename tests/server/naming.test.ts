@@ -46,3 +46,26 @@ describe('naming convention', () => {
     expect((await programmer.get('/api/naming/conventions')).body.items.map((i: { version: number }) => i.version)).toEqual([2, 1]);
   });
 });
+
+describe('release and the naming convention', () => {
+  it('refuses to release a version whose names break the convention, unless a lead waives it in writing', async () => {
+    const created = await programmer.post('/api/templates', { name: 'Naming release', plateId: 1 }).expect(201);
+    const id = created.body.id;
+    await programmer.put(`/api/templates/${id}/versions/1`, {
+      revision: 1, sharedOffset: { kind: 'center' }, numbering: { order: 'row-by-row' },
+      placements: [{ id: 'P1', component: 'CR-8', hole: { col: 1, row: 1 }, rotation: 0, stopsInUse: [0] }],
+    }).expect(200);
+    // The lead tightens the convention after the fact: center rails are now "CRS-…".
+    const { version: _v, ...rules } = DEMO_CONVENTION;
+    const tightened = { ...rules, component: { ...rules.component, tokens: rules.component.tokens.map((tk) => (tk.name === 'kind' ? { ...tk, values: ['SR', 'VS'] } : tk)) } };
+    await lead.put('/api/naming/convention', tightened).expect(200);
+    const refused = await lead.post(`/api/templates/${id}/versions/1/release`, {});
+    expect(refused.status).toBe(400);
+    expect(refused.body.error.code).toBe('naming');
+    expect(refused.body.error.details.naming[0]).toMatchObject({ target: 'component', name: 'CR-8' });
+    expect((await lead.post(`/api/templates/${id}/versions/1/release`, { waiver: 'short' })).status).toBe(400);
+    const released = await lead.post(`/api/templates/${id}/versions/1/release`, { waiver: 'Rail codes are renamed next month; this layout runs tonight.' }).expect(200);
+    expect(released.body).toMatchObject({ state: 'released', namingWaiver: 'Rail codes are renamed next month; this layout runs tonight.' });
+    await lead.put('/api/naming/convention', rules).expect(200);
+  });
+});
