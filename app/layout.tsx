@@ -26,8 +26,10 @@ export function Layout() {
             <img src="/favicon.svg" alt="" className="h-7 w-7" /> Gridset
           </NavLink>
           <NavLink to="/templates" className={navClass}>Templates</NavLink>
+          <NavLink to="/stock-check" className={navClass}>Stock check</NavLink>
           <NavLink to="/catalog/components" className={navClass}>Components</NavLink>
           <NavLink to="/catalog/plates" className={navClass}>Plates</NavLink>
+          <NavLink to="/naming" className={navClass}>Naming</NavLink>
           {may(user.role, 'editSettings') ? <NavLink to="/settings" className={navClass}>Shop settings</NavLink> : null}
           {may(user.role, 'manageUsers') ? <NavLink to="/admin/users" className={navClass}>Users</NavLink> : null}
           <div className="ml-auto flex flex-wrap items-center gap-3">

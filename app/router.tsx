@@ -13,7 +13,9 @@ import { UsersRoute } from './routes/users';
 import { SettingsRoute } from './routes/settings';
 import { NotFoundRoute } from './routes/not-found';
 import { TemplatesRoute } from './routes/templates';
+import { NamingRoute } from './routes/naming';
 import { TemplateVersionRoute } from './routes/template-version';
+import { StockCheckRoute } from './routes/stock-check';
 
 function RequireSignIn() {
   const me = useMe();
@@ -40,6 +42,8 @@ export const router = createBrowserRouter([
           { index: true, element: <HomeRoute /> },
           { path: 'templates', element: <TemplatesRoute /> },
           { path: 'templates/:id/versions/:n', element: <TemplateVersionRoute /> },
+          { path: 'stock-check', element: <StockCheckRoute /> },
+          { path: 'naming', element: <NamingRoute /> },
           { path: 'catalog/plates', element: <PlatesRoute /> },
           { path: 'catalog/plates/:id', element: <PlateEditRoute /> },
           { path: 'catalog/components', element: <ComponentsRoute /> },

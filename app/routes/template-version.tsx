@@ -3,7 +3,9 @@ import { may } from '../../shared/schemas/auth';
 import type { Component } from '../../shared/schemas/catalog';
 import { Page } from '../components/ui/page';
 import { Button } from '../components/ui/button';
-import { ErrorText } from '../components/ui/notice';
+import { ErrorText, Notice } from '../components/ui/notice';
+import { ApiError } from '../lib/api-client';
+import { useState } from 'react';
 import { useMe } from '../features/auth/api';
 import { useComponents } from '../features/catalog/api';
 import { useShopSettings } from '../features/settings/api';
@@ -49,13 +51,30 @@ export function TemplateVersionRoute() {
             <Button variant="secondary" disabled={newDraft.isPending} onClick={() => newDraft.mutate(n, { onSuccess: (d) => navigate(`/templates/${id}/versions/${d.version}`) })}>New draft from v{n}</Button>
           ) : null}
           {may(role, 'releaseTemplates') && (v.state === 'draft' || v.state === 'in-review') ? (
-            <Button disabled={release.isPending || v.problems.length > 0} onClick={() => window.confirm(`Release version ${n}? Released versions never change.`) && release.mutate()}>Release v{n}</Button>
+            <Button disabled={release.isPending || v.problems.length > 0} onClick={() => window.confirm(`Release version ${n}? Released versions never change.`) && release.mutate(undefined)}>Release v{n}</Button>
           ) : null}
         </>
       }
     >
-      <ErrorText error={release.error ?? newDraft.error} />
+      {release.error instanceof ApiError && release.error.code === 'naming' ? (
+        <NamingWaiver problems={(release.error.details as { naming: { message: string }[] }).naming} pending={release.isPending} onWaive={(w) => release.mutate(w)} />
+      ) : <ErrorText error={release.error ?? newDraft.error} />}
+      {v.namingWaiver ? <Notice tone="caution" title="Released with a naming waiver">{v.namingWaiver}</Notice> : null}
       <VersionEditor key={`${id}-${n}-${v.revision}`} templateId={id} version={v} catalog={components.data?.items ?? NO_COMPONENTS} displayUnit={displayUnit} canEdit={may(role, 'editTemplates')} probeTolerance={probeTolerance} />
     </Page>
+  );
+}
+
+/** A lead may release despite naming problems, with a written reason that stays with the version. */
+function NamingWaiver({ problems, pending, onWaive }: { problems: { message: string }[]; pending: boolean; onWaive: (waiver: string) => void }) {
+  const [text, setText] = useState('');
+  return (
+    <Notice tone="warning" title="This version breaks the naming convention">
+      <ul className="list-disc pl-5">{problems.slice(0, 10).map((p, i) => <li key={i}>{p.message}</li>)}</ul>
+      <label className="mt-2 flex flex-col font-semibold">Release anyway, because (at least 10 characters; kept with the version)
+        <textarea className="min-h-20 rounded border border-slate-400 p-2 font-normal" value={text} onChange={(e) => setText(e.target.value)} />
+      </label>
+      <Button className="mt-2" variant="danger" disabled={pending || text.trim().length < 10} onClick={() => onWaive(text.trim())}>Release with this waiver</Button>
+    </Notice>
   );
 }

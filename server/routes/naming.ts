@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { CAN } from '../../shared/schemas/auth';
 import { NamingCheckInputSchema, LayerRuleSchema, ComponentRuleSchema } from '../../shared/schemas/naming';
 import { currentUser } from '../middleware/auth';
 import type { NamingService } from '../services/naming';
@@ -12,7 +13,7 @@ export function namingRoutes(naming: NamingService): RouteDef[] {
     { method: 'get', path: '/naming/convention', access: 'signed-in', handler: async (_req, res) => {
       res.json(await naming.current());
     } },
-    { method: 'put', path: '/naming/convention', access: ['lead'], handler: async (req, res) => {
+    { method: 'put', path: '/naming/convention', access: CAN.editNaming, handler: async (req, res) => {
       const body = parseOr400(SaveConventionSchema, req.body, 'naming convention');
       res.json(await naming.save(body, currentUser(req).id));
     } },

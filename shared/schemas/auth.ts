@@ -54,5 +54,6 @@ export const CAN = {
   manageUsers: ['admin'] as Role[],
   editTemplates: ['lead', 'programmer'] as Role[],
   releaseTemplates: ['lead'] as Role[],
+  editNaming: ['lead'] as Role[],
 } as const;
 export const may = (role: Role | undefined, action: keyof typeof CAN) => !!role && CAN[action].includes(role);

@@ -46,7 +46,7 @@ export function useSaveVersion(id: number, n: number) {
 export function useReleaseVersion(id: number, n: number) {
   const qc = useQueryClient();
   return useMutation({
-    mutationFn: () => apiRequest('POST', `/api/templates/${id}/versions/${n}/release`, { schema: TemplateVersionSchema }),
+    mutationFn: (waiver?: string) => apiRequest('POST', `/api/templates/${id}/versions/${n}/release`, { body: waiver ? { waiver } : {}, schema: TemplateVersionSchema }),
     onSuccess: () => qc.invalidateQueries({ queryKey: templateKeys.detail(id) }),
   });
 }
