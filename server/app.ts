@@ -22,6 +22,10 @@ import { settingsRoutes } from './routes/settings';
 import { templateRoutes } from './routes/templates';
 import { stockCheckRoutes } from './routes/stock-check';
 import { namingRoutes } from './routes/naming';
+import { reviewRoutes } from './routes/reviews';
+import { auditRoutes } from './routes/audit';
+import { auditRepo } from './db/audit-repo';
+import { reviewsService, type MailSender } from './services/reviews';
 import { namingRepo } from './db/naming-repo';
 import { namingService } from './services/naming';
 import { templatesRepo } from './db/templates-repo';
@@ -34,6 +38,10 @@ export interface AppDeps {
   /** Built client (vite build output); served with a single-page fallback when present. */
   clientDir?: string;
   uploadLimitBytes?: number;
+  /** Sends review notices; none are sent when absent. */
+  mailer?: MailSender;
+  /** The address links in mails point at. */
+  publicUrl?: string;
   /** Where unexpected errors are logged; tests pass a collector. */
   log?: (err: unknown) => void;
 }
@@ -46,8 +54,10 @@ export function createApp(deps: AppDeps): GridsetApp {
   const naming = namingService(namingRepo(db));
   const userRows = usersRepo(db);
   const users = usersService(userRows);
-  const catalog = catalogService(catalogRepo(db), naming);
-  const templates = templatesService({ db, templates: templatesRepo(db), catalog: catalogRepo(db), naming });
+  const audit = auditRepo(db);
+  const catalog = catalogService(catalogRepo(db), naming, audit);
+  const templates = templatesService({ db, templates: templatesRepo(db), catalog: catalogRepo(db), naming, audit });
+  const reviews = reviewsService({ db, templates, templatesRepo: templatesRepo(db), users: userRows, naming, audit, mailer: deps.mailer, publicUrl: deps.publicUrl ?? 'http://localhost:3000' });
   const settings = settingsRepo(db);
 
   const app = express() as GridsetApp;
@@ -104,6 +114,8 @@ export function createApp(deps: AppDeps): GridsetApp {
     ...templateRoutes(templates),
     ...stockCheckRoutes(),
     ...namingRoutes(naming),
+    ...reviewRoutes(reviews),
+    ...auditRoutes(audit),
   ];
   mount(api, routes);
   api.use(apiNotFound);

@@ -1,12 +1,16 @@
 import type { Knex } from 'knex';
 import * as foundation from '../../migrations/20261201000000_foundation';
 import * as naming from '../../migrations/20261201010000_naming';
+import * as mail from '../../migrations/20261201020000_mail';
+import * as review from '../../migrations/20261201030000_review';
 
 // Migrations are imported statically so the same list runs under tsx, vitest and the bench
 // scripts; knex's directory loader cannot import .ts files by itself.
 const MIGRATIONS: Record<string, Knex.Migration> = {
   '20261201000000_foundation': foundation,
   '20261201010000_naming': naming,
+  '20261201020000_mail': mail,
+  '20261201030000_review': review,
 };
 
 export const migrationSource: Knex.MigrationSource<string> = {

@@ -6,6 +6,7 @@ import { hashPassword } from '../services/passwords';
 import { catalogRepo } from './catalog-repo';
 import { settingsRepo, DEFAULT_SETTINGS } from './settings-repo';
 import { templatesRepo } from './templates-repo';
+import { auditRepo } from './audit-repo';
 import { namingRepo } from './naming-repo';
 import { DEMO_CONVENTION } from '../../shared/naming/conventions';
 import { usersRepo } from './users-repo';
@@ -163,11 +164,11 @@ async function seedDemoTemplates(db: Db) {
   const users = usersRepo(db);
   const lead = (await users.findWithHashByEmail('lead@gridset.test'))!;
   const catalog = catalogRepo(db);
-  const service = templatesService({ db, templates: templatesRepo(db), catalog, naming: namingService(namingRepo(db)) });
+  const service = templatesService({ db, templates: templatesRepo(db), catalog, naming: namingService(namingRepo(db)), audit: auditRepo(db) });
   for (const t of DEMO_TEMPLATES) {
     const plate = (await catalog.plateByCode(t.plate))!;
     const created = await service.create(lead, { name: t.name, plateId: plate.id });
-    await service.saveDraft(created.id, 1, { revision: 1, placements: t.placements, sharedOffset: t.sharedOffset, numbering: { order: 'row-by-row' } });
+    await service.saveDraft(lead, created.id, 1, { revision: 1, placements: t.placements, sharedOffset: t.sharedOffset, numbering: { order: 'row-by-row' } });
     if (t.release) await service.release(lead, created.id, 1);
   }
 }

@@ -47,7 +47,7 @@ export function templateRoutes(templates: TemplatesService): RouteDef[] {
     } },
     { method: 'put', path: '/templates/:id/versions/:n', access: CAN.editTemplates, handler: async (req, res) => {
       const { id, n } = params(req.params);
-      res.json(await templates.saveDraft(id, n, parseOr400(SaveVersionInputSchema, req.body, 'template version')));
+      res.json(await templates.saveDraft(currentUser(req), id, n, parseOr400(SaveVersionInputSchema, req.body, 'template version')));
     } },
     { method: 'post', path: '/templates/:id/versions/:n/release', access: CAN.releaseTemplates, handler: async (req, res) => {
       const { id, n } = params(req.params);

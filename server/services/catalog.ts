@@ -3,8 +3,9 @@ import type { ListQuery } from '../../shared/schemas/common';
 import type { CatalogRepo } from '../db/catalog-repo';
 import { conflict, notFound } from '../middleware/errors';
 import type { NamingService } from './naming';
+import type { AuditRepo } from '../db/audit-repo';
 
-export function catalogService(repo: CatalogRepo, naming: NamingService) {
+export function catalogService(repo: CatalogRepo, naming: NamingService, audit: AuditRepo) {
   return {
     listPlates: (q: ListQuery) => repo.listPlates(q),
     async getPlate(id: number) {
@@ -12,23 +13,27 @@ export function catalogService(repo: CatalogRepo, naming: NamingService) {
       if (!p) throw notFound(`Plate ${id}`);
       return p;
     },
-    async createPlate(input: PlateFields) {
+    async createPlate(actorId: number, input: PlateFields) {
       if (await repo.plateCodeTaken(input.code)) throw conflict(`A plate with the code ${input.code} already exists; choose another code.`);
-      return repo.getPlate(await repo.insertPlate(input));
+      const id = await repo.insertPlate(input);
+      await audit.record({ userId: actorId, action: 'plate.create', objectType: 'plate', objectId: id, summary: `Added plate ${input.code}`, after: input });
+      return repo.getPlate(id);
     },
-    async updatePlate(id: number, input: PlateFields) {
+    async updatePlate(actorId: number, id: number, input: PlateFields) {
       const existing = await this.getPlate(id);
       if (await repo.plateCodeTaken(input.code, id)) throw conflict(`A plate with the code ${input.code} already exists; choose another code.`);
       if (existing.usedBy > 0 && (input.unit !== existing.unit || input.pitch !== existing.pitch)) {
         throw conflict(`Plate ${existing.code} is used by ${existing.usedBy} template(s); its unit and pitch cannot change. Add a new plate instead.`);
       }
       await repo.updatePlate(id, input);
+      await audit.record({ userId: actorId, action: 'plate.update', objectType: 'plate', objectId: id, summary: `Changed plate ${input.code}`, before: existing, after: input });
       return repo.getPlate(id);
     },
-    async deletePlate(id: number) {
+    async deletePlate(actorId: number, id: number) {
       const p = await this.getPlate(id);
       if (p.usedBy > 0) throw conflict(`Plate ${p.code} is used by ${p.usedBy} template(s) and cannot be deleted.`);
       await repo.deletePlate(id);
+      await audit.record({ userId: actorId, action: 'plate.delete', objectType: 'plate', objectId: id, summary: `Deleted plate ${p.code}`, before: p });
     },
 
     listComponentsJson: (q: ListQuery & { kind?: string }) => repo.listComponentsJson(q),
@@ -37,12 +42,14 @@ export function catalogService(repo: CatalogRepo, naming: NamingService) {
       if (!c) throw notFound(`Component ${id}`);
       return c;
     },
-    async createComponent(input: ComponentFields) {
+    async createComponent(actorId: number, input: ComponentFields) {
       await naming.requireComponentNames(input);
       if (await repo.componentCodeTaken(input.code)) throw conflict(`A component with the code ${input.code} already exists; choose another code.`);
-      return repo.getComponent(await repo.insertComponent(input));
+      const id = await repo.insertComponent(input);
+      await audit.record({ userId: actorId, action: 'component.create', objectType: 'component', objectId: id, summary: `Added component ${input.code} (${input.kind})`, after: { code: input.code, kind: input.kind, layer: input.layer } });
+      return repo.getComponent(id);
     },
-    async updateComponent(id: number, input: ComponentFields) {
+    async updateComponent(actorId: number, id: number, input: ComponentFields) {
       const existing = await this.getComponent(id);
       await naming.requireComponentNames(input);
       if (await repo.componentCodeTaken(input.code, id)) throw conflict(`A component with the code ${input.code} already exists; choose another code.`);
@@ -50,12 +57,15 @@ export function catalogService(repo: CatalogRepo, naming: NamingService) {
         throw conflict(`Component ${existing.code} is used by ${existing.usedBy} template version(s); its code cannot change.`);
       }
       await repo.updateComponent(id, input);
+      const changed = (Object.keys(input) as (keyof ComponentFields)[]).filter((k) => JSON.stringify(input[k]) !== JSON.stringify((existing as Record<string, unknown>)[k]));
+      await audit.record({ userId: actorId, action: 'component.update', objectType: 'component', objectId: id, summary: `Changed component ${input.code}: ${changed.join(', ') || 'no fields'}`, before: Object.fromEntries(changed.map((k) => [k, (existing as Record<string, unknown>)[k]])), after: Object.fromEntries(changed.map((k) => [k, input[k]])) });
       return repo.getComponent(id);
     },
-    async deleteComponent(id: number) {
+    async deleteComponent(actorId: number, id: number) {
       const c = await this.getComponent(id);
       if (c.usedBy > 0) throw conflict(`Component ${c.code} is used by ${c.usedBy} template version(s) and cannot be deleted.`);
       await repo.deleteComponent(id);
+      await audit.record({ userId: actorId, action: 'component.delete', objectType: 'component', objectId: id, summary: `Deleted component ${c.code}`, before: { code: c.code, kind: c.kind } });
     },
   };
 }

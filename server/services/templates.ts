@@ -12,6 +12,7 @@ import type { StoredVersion, TemplatesRepo } from '../db/templates-repo';
 import { HttpError, badRequest, conflict, notFound } from '../middleware/errors';
 import { versionNamingProblems } from '../../shared/naming/version-names';
 import type { NamingService } from './naming';
+import type { AuditRepo } from '../db/audit-repo';
 
 export const sha256Hex = (text: string) => createHash('sha256').update(text, 'utf8').digest('hex');
 export const contentHash = (content: TemplateContent) => sha256Hex(canonicalJson(layoutForHash(content)));
@@ -32,8 +33,8 @@ const FROZEN: VersionState[] = ['released', 'retired'];
  */
 const EVALUATION_CACHE_SIZE = 200;
 
-export function templatesService(deps: { db: Db; templates: TemplatesRepo; catalog: CatalogRepo; naming: NamingService }) {
-  const { db, templates, catalog, naming } = deps;
+export function templatesService(deps: { db: Db; templates: TemplatesRepo; catalog: CatalogRepo; naming: NamingService; audit: AuditRepo }) {
+  const { db, templates, catalog, naming, audit } = deps;
   const evaluations = new Map<string, TemplateEvaluation>();
   function evaluateStored(v: StoredVersion): TemplateEvaluation {
     const key = v.row.content_hash;
@@ -132,6 +133,7 @@ export function templatesService(deps: { db: Db; templates: TemplatesRepo; catal
       const id = await db.transaction(async (trx) => {
         const templateId = await templates.insertTemplate(trx, { name: input.name, plateId: plate.id, createdBy: user.id });
         await templates.insertVersion(trx, { templateId, number: 1, state: 'draft', content, hash: contentHash(content), authorId: user.id, componentIds });
+        await audit.record({ userId: user.id, action: 'template.create', objectType: 'template', objectId: templateId, summary: `Created template "${input.name}" on plate ${plate.code} with a draft version 1`, after: { name: input.name, plate: plate.code } }, trx);
         return templateId;
       });
       return this.get(id);
@@ -140,7 +142,7 @@ export function templatesService(deps: { db: Db; templates: TemplatesRepo; catal
       // One query: a version of a missing template is simply not found.
       return present(templateId, await requireVersion(templateId, number));
     },
-    async saveDraft(templateId: number, number: number, body: SaveVersionInput): Promise<TemplateVersion> {
+    async saveDraft(user: User, templateId: number, number: number, body: SaveVersionInput): Promise<TemplateVersion> {
       await requireTemplate(templateId);
       const current = await requireVersion(templateId, number);
       if (FROZEN.includes(current.row.state)) throw conflict(`Version ${number} is ${current.row.state}; ${current.row.state} versions never change. Start a new draft from it instead.`);
@@ -149,7 +151,18 @@ export function templatesService(deps: { db: Db; templates: TemplatesRepo; catal
         throw new HttpError(409, 'stale-revision', `Someone saved version ${number} after you opened it (your revision ${body.revision}, now ${current.row.revision}); nothing of yours was saved. Compare and save again.`, { current: present(templateId, current) });
       }
       const { content, evaluation, componentIds } = await assemble({ name: current.content.name, plate: current.content.plate }, body);
-      const saved = await db.transaction(async (trx) => templates.updateDraft(trx, current.row.id, body.revision, content, contentHash(content), componentIds));
+      const saved = await db.transaction(async (trx) => {
+        const ok = await templates.updateDraft(trx, current.row.id, body.revision, content, contentHash(content), componentIds);
+        if (ok) {
+          await audit.record({
+            userId: user.id, action: 'version.save', objectType: 'template-version', objectId: `${templateId}/${number}`,
+            summary: `Saved ${content.name} v${number} (revision ${body.revision + 1}): ${content.placements.length} placements, ${evaluation.stations.length} stations`,
+            before: { revision: body.revision, hash: current.row.content_hash, placements: current.content.placements.length },
+            after: { revision: body.revision + 1, hash: contentHash(content), placements: content.placements.length },
+          }, trx);
+        }
+        return ok;
+      });
       if (!saved) {
         const now = await requireVersion(templateId, number);
         throw new HttpError(409, 'stale-revision', `Someone saved version ${number} at the same moment; nothing of yours was saved. Compare and save again.`, { current: present(templateId, now) });
@@ -163,6 +176,7 @@ export function templatesService(deps: { db: Db; templates: TemplatesRepo; catal
       const number = await db.transaction(async (trx) => {
         const n = await templates.nextNumber(trx, templateId);
         await templates.insertVersion(trx, { templateId, number: n, state: 'draft', content: source.content, hash: source.row.content_hash, authorId: user.id, componentIds: ids });
+        await audit.record({ userId: user.id, action: 'version.new-draft', objectType: 'template-version', objectId: `${templateId}/${n}`, summary: `Started draft v${n} of ${source.content.name} from v${from}`, after: { from } }, trx);
         return n;
       });
       return present(templateId, await requireVersion(templateId, number));
@@ -187,6 +201,7 @@ export function templatesService(deps: { db: Db; templates: TemplatesRepo; catal
       await db.transaction(async (trx) => {
         await templates.setState(trx, v.row.id, 'released');
         await templates.setNaming(trx, v.row.id, { version: convention.version, waiver: nameProblems.length ? waiver! : null, waivedBy: nameProblems.length ? user.id : null });
+        await audit.record({ userId: user.id, action: 'version.release', objectType: 'template-version', objectId: `${templateId}/${number}`, summary: `Released ${v.content.name} v${number}${nameProblems.length ? ` with a naming waiver: "${waiver}"` : ''}`, before: { state: v.row.state }, after: { state: 'released', hash: v.row.content_hash } }, trx);
       });
       return present(templateId, await requireVersion(templateId, number), evaluation);
     },
@@ -209,6 +224,7 @@ export function templatesService(deps: { db: Db; templates: TemplatesRepo; catal
         const named = { ...content, name };
         const id = await templates.insertTemplate(trx, { name, plateId, createdBy: user.id });
         await templates.insertVersion(trx, { templateId: id, number: 1, state: 'draft', content: named, hash: contentHash(named), authorId: user.id, componentIds });
+        await audit.record({ userId: user.id, action: 'template.import', objectType: 'template', objectId: id, summary: `Imported template "${name}" from a template.json (${named.placements.length} placements)`, after: { name, hash: contentHash(named) } }, trx);
         return { id, version: 1 };
       });
     },

@@ -8,6 +8,7 @@ import { catalogRepo } from '../../server/db/catalog-repo';
 import { templatesRepo } from '../../server/db/templates-repo';
 import { templatesService } from '../../server/services/templates';
 import { usersRepo } from '../../server/db/users-repo';
+import { auditRepo } from '../../server/db/audit-repo';
 import { namingRepo } from '../../server/db/naming-repo';
 import { namingService } from '../../server/services/naming';
 import { listen, load, printLoad, realServer, timeMedian } from './lib';
@@ -38,7 +39,7 @@ export async function run() {
     left -= n;
     return { ...p, stopsInUse: Array.from({ length: n }, (_, i) => i) };
   });
-  const service = templatesService({ db, templates: templatesRepo(db), catalog: catalogRepo(db), naming: namingService(namingRepo(db)) });
+  const service = templatesService({ db, templates: templatesRepo(db), catalog: catalogRepo(db), naming: namingService(namingRepo(db)), audit: auditRepo(db) });
   const lead = (await usersRepo(db).findWithHashByEmail('lead@gridset.test'))!;
   const { id } = await service.importFile(lead, { ...content, name: 'Bench 500' });
   const answer = await (await fetch(`${base}/api/templates/${id}/versions/1/stations`, { headers })).json();

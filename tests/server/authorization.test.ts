@@ -50,6 +50,14 @@ const EXPECTED: Record<string, typeof PUBLIC | readonly Role[]> = {
   'PUT /naming/convention': ['lead'],
   'GET /naming/conventions': SIGNED_IN,
   'POST /naming/check': SIGNED_IN,
+  // The lifecycle decides per step and per state who may (shared/review/lifecycle.ts, tested on its own).
+  'POST /templates/:id/versions/:n/submit': SIGNED_IN,
+  'POST /templates/:id/versions/:n/approve': SIGNED_IN,
+  'POST /templates/:id/versions/:n/request-changes': SIGNED_IN,
+  'POST /templates/:id/versions/:n/retire': SIGNED_IN,
+  'GET /templates/:id/versions/:n/reviews': SIGNED_IN,
+  'GET /templates/:id/diff': SIGNED_IN,
+  'GET /audit': ['lead', 'admin'],
 };
 
 let t: TestApp;

@@ -1,0 +1,39 @@
+import type { Db } from './knex';
+import type { AuditEntry, AuditQuery } from '../../shared/schemas/audit';
+
+export interface AuditRecord {
+  userId: number | null;
+  action: string;
+  objectType: string;
+  objectId: string | number;
+  summary: string;
+  before?: unknown;
+  after?: unknown;
+}
+
+/** Before/after kept as short summaries: the audit says what changed, the versions hold the content. */
+const brief = (v: unknown) => (v === undefined || v === null ? null : JSON.stringify(v).slice(0, 4000));
+
+export function auditRepo(db: Db) {
+  return {
+    async record(r: AuditRecord, trx: Db = db) {
+      await trx('audit').insert({ user_id: r.userId, action: r.action, object_type: r.objectType, object_id: String(r.objectId), summary: r.summary, before: brief(r.before), after: brief(r.after) });
+    },
+    async list(q: AuditQuery): Promise<{ items: AuditEntry[]; total: number }> {
+      const base = db('audit as a').leftJoin('users as u', 'u.id', 'a.user_id');
+      if (q.user) base.where('a.user_id', q.user);
+      if (q.object) base.where('a.object_type', q.object);
+      if (q.objectId) base.where('a.object_id', q.objectId);
+      if (q.from) base.where('a.created_at', '>=', `${q.from} 00:00:00`);
+      if (q.to) base.where('a.created_at', '<=', `${q.to} 23:59:59`);
+      const [{ total }] = (await base.clone().count({ total: '*' })) as [{ total: number }];
+      const rows = await base.clone().select('a.*', 'u.email as user_email').orderBy('a.id', 'desc').limit(q.limit).offset(q.offset);
+      const parse = (s: string | null) => { if (!s) return null; try { return JSON.parse(s); } catch { return s; } };
+      return {
+        total: Number(total),
+        items: rows.map((r) => ({ id: r.id, at: String(r.created_at), userId: r.user_id, userEmail: r.user_email ?? null, action: r.action, objectType: r.object_type, objectId: r.object_id, summary: r.summary, before: parse(r.before), after: parse(r.after) })),
+      };
+    },
+  };
+}
+export type AuditRepo = ReturnType<typeof auditRepo>;

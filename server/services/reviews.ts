@@ -1,0 +1,100 @@
+import type { User } from '../../shared/schemas/auth';
+import type { TemplateVersion } from '../../shared/schemas/template-api';
+import type { VersionDiff } from '../../shared/schemas/diff';
+import { transition, type ReviewAction } from '../../shared/review/lifecycle';
+import { compareVersions } from '../../shared/compare/compare-versions';
+import { versionNamingProblems } from '../../shared/naming/version-names';
+import type { Db } from '../db/knex';
+import type { TemplatesRepo } from '../db/templates-repo';
+import type { UsersRepo } from '../db/users-repo';
+import type { AuditRepo } from '../db/audit-repo';
+import { HttpError } from '../middleware/errors';
+import type { NamingService } from './naming';
+import type { TemplatesService } from './templates';
+
+export interface Mail { to: string; subject: string; text: string }
+export interface MailSender { send(mail: Mail): Promise<void> }
+
+interface Deps {
+  db: Db;
+  templates: TemplatesService;
+  templatesRepo: TemplatesRepo;
+  users: UsersRepo;
+  naming: NamingService;
+  audit: AuditRepo;
+  mailer?: MailSender;
+  publicUrl: string;
+}
+
+export function reviewsService(deps: Deps) {
+  const { db, templates, templatesRepo, users, naming, audit, mailer, publicUrl } = deps;
+
+  async function step(user: User, templateId: number, number: number, action: ReviewAction, comment = '') {
+    const v = await templates.requireVersion(templateId, number);
+    const t = transition(v.row.state, action, { role: user.role, isAuthor: v.row.author_id === user.id });
+    if (!t.ok) throw new HttpError(t.status, t.status === 403 ? 'forbidden' : 'conflict', t.message);
+    const presented = templates.present(templateId, v);
+    if ((action === 'submit' || action === 'approve') && presented.problems.length) {
+      throw new HttpError(400, 'layout-problems', `Version ${number} cannot go on: ${presented.problems[0]!.message}${presented.problems.length > 1 ? ` (and ${presented.problems.length - 1} more)` : ''}`, { problems: presented.problems });
+    }
+    if (action === 'approve') {
+      const convention = await naming.current();
+      const names = versionNamingProblems(v.content, convention);
+      if (names.length && !v.row.naming_waiver) {
+        throw new HttpError(400, 'naming', `Version ${number} breaks the naming convention: ${names[0]!.message}. Fix the names, or a lead waives them in writing before approval.`, { naming: names });
+      }
+    }
+    await db.transaction(async (trx) => {
+      await templatesRepo.setState(trx, v.row.id, t.to);
+      await trx('version_reviews').insert({ version_id: v.row.id, action, comment, user_id: user.id });
+      await audit.record({ userId: user.id, action: `version.${action}`, objectType: 'template-version', objectId: `${templateId}/${number}`, summary: `${presented.name} v${number}: ${v.row.state} → ${t.to}${comment ? ` — "${comment}"` : ''}`, before: { state: v.row.state }, after: { state: t.to, comment: comment || undefined } }, trx);
+    });
+    await notify(action, presented, user, comment, v.row.author_id);
+    return templates.present(templateId, await templates.requireVersion(templateId, number));
+  }
+
+  /** Review notices: reviewers hear of a submission, the author of the verdict. A mail failure never undoes the step. */
+  async function notify(action: ReviewAction, v: TemplateVersion, actor: User, comment: string, authorId: number | null) {
+    if (!mailer) return;
+    const link = `${publicUrl}/templates/${v.templateId}/compare?to=${v.version}`;
+    const mails: Mail[] = [];
+    if (action === 'submit') {
+      for (const r of (await users.list()).filter((u) => u.role === 'reviewer' && u.active && u.id !== actor.id)) {
+        mails.push({ to: r.email, subject: `Review requested: ${v.name} v${v.version}`, text: `${actor.name} submitted ${v.name} version ${v.version} (${v.stations.length} stations) for review.\n\nCompare it with the version before: ${link}\n\nContent hash ${v.contentHash}` });
+      }
+    } else if (action === 'approve' || action === 'request-changes') {
+      const author = authorId ? await users.findById(authorId) : undefined;
+      if (author) {
+        const verdict = action === 'approve' ? 'approved and released' : 'sent back with changes requested';
+        mails.push({ to: author.email, subject: `${v.name} v${v.version} ${verdict}`, text: `${actor.name} ${verdict} ${v.name} version ${v.version}.${comment ? `\n\nComment: ${comment}` : ''}\n\n${link}` });
+      }
+    }
+    for (const m of mails) {
+      try {
+        await mailer.send(m);
+      } catch (err) {
+        console.error('review notice not sent', err);
+      }
+    }
+  }
+
+  return {
+    submit: (u: User, id: number, n: number) => step(u, id, n, 'submit'),
+    approve: (u: User, id: number, n: number, comment: string) => step(u, id, n, 'approve', comment),
+    requestChanges: (u: User, id: number, n: number, comment: string) => step(u, id, n, 'request-changes', comment),
+    retire: (u: User, id: number, n: number) => step(u, id, n, 'retire'),
+    async reviews(templateId: number, number: number) {
+      const v = await templates.requireVersion(templateId, number);
+      const rows = await db('version_reviews as r').leftJoin('users as u', 'u.id', 'r.user_id').where('r.version_id', v.row.id).select('r.action', 'r.comment', 'r.created_at', 'u.name', 'u.email').orderBy('r.id');
+      return rows.map((r) => ({ action: r.action, comment: r.comment, at: String(r.created_at), by: r.name ?? null, byEmail: r.email ?? null }));
+    },
+    async diff(templateId: number, from: number, to: number): Promise<VersionDiff> {
+      const [a, b] = await Promise.all([templates.requireVersion(templateId, from), templates.requireVersion(templateId, to)]);
+      const convention = await naming.current();
+      return compareVersions(a.content, b.content, {
+        namingProblems: (content) => versionNamingProblems(content, convention).map((p) => ({ key: p.key, message: p.message })),
+      });
+    },
+  };
+}
+export type ReviewsService = ReturnType<typeof reviewsService>;

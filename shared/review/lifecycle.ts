@@ -1,0 +1,41 @@
+import type { Role } from '../schemas/auth';
+import type { VersionState } from '../schemas/template-api';
+
+export const REVIEW_ACTIONS = ['edit', 'submit', 'approve', 'request-changes', 'retire', 'release'] as const;
+export type ReviewAction = (typeof REVIEW_ACTIONS)[number];
+
+export type Transition = { ok: true; to: VersionState } | { ok: false; status: 403 | 409; message: string };
+
+interface Rule {
+  roles: readonly Role[];
+  from: readonly VersionState[];
+  to: (from: VersionState) => VersionState;
+  /** The one who wrote a version may not sign it off. */
+  notByAuthor?: boolean;
+  words: string;
+}
+
+/**
+ * The review lifecycle: draft → in-review → released → retired, with changes requested sending a
+ * version back to draft. A lead may also release directly (the lead decides which versions may be
+ * released). Released and retired versions never change.
+ */
+const RULES: Record<ReviewAction, Rule> = {
+  edit: { roles: ['lead', 'programmer'], from: ['draft'], to: (s) => s, words: 'edit' },
+  submit: { roles: ['lead', 'programmer'], from: ['draft'], to: () => 'in-review', words: 'submit for review' },
+  approve: { roles: ['reviewer', 'lead'], from: ['in-review'], to: () => 'released', notByAuthor: true, words: 'approve' },
+  'request-changes': { roles: ['reviewer', 'lead'], from: ['in-review'], to: () => 'draft', notByAuthor: true, words: 'send back with changes requested' },
+  retire: { roles: ['lead'], from: ['released'], to: () => 'retired', words: 'retire' },
+  release: { roles: ['lead'], from: ['draft', 'in-review'], to: () => 'released', words: 'release' },
+};
+
+export function transition(state: VersionState, action: ReviewAction, actor: { role: Role; isAuthor: boolean }): Transition {
+  const rule = RULES[action];
+  if (!rule.roles.includes(actor.role)) return { ok: false, status: 403, message: `Your role (${actor.role}) may not ${rule.words} a version; it takes ${rule.roles.join(' or ')}.` };
+  if (!rule.from.includes(state)) {
+    const why = state === 'released' || state === 'retired' ? `${state} versions never change` : `only a version that is ${rule.from.join(' or ')} can be`;
+    return { ok: false, status: 409, message: `This version is ${state}: ${why}${why.startsWith('only') ? ` ${action === 'edit' ? 'edited' : 'taken through this step'}` : ''}.` };
+  }
+  if (rule.notByAuthor && actor.isAuthor) return { ok: false, status: 403, message: `You wrote this version, so someone else must ${rule.words} it.` };
+  return { ok: true, to: rule.to(state) };
+}
