@@ -14,6 +14,7 @@ import { SettingsRoute } from './routes/settings';
 import { NotFoundRoute } from './routes/not-found';
 import { TemplatesRoute } from './routes/templates';
 import { NamingRoute } from './routes/naming';
+import { TemplateCompareRoute } from './routes/template-compare';
 import { TemplateVersionRoute } from './routes/template-version';
 import { StockCheckRoute } from './routes/stock-check';
 
@@ -43,6 +44,7 @@ export const router = createBrowserRouter([
           { path: 'templates', element: <TemplatesRoute /> },
           { path: 'templates/:id/versions/:n', element: <TemplateVersionRoute /> },
           { path: 'stock-check', element: <StockCheckRoute /> },
+          { path: 'templates/:id/compare', element: <TemplateCompareRoute /> },
           { path: 'naming', element: <NamingRoute /> },
           { path: 'catalog/plates', element: <PlatesRoute /> },
           { path: 'catalog/plates/:id', element: <PlateEditRoute /> },

@@ -12,6 +12,7 @@ import { useShopSettings } from '../features/settings/api';
 import { useNewDraft, useReleaseVersion, useTemplate, useVersion } from '../features/templates/api';
 import { VersionEditor } from '../features/templates/components/version-editor';
 import { StateTag } from './templates';
+import { ReviewActions } from '../features/review/components/review-actions';
 
 const NO_COMPONENTS: Component[] = [];
 
@@ -60,6 +61,11 @@ export function TemplateVersionRoute() {
         <NamingWaiver problems={(release.error.details as { naming: { message: string }[] }).naming} pending={release.isPending} onWaive={(w) => release.mutate(w)} />
       ) : <ErrorText error={release.error ?? newDraft.error} />}
       {v.namingWaiver ? <Notice tone="caution" title="Released with a naming waiver">{v.namingWaiver}</Notice> : null}
+      {me.data ? (
+        <ReviewActions version={v} user={me.data} isAuthor={v.authorId === me.data.id}
+          previous={template.data.versions.filter((x) => x.number < n && x.state !== 'draft').at(-1)?.number ?? template.data.versions.filter((x) => x.number < n).at(-1)?.number ?? null}
+          onChanged={() => { void template.refetch(); void version.refetch(); }} />
+      ) : null}
       <VersionEditor key={`${id}-${n}-${v.revision}`} templateId={id} version={v} catalog={components.data?.items ?? NO_COMPONENTS} displayUnit={displayUnit} canEdit={may(role, 'editTemplates')} probeTolerance={probeTolerance} />
     </Page>
   );

@@ -104,6 +104,7 @@ export function templatesService(deps: { db: Db; templates: TemplatesRepo; catal
       templateId, version: v.row.number, state: v.row.state, revision: v.row.revision, contentHash: v.row.content_hash,
       stations: evaluation.stations, problems: evaluation.problems, pairings: evaluation.pairings, updatedAt: String(v.row.updated_at),
       namingWaiver: v.row.naming_waiver ?? null,
+      authorId: v.row.author_id ?? null,
     };
   }
 

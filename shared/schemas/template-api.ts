@@ -65,6 +65,8 @@ export const TemplateVersionSchema = TemplateContentSchema.extend({
   updatedAt: z.string(),
   /** A lead's written reason for releasing despite naming problems, kept with the version. */
   namingWaiver: z.string().nullable().default(null),
+  /** Who started this version; they may not approve it. */
+  authorId: z.number().int().nullable().default(null),
 });
 export type TemplateVersion = z.infer<typeof TemplateVersionSchema>;
 

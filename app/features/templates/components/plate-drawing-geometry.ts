@@ -134,13 +134,34 @@ export function plateEdgeBox(plate: PlateGrid): Box {
   return { minX: -m, minY: -m, maxX: (plate.columns - 1) * plate.pitch + m, maxY: (plate.rows - 1) * plate.pitch + m };
 }
 
-/** Every hole as an open circle, in one path: one DOM node however large the grid. */
-export function holesPathData(plate: PlateGrid, r: number): string {
+/** The holes of columns [c0, c1) × rows [r0, r1) as open circles, in one path (the whole grid by default). */
+export function holesPathData(plate: PlateGrid, r: number, cols: [number, number] = [0, plate.columns], rows: [number, number] = [0, plate.rows]): string {
   const parts: string[] = [];
-  for (let row = 0; row < plate.rows; row++) {
-    for (let col = 0; col < plate.columns; col++) parts.push(circlePathData(col * plate.pitch, row * plate.pitch, r));
+  for (let row = rows[0]; row < Math.min(rows[1], plate.rows); row++) {
+    for (let col = cols[0]; col < Math.min(cols[1], plate.columns); col++) parts.push(circlePathData(col * plate.pitch, row * plate.pitch, r));
   }
   return parts.join('');
+}
+
+/**
+ * The grid in square blocks of `block` × `block` holes, one path each. The browser skips
+ * painting a path whose bounds are off screen, so a zoomed-in view paints a few blocks, not
+ * every hole of a large table.
+ */
+export function holeBlocks(plate: PlateGrid, r: number, block = 16): string[] {
+  const out: string[] = [];
+  for (let r0 = 0; r0 < plate.rows; r0 += block) {
+    for (let c0 = 0; c0 < plate.columns; c0 += block) out.push(holesPathData(plate, r, [c0, c0 + block], [r0, r0 + block]));
+  }
+  return out;
+}
+
+export function boxesIntersect(a: Box, b: Box): boolean {
+  return a.minX <= b.maxX && b.minX <= a.maxX && a.minY <= b.maxY && b.minY <= a.maxY;
+}
+
+export function boxContainsPoint(b: Box, p: Point): boolean {
+  return p.x >= b.minX && p.x <= b.maxX && p.y >= b.minY && p.y <= b.maxY;
 }
 
 export interface NearestHole {

@@ -7,7 +7,7 @@
 import { memo, useImperativeHandle, useMemo, useState, type Ref } from 'react';
 import type { Point } from '../../../../shared/schemas/common';
 import type { Hole } from '../../../../shared/schemas/template';
-import { arrowPathData, boxPathData, circlePathData, holesPathData, num, originSymbolData } from './plate-drawing-geometry';
+import { arrowPathData, boxContainsPoint, boxPathData, circlePathData, holeBlocks, num, originSymbolData, type Box } from './plate-drawing-geometry';
 import type { Detail } from './plate-drawing-view';
 import type { DrawnPlacement, DrawnStation, PlacementFault, PlacementMove } from './plate-drawing-scene';
 
@@ -15,10 +15,13 @@ import type { DrawnPlacement, DrawnStation, PlacementFault, PlacementMove } from
 export interface Ink {
   plate: string;
   hole: string;
+  /** Stroke-only classes go on elements drawn with fill="none": a fill class would beat that attribute. */
   datum: string;
+  datumDot: string;
   component: string;
   componentLines: string;
   selected: string;
+  selectedLines: string;
   selectedText: string;
   text: string;
   halo: string;
@@ -36,10 +39,12 @@ export interface Ink {
 export const SCREEN_INK: Ink = {
   plate: 'fill-slate-100 stroke-slate-500',
   hole: 'stroke-slate-400',
-  datum: 'stroke-slate-900 fill-slate-900',
+  datum: 'stroke-slate-900',
+  datumDot: 'fill-slate-900',
   component: 'fill-slate-300/70 stroke-slate-700',
   componentLines: 'stroke-slate-700',
   selected: 'fill-accent-100/80 stroke-accent-700',
+  selectedLines: 'stroke-accent-700',
   selectedText: 'fill-accent-800',
   text: 'fill-slate-900',
   halo: 'stroke-white',
@@ -58,10 +63,12 @@ export const SCREEN_INK: Ink = {
 export const PRINT_INK: Ink = {
   plate: 'fill-white stroke-black',
   hole: 'stroke-black',
-  datum: 'stroke-black fill-black',
+  datum: 'stroke-black',
+  datumDot: 'fill-black',
   component: 'fill-white stroke-black',
   componentLines: 'stroke-black',
   selected: 'fill-white stroke-black',
+  selectedLines: 'stroke-black',
   selectedText: 'fill-black',
   text: 'fill-black',
   halo: 'stroke-white',
@@ -76,11 +83,20 @@ export const PRINT_INK: Ink = {
   hover: 'stroke-black',
 };
 
-// Stroke widths in screen pixels: vector-effect keeps them constant at any zoom.
+// Stroke widths in screen pixels: vector-effect keeps them constant at any zoom. Paths with
+// thousands of pieces (crosses, the order, holes) stay at 1 px: the rasterizer draws those as
+// hairlines, several times faster than any wider stroke.
 const NS = 'non-scaling-stroke' as const;
 
-/** Above this many holes one path string grows to megabytes; a repeating pattern draws the same. */
+/** Above this many holes the path strings grow to megabytes; a repeating pattern draws the same. */
 export const HOLE_PATH_LIMIT = 40_000;
+
+/**
+ * Up to this many labels or station tags are all drawn, wherever the view is, so a screen reader
+ * meets every station's title on an ordinary template. Beyond it only those near the view are
+ * (the cull window), and the station table is the full list.
+ */
+export const UNCULLED_LIMIT = 1_500;
 
 export const PlateLayer = memo(function PlateLayer(props: {
   pitch: number;
@@ -96,14 +112,16 @@ export const PlateLayer = memo(function PlateLayer(props: {
 }) {
   const { pitch, columns, rows, holeRadius: r, minX, minY, maxX, maxY, patternId, ink } = props;
   const holes = useMemo(
-    () => (columns * rows <= HOLE_PATH_LIMIT ? holesPathData({ pitch, columns, rows }, r) : null),
+    () => (columns * rows <= HOLE_PATH_LIMIT ? holeBlocks({ pitch, columns, rows }, r) : null),
     [pitch, columns, rows, r],
   );
   return (
     <g aria-hidden="true">
       <path d={boxPathData({ minX, minY, maxX, maxY })} className={ink.plate} strokeWidth={1.5} vectorEffect={NS} />
       {holes !== null ? (
-        <path d={holes} fill="none" className={ink.hole} strokeWidth={1} vectorEffect={NS} />
+        <g fill="none" className={ink.hole} strokeWidth={1}>
+          {holes.map((d, i) => <path key={i} d={d} vectorEffect={NS} />)}
+        </g>
       ) : (
         <>
           <defs>
@@ -116,7 +134,7 @@ export const PlateLayer = memo(function PlateLayer(props: {
       )}
       {/* The datum hole: a heavier ring with a filled center, so it reads apart from the grid. */}
       <circle cx={0} cy={0} r={r * 1.35} fill="none" className={ink.datum} strokeWidth={2.5} vectorEffect={NS} />
-      <circle cx={0} cy={0} r={r * 0.35} className={ink.datum} stroke="none" />
+      <circle cx={0} cy={0} r={r * 0.35} className={ink.datumDot} />
     </g>
   );
 });
@@ -129,7 +147,7 @@ export const ComponentsLayer = memo(function ComponentsLayer({ placements, ink, 
 }) {
   if (variant === 'older') {
     return (
-      <g aria-hidden="true" pointerEvents="none" fill="none" className={ink.older} strokeWidth={1.25} strokeDasharray="5 4" opacity={0.85}>
+      <g aria-hidden="true" pointerEvents="none" fill="none" className={ink.older} strokeWidth={1} strokeDasharray="5 4" opacity={0.85}>
         {placements.map((p) => (
           <g key={p.key} transform={p.transform}>
             <path d={p.shape.fill + p.shape.lines} vectorEffect={NS} />
@@ -158,7 +176,7 @@ export const SelectionLayer = memo(function SelectionLayer({ placement, ink }: {
   return (
     <g aria-hidden="true" pointerEvents="none" transform={placement.transform}>
       <path d={placement.shape.fill} fillRule="evenodd" className={ink.selected} strokeWidth={3} vectorEffect={NS} />
-      {placement.shape.lines ? <path d={placement.shape.lines} fill="none" className={ink.selected} strokeWidth={2} vectorEffect={NS} /> : null}
+      {placement.shape.lines ? <path d={placement.shape.lines} fill="none" className={ink.selectedLines} strokeWidth={2} vectorEffect={NS} /> : null}
     </g>
   );
 });
@@ -178,14 +196,14 @@ export const FaultOutlines = memo(function FaultOutlines({ placements, ink }: { 
 
 export const OrderLayer = memo(function OrderLayer({ d, ink }: { d: string; ink: Ink }) {
   if (!d) return null;
-  return <path aria-hidden="true" pointerEvents="none" d={d} fill="none" className={ink.order} strokeWidth={1.25} strokeLinejoin="round" vectorEffect={NS} />;
+  return <path aria-hidden="true" pointerEvents="none" d={d} fill="none" className={ink.order} strokeWidth={1} strokeLinejoin="round" vectorEffect={NS} />;
 });
 
 export const CrossesLayer = memo(function CrossesLayer({ d, ink, faint }: { d: string; ink: Ink; faint?: boolean }) {
   if (!d) return null;
   return (
     <path aria-hidden="true" pointerEvents="none" d={d} fill="none" className={faint ? ink.older : ink.station}
-      strokeWidth={faint ? 1 : 1.5} opacity={faint ? 0.7 : 1} vectorEffect={NS} />
+      strokeWidth={1} opacity={faint ? 0.7 : 1} vectorEffect={NS} />
   );
 });
 
@@ -260,11 +278,18 @@ function Label({ p, ink, className, weight }: { p: DrawnPlacement; ink: Ink; cla
   );
 }
 
-export const CodeLabels = memo(function CodeLabels({ placements, ink, detail }: { placements: readonly DrawnPlacement[]; ink: Ink; detail: Detail }) {
+export const CodeLabels = memo(function CodeLabels({ placements, ink, detail, cull }: {
+  placements: readonly DrawnPlacement[];
+  ink: Ink;
+  detail: Detail;
+  /** Only labels inside this plate box are drawn; null draws them all. */
+  cull: Box | null;
+}) {
   if (detail === 'sparse') return null;
+  const shown = cull ? placements.filter((p) => boxContainsPoint(cull, p.labelAt)) : placements;
   return (
     <g aria-hidden="true" pointerEvents="none">
-      {placements.map((p) => <Label key={p.key} p={p} ink={ink} />)}
+      {shown.map((p) => <Label key={p.key} p={p} ink={ink} />)}
     </g>
   );
 });
@@ -278,18 +303,24 @@ export const SelectedLabel = memo(function SelectedLabel({ placement, ink }: { p
  * Station crosses are one path (CrossesLayer); here each station gets its number tag and a
  * title. When the tags are too small to read, an invisible dot keeps the title under the pointer.
  */
-export const StationTags = memo(function StationTags({ stations, ink, tag, cross, detail }: {
+export const StationTags = memo(function StationTags({ stations, ink, tag, cross, detail, cull }: {
   stations: readonly DrawnStation[];
   ink: Ink;
   tag: number;
   cross: number;
   detail: Detail;
+  /** Only stations inside this plate box get a tag and title; null gives every station one. */
+  cull: Box | null;
 }) {
+  // Zoomed out over many stations, the crosses path alone shows them: thousands of invisible
+  // hit dots would cost more to paint than everything else.
+  if (cull && detail === 'sparse') return null;
+  const shown = cull ? stations.filter((s) => boxContainsPoint(cull, s.datum)) : stations;
   // The tag sits up and right of the cross (45°), clear of the cross itself.
   const off = cross + tag * 0.85;
   return (
     <g>
-      {stations.map((s) => {
+      {shown.map((s) => {
         const x = s.datum.x + off;
         const y = -(s.datum.y + off);
         const digits = String(s.number).length;
@@ -322,7 +353,7 @@ const LABEL_PX = 13;
 export function DatumLabel({ holeRadius, px, ink }: { holeRadius: number; px: number; ink: Ink }) {
   const size = LABEL_PX * px;
   return (
-    <text aria-hidden="true" pointerEvents="none" x={num(holeRadius * 1.35 + 3 * px)} y={num(holeRadius * 1.35 + size * 0.8)}
+    <text aria-hidden="true" pointerEvents="none" x={num(holeRadius * 1.35 + 3 * px)} y={num(holeRadius * 1.35 + size * 0.6 + 2 * px)}
       {...textProps(size, ink)} textAnchor="start">
       datum (0, 0)
     </text>
@@ -342,7 +373,11 @@ export function OffsetLabels({ origin, arm, name, px, ink }: { origin: Point; ar
   );
 }
 
-export function FaultLabels({ faults, px, ink }: { faults: ReadonlyArray<{ fault: PlacementFault; placement: DrawnPlacement }>; px: number; ink: Ink }) {
+export function FaultLabels({ faults, px, ink }: {
+  faults: ReadonlyArray<{ fault: PlacementFault; placement: DrawnPlacement }>;
+  px: number;
+  ink: Ink;
+}) {
   if (faults.length === 0) return null;
   const size = LABEL_PX * px;
   const base = textProps(size, ink);

@@ -30,6 +30,11 @@ export function plateBoxToView(b: Box): ViewBox {
   return { x: b.minX, y: -b.maxY, w: b.maxX - b.minX, h: b.maxY - b.minY };
 }
 
+/** The plate region a view box spans (the inverse of plateBoxToView). */
+export function viewToPlateBox(v: ViewBox): Box {
+  return { minX: v.x, minY: -(v.y + v.h), maxX: v.x + v.w, maxY: -v.y };
+}
+
 /** The view that shows the box with `pad` to spare on every side; never empty. */
 export function fitView(b: Box, pad: number): ViewBox {
   const v = plateBoxToView({ minX: b.minX - pad, minY: b.minY - pad, maxX: b.maxX + pad, maxY: b.maxY + pad });
@@ -58,6 +63,27 @@ export function clientToView(view: ViewBox, vp: Viewport, clientX: number, clien
   const offX = (vp.width - view.w * s) / 2;
   const offY = (vp.height - view.h * s) / 2;
   return { x: view.x + (clientX - vp.left - offX) / s, y: view.y + (clientY - vp.top - offY) / s };
+}
+
+/** Where a view point lands on the element, in pixels from its top-left corner (xMidYMid meet). */
+export function viewToElement(view: ViewBox, size: Pick<Viewport, 'width' | 'height'>, p: Point): Point {
+  const s = viewScale(view, size);
+  return { x: (size.width - view.w * s) / 2 + (p.x - view.x) * s, y: (size.height - view.h * s) / 2 + (p.y - view.y) * s };
+}
+
+/**
+ * The CSS transform (origin at the element's top-left) that makes the picture painted for
+ * `committed` look like `live`: a uniform scale k and a shift. A drawing too big to repaint every
+ * frame is moved this way during a gesture, on the compositor, and repainted once at the end.
+ * Both are affine in the view point, so matching the images of the view's two corners fixes it:
+ * k = s_live / s_committed and t = e_live(p) − k·e_committed(p) for any p.
+ */
+export function previewTransform(committed: ViewBox, live: ViewBox, size: Pick<Viewport, 'width' | 'height'>): { k: number; tx: number; ty: number } {
+  const k = viewScale(live, size) / viewScale(committed, size);
+  const p = { x: committed.x, y: committed.y };
+  const a = viewToElement(committed, size, p);
+  const b = viewToElement(live, size, p);
+  return { k, tx: b.x - k * a.x, ty: b.y - k * a.y };
 }
 
 /** Smallest and largest view (its longer side), in view units. */
@@ -117,6 +143,25 @@ export function wheelZoomFactor(deltaY: number, deltaMode: number): number {
   const px = deltaMode === 1 ? deltaY * 16 : deltaMode === 2 ? deltaY * 400 : deltaY;
   const capped = Math.max(-300, Math.min(300, px));
   return Math.exp(-capped * 0.002);
+}
+
+/**
+ * The plate region whose labels are drawn: the view with half a view to spare on every side,
+ * snapped outward to a grid of power-of-two cells about half a view across. Small pans and
+ * zooms leave it unchanged, so the label layers re-render only now and then, never per frame.
+ */
+export function cullWindow(view: ViewBox): Box {
+  const size = Math.max(view.w, view.h);
+  const cell = 2 ** Math.ceil(Math.log2(size)) / 2;
+  const snapDown = (v: number) => Math.floor(v / cell) * cell;
+  const snapUp = (v: number) => Math.ceil(v / cell) * cell;
+  // View y runs down the screen: plate y = −view y.
+  return {
+    minX: snapDown(view.x - view.w / 2),
+    maxX: snapUp(view.x + view.w * 1.5),
+    minY: snapDown(-(view.y + view.h * 1.5)),
+    maxY: snapUp(-(view.y - view.h / 2)),
+  };
 }
 
 /**

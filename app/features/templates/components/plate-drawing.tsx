@@ -11,20 +11,23 @@ import {
   type PointerEvent,
   type Ref,
 } from 'react';
-import { Maximize, ZoomIn, ZoomOut } from 'lucide-react';
+import { AlertOctagon, Maximize, ZoomIn, ZoomOut } from 'lucide-react';
 import type { Point, Unit } from '../../../../shared/schemas/common';
 import type { Hole, Station, TemplateContent } from '../../../../shared/schemas/template';
 import { Button } from '../../../components/ui/button';
-import { nearestHole, unionBox } from './plate-drawing-geometry';
+import { boxesIntersect, nearestHole, unionBox } from './plate-drawing-geometry';
 import {
   clientToView,
+  cullWindow,
   detailFor,
   fitView,
   panBy,
   pinchView,
+  previewTransform,
   viewBoxAttr,
   viewScale,
   viewToPlate,
+  viewToPlateBox,
   wheelZoomFactor,
   zoomAt,
   zoomAtCenter,
@@ -61,6 +64,7 @@ import {
   SelectedLabel,
   SelectionLayer,
   StationTags,
+  UNCULLED_LIMIT,
   type HoleHoverHandle,
 } from './plate-drawing-layers';
 
@@ -115,6 +119,16 @@ const HOLE_HIT = 0.5;
 /** Pointer travel (px) below which a press is a click, not a drag. */
 const CLICK_SLOP = 4;
 const KEY_ZOOM = 1.25;
+/**
+ * Above about this many drawn things (placements, stations, an eighth of the holes) a repaint
+ * takes longer than a frame on a shop-floor PC, so gestures preview with a CSS transform.
+ */
+const HEAVY_SCENE = 3_000;
+/** A wheel gesture counts as over after this long without a wheel event. */
+const WHEEL_SETTLE_MS = 160;
+/** More problem labels than this in view are replaced by one line of words over the drawing. */
+const MAX_FAULT_LABELS = 30;
+const NO_FAULTS: never[] = [];
 
 interface Gesture {
   pointers: Map<number, Point>;
@@ -140,9 +154,10 @@ const newGesture = (): Gesture => ({
   target: null,
 });
 
-const rectOf = (el: Element): Viewport => {
+/** The frame's content box on screen: where the svg is laid out, whatever transform it has. */
+const viewportOf = (el: HTMLElement): Viewport => {
   const r = el.getBoundingClientRect();
-  return { left: r.left, top: r.top, width: r.width || 1, height: r.height || 1 };
+  return { left: r.left + el.clientLeft, top: r.top + el.clientTop, width: el.clientWidth || 1, height: el.clientHeight || 1 };
 };
 
 const midpoint = (a: Point, b: Point): Point => ({ x: (a.x + b.x) / 2, y: (a.y + b.y) / 2 });
@@ -190,7 +205,10 @@ export function PlateDrawing(props: PlateDrawingProps) {
   // ---- the view ----
   const fit = useMemo(
     // Room beyond the plate for the datum and offset labels and for the problem words.
-    () => fitView(older ? unionBox(plate.extent, older.extent) : plate.extent, plate.pitch * 0.6),
+    () => {
+      const box = older ? unionBox(plate.extent, older.extent) : plate.extent;
+      return fitView(box, Math.max(plate.pitch * 0.6, Math.max(box.maxX - box.minX, box.maxY - box.minY) * 0.04));
+    },
     [plate, older],
   );
   const limits = useMemo(() => zoomLimitsFor(fit, plate.pitch), [fit, plate.pitch]);
@@ -198,27 +216,80 @@ export function PlateDrawing(props: PlateDrawingProps) {
   const plateKey = `${unit}|${plate.pitch}|${plate.columns}|${plate.rows}|${plate.edge.minX}|${plate.edge.minY}`;
   const [viewState, setViewState] = useState(() => ({ key: plateKey, view: fit }));
   if (viewState.key !== plateKey) setViewState({ key: plateKey, view: fit });
+  /** The committed view: the svg's viewBox. */
   const view = printMode || viewState.key !== plateKey ? fit : viewState.view;
-  const viewRef = useRef(view);
-  useLayoutEffect(() => {
-    viewRef.current = view;
-  });
-  const applyView = useCallback((next: (v: ViewBox) => ViewBox) => {
-    const v = next(viewRef.current);
-    viewRef.current = v;
-    setViewState((s) => ({ ...s, view: v }));
-  }, []);
-  const fitNow = useCallback(() => applyView(() => fit), [applyView, fit]);
 
-  // Pixels per pitch decide the level of detail; the element size comes from a ResizeObserver.
+  // Too much to repaint every frame? Then a gesture moves the painted picture with a CSS
+  // transform (compositor only) and the viewBox is committed when the gesture ends.
+  const heavy = !printMode &&
+    plate.placements.length + stationScene.stations.length + (older?.placements.length ?? 0) + (olderStations?.stations.length ?? 0) + (plate.columns * plate.rows) / 8 > HEAVY_SCENE;
+
   const svgRef = useRef<SVGSVGElement>(null);
+  const frameRef = useRef<HTMLDivElement>(null);
+  /** The live view: where gestures have taken the view, committed or not. */
+  const viewRef = useRef(view);
+  /** The view the DOM shows right now. */
+  const shownRef = useRef(view);
+  const viewKeyRef = useRef(plateKey);
+  const commitFrame = useRef(0);
+  const settleTimer = useRef(0);
+
+  const showPreview = useCallback(() => {
+    const el = svgRef.current;
+    const frame = frameRef.current;
+    if (!el || !frame) return;
+    const live = viewRef.current;
+    const shown = shownRef.current;
+    if (live.x === shown.x && live.y === shown.y && live.w === shown.w && live.h === shown.h) {
+      el.style.transform = '';
+      return;
+    }
+    const t = previewTransform(shown, live, viewportOf(frame));
+    el.style.transform = `translate(${t.tx}px, ${t.ty}px) scale(${t.k})`;
+  }, []);
+
+  // After each commit the preview is re-based on what is now painted, or cleared, in the same frame.
+  useLayoutEffect(() => {
+    if (viewKeyRef.current !== plateKey) {
+      viewKeyRef.current = plateKey;
+      viewRef.current = view;
+    }
+    shownRef.current = view;
+    showPreview();
+  }, [view, plateKey, showPreview]);
+  useEffect(() => () => {
+    cancelAnimationFrame(commitFrame.current);
+    window.clearTimeout(settleTimer.current);
+  }, []);
+
+  /** Commit the live view, once per animation frame however many events asked. */
+  const commit = useCallback(() => {
+    window.clearTimeout(settleTimer.current);
+    settleTimer.current = 0;
+    if (commitFrame.current) return;
+    commitFrame.current = requestAnimationFrame(() => {
+      commitFrame.current = 0;
+      const v = viewRef.current;
+      setViewState((s) => ({ ...s, view: v }));
+    });
+  }, []);
+
+  /** A step (key, button, fit) commits at once; a gesture on a heavy scene only previews until it settles. */
+  const moveView = (next: (v: ViewBox) => ViewBox, gestureStep = false) => {
+    viewRef.current = next(viewRef.current);
+    if (heavy && gestureStep) showPreview();
+    else commit();
+  };
+  const fitNow = () => moveView(() => fit);
+
+  // Pixels per pitch decide the level of detail; the frame's size comes from a ResizeObserver.
   const [size, setSize] = useState({ width: 0, height: 0 });
   useLayoutEffect(() => {
-    const el = svgRef.current;
+    const el = frameRef.current;
     if (!el) return;
     const measure = () => {
-      const r = el.getBoundingClientRect();
-      setSize((s) => (s.width === r.width && s.height === r.height ? s : { width: r.width, height: r.height }));
+      const { width, height } = viewportOf(el);
+      setSize((s) => (s.width === width && s.height === height ? s : { width, height }));
     };
     measure();
     if (typeof ResizeObserver === 'undefined') return;
@@ -226,13 +297,27 @@ export function PlateDrawing(props: PlateDrawingProps) {
     ro.observe(el);
     return () => ro.disconnect();
   }, []);
-  const scale = size.width > 0 && size.height > 0 ? viewScale(view, size) : viewScale(view, { width: 800, height: 500 });
+  const scale = size.width > 1 && size.height > 1 ? viewScale(view, size) : viewScale(view, { width: 800, height: 500 });
   const detail = printMode ? 'full' : detailFor(scale * plate.pitch);
   // View units per screen pixel for the few labels that keep a constant size; in print, a
   // size tied to the pitch, since the page, not a screen, scales the drawing.
   const px = printMode ? sizes.text / 13 : 1 / scale;
+  // Labels near the view only, when there are too many to draw all; the window moves in steps.
+  const nearView = cullWindow(view);
+  const nearKey = `${nearView.minX} ${nearView.maxX} ${nearView.minY} ${nearView.maxY}`;
+  // Memoized on its value, so the label layers get a new window only when it steps.
+  const cull = useMemo(() => nearView, [nearKey]);
+  const stationCull = printMode || stationScene.stations.length <= UNCULLED_LIMIT ? null : cull;
+  const labelCull = printMode || plate.placements.length <= UNCULLED_LIMIT ? null : cull;
+  // Problem words are few and screen-sized; past a handful in view they would bury the
+  // drawing, so the outlines stay and one line above the drawing says how many.
+  const inView = viewToPlateBox(view);
+  const faultsInView = printMode ? faulty : faulty.filter((f) => boxesIntersect(inView, f.placement.bounds));
+  const faultWordsHidden = faultsInView.length > MAX_FAULT_LABELS;
 
   // ---- pointer: pan, pinch, click, readout ----
+  // Listeners sit on the frame, not the svg: during a preview the svg is moved and may not
+  // cover the frame, and a wheel over the uncovered part must still zoom, not scroll the page.
   const gesture = useRef<Gesture>(newGesture());
   const readout = useRef<ReadoutHandle>(null);
   const hover = useRef<HoleHoverHandle>(null);
@@ -263,13 +348,17 @@ export function PlateDrawing(props: PlateDrawingProps) {
     g.moved = moved;
   };
 
-  const onPointerDown = (e: PointerEvent<SVGSVGElement>) => {
+  const onPointerDown = (e: PointerEvent<HTMLDivElement>) => {
     if (printMode || (e.pointerType === 'mouse' && e.button !== 0)) return;
     const g = gesture.current;
     if (g.pointers.size >= 2) return;
-    e.currentTarget.setPointerCapture?.(e.pointerId);
+    try {
+      e.currentTarget.setPointerCapture(e.pointerId);
+    } catch {
+      // A pointer the browser no longer knows (lifted already) cannot be captured; carry on uncaptured.
+    }
     g.pointers.set(e.pointerId, { x: e.clientX, y: e.clientY });
-    g.rect = rectOf(e.currentTarget);
+    g.rect = viewportOf(e.currentTarget);
     if (g.pointers.size === 1) {
       g.target = e.target instanceof Element ? e.target : null;
       startPan(g, { x: e.clientX, y: e.clientY }, false);
@@ -284,10 +373,10 @@ export function PlateDrawing(props: PlateDrawingProps) {
     }
   };
 
-  const onPointerMove = (e: PointerEvent<SVGSVGElement>) => {
+  const onPointerMove = (e: PointerEvent<HTMLDivElement>) => {
     if (printMode) return;
     const g = gesture.current;
-    const rect = g.pointers.size ? g.rect : rectOf(e.currentTarget);
+    const rect = g.pointers.size ? g.rect : viewportOf(e.currentTarget);
     if (g.pointers.size <= 1) {
       const p = platePointAt(rect, e.clientX, e.clientY);
       readout.current?.show(p);
@@ -304,18 +393,18 @@ export function PlateDrawing(props: PlateDrawingProps) {
       if (!g.moved) return;
       const now = clientToView(g.startView, g.rect, e.clientX, e.clientY);
       const { startView, startAt } = g;
-      applyView(() => panBy(startView, startAt.x - now.x, startAt.y - now.y));
+      moveView(() => panBy(startView, startAt.x - now.x, startAt.y - now.y), true);
     } else if (g.mode === 'pinch') {
       const [a, b] = [...g.pointers.values()] as [Point, Point];
       const mid = midpoint(a, b);
       const now = clientToView(g.startView, g.rect, mid.x, mid.y);
       const k = Math.hypot(a.x - b.x, a.y - b.y) / g.spread;
       const { startView, startAt } = g;
-      applyView(() => pinchView(startView, startAt, now, k, limits));
+      moveView(() => pinchView(startView, startAt, now, k, limits), true);
     }
   };
 
-  const endPointer = (e: PointerEvent<SVGSVGElement>, cancelled: boolean) => {
+  const endPointer = (e: PointerEvent<HTMLDivElement>, cancelled: boolean) => {
     const g = gesture.current;
     if (!g.pointers.has(e.pointerId)) return;
     const wasClick = !cancelled && g.mode === 'pan' && !g.moved;
@@ -324,8 +413,12 @@ export function PlateDrawing(props: PlateDrawingProps) {
     if (wasClick) click(g.rect, e.clientX, e.clientY, g.target);
     const rest = [...g.pointers.values()][0];
     // Lifting one finger of a pinch carries on as a drag with the other.
-    if (rest) startPan(g, rest, true);
-    else g.mode = 'idle';
+    if (rest) {
+      startPan(g, rest, true);
+    } else {
+      g.mode = 'idle';
+      commit();
+    }
   };
 
   const onPointerLeave = () => {
@@ -334,45 +427,57 @@ export function PlateDrawing(props: PlateDrawingProps) {
     hover.current?.show(null);
   };
 
-  // React attaches wheel listeners as passive, so preventDefault (keeping the page still) needs a native one.
+  // React attaches wheel listeners as passive, so preventDefault (keeping the page still) needs
+  // a native one; it calls the latest handler through a ref so it is added once.
+  const onWheel = (e: WheelEvent) => {
+    e.preventDefault();
+    const frame = frameRef.current;
+    if (!frame) return;
+    const rect = viewportOf(frame);
+    const k = wheelZoomFactor(e.deltaY, e.deltaMode);
+    moveView((v) => zoomAt(v, clientToView(v, rect, e.clientX, e.clientY), k, limits), true);
+    if (heavy) {
+      window.clearTimeout(settleTimer.current);
+      settleTimer.current = window.setTimeout(commit, WHEEL_SETTLE_MS);
+    }
+  };
+  const wheelRef = useRef(onWheel);
+  useLayoutEffect(() => {
+    wheelRef.current = onWheel;
+  });
   useEffect(() => {
-    const el = svgRef.current;
+    const el = frameRef.current;
     if (!el || printMode) return;
-    const onWheel = (e: WheelEvent) => {
-      e.preventDefault();
-      const rect = rectOf(el);
-      const k = wheelZoomFactor(e.deltaY, e.deltaMode);
-      applyView((v) => zoomAt(v, clientToView(v, rect, e.clientX, e.clientY), k, limits));
-    };
-    el.addEventListener('wheel', onWheel, { passive: false });
-    return () => el.removeEventListener('wheel', onWheel);
-  }, [applyView, limits, printMode]);
+    const listener = (e: WheelEvent) => wheelRef.current(e);
+    el.addEventListener('wheel', listener, { passive: false });
+    return () => el.removeEventListener('wheel', listener);
+  }, [printMode]);
 
-  const onKeyDown = (e: KeyboardEvent<SVGSVGElement>) => {
-    if (e.altKey || e.ctrlKey || e.metaKey) return;
+  const onKeyDown = (e: KeyboardEvent<HTMLDivElement>) => {
+    if (e.altKey || e.ctrlKey || e.metaKey || e.target !== svgRef.current) return;
     const step = e.shiftKey ? 0.5 : 0.1;
     const v = viewRef.current;
     switch (e.key) {
       case '+':
       case '=':
-        applyView((w) => zoomAtCenter(w, KEY_ZOOM, limits));
+        moveView((w) => zoomAtCenter(w, KEY_ZOOM, limits));
         break;
       case '-':
       case '_':
-        applyView((w) => zoomAtCenter(w, 1 / KEY_ZOOM, limits));
+        moveView((w) => zoomAtCenter(w, 1 / KEY_ZOOM, limits));
         break;
       // Arrows move the view the way they point: Up shows more of +Y (view y runs down).
       case 'ArrowLeft':
-        applyView((w) => panBy(w, -v.w * step, 0));
+        moveView((w) => panBy(w, -v.w * step, 0));
         break;
       case 'ArrowRight':
-        applyView((w) => panBy(w, v.w * step, 0));
+        moveView((w) => panBy(w, v.w * step, 0));
         break;
       case 'ArrowUp':
-        applyView((w) => panBy(w, 0, -v.h * step));
+        moveView((w) => panBy(w, 0, -v.h * step));
         break;
       case 'ArrowDown':
-        applyView((w) => panBy(w, 0, v.h * step));
+        moveView((w) => panBy(w, 0, v.h * step));
         break;
       case '0':
       case 'Home':
@@ -396,10 +501,19 @@ export function PlateDrawing(props: PlateDrawingProps) {
   const hintId = `${uid}-hint`;
 
   return (
-    <figure className={`flex flex-col gap-2 ${className}`}>
+    <div className={`flex flex-col gap-2 ${className}`}>
       {overlay && changes ? <ComparisonLegend changes={changes} olderLabel={overlay.label ?? 'older version'} newerLabel={label ?? 'this version'} printMode={printMode} /> : null}
-      <div className={`overflow-hidden rounded border ${printMode ? 'border-black bg-white' : 'border-slate-300 bg-white'}`}
-        style={printMode ? { breakInside: 'avoid' } : { height }}>
+      <div
+        ref={frameRef}
+        className={`relative overflow-hidden rounded border ${printMode ? 'border-black bg-white' : 'touch-none cursor-grab border-slate-300 bg-white'}`}
+        style={printMode ? { breakInside: 'avoid' } : { height }}
+        onPointerDown={onPointerDown}
+        onPointerMove={onPointerMove}
+        onPointerUp={(e) => endPointer(e, false)}
+        onPointerCancel={(e) => endPointer(e, true)}
+        onPointerLeave={onPointerLeave}
+        onKeyDown={printMode ? undefined : onKeyDown}
+      >
         <svg
           ref={svgRef}
           viewBox={viewBoxAttr(view)}
@@ -408,15 +522,11 @@ export function PlateDrawing(props: PlateDrawingProps) {
           aria-label={ariaLabel}
           aria-describedby={printMode ? undefined : hintId}
           tabIndex={printMode ? undefined : 0}
-          onPointerDown={onPointerDown}
-          onPointerMove={onPointerMove}
-          onPointerUp={(e) => endPointer(e, false)}
-          onPointerCancel={(e) => endPointer(e, true)}
-          onPointerLeave={onPointerLeave}
-          onKeyDown={printMode ? undefined : onKeyDown}
           // No transitions anywhere: zoom and fit jump, which also honors prefers-reduced-motion.
-          className={`block w-full select-none ${printMode ? 'h-auto' : 'h-full touch-none cursor-grab rounded focus-visible:outline-3 focus-visible:outline-offset-2 focus-visible:outline-accent-600'}`}
-          style={printMode ? { aspectRatio: `${fit.w} / ${fit.h}`, maxHeight: '9in' } : undefined}
+          // The focus ring is drawn inside the edge because the frame clips what lies outside it.
+          className={`block w-full select-none ${printMode ? 'h-auto' : 'h-full touch-none rounded focus-visible:outline-3 focus-visible:-outline-offset-3 focus-visible:outline-accent-600'}`}
+          // A heavy drawing keeps its own compositor layer, so a preview transform never re-rasterizes it.
+          style={printMode ? { aspectRatio: `${fit.w} / ${fit.h}`, maxHeight: '9in' } : heavy ? { transformOrigin: '0 0', willChange: 'transform' } : { transformOrigin: '0 0' }}
         >
           <g transform="scale(1 -1)">
             <PlateLayer pitch={plate.pitch} columns={plate.columns} rows={plate.rows} holeRadius={plate.holeRadius}
@@ -432,21 +542,28 @@ export function PlateDrawing(props: PlateDrawingProps) {
             <OffsetSymbol x={stationScene.origin.x} y={stationScene.origin.y} arm={sizes.arm} ink={ink} />
             {onHoleClick && !printMode ? <HoleHover handle={hover} pitch={plate.pitch} r={plate.holeRadius} ink={ink} /> : null}
           </g>
-          <CodeLabels placements={plate.placements} ink={ink} detail={detail} />
+          <CodeLabels placements={plate.placements} ink={ink} detail={detail} cull={labelCull} />
           <SelectedLabel placement={selected} ink={ink} />
-          <StationTags stations={stationScene.stations} ink={ink} tag={sizes.tag} cross={sizes.cross} detail={detail} />
+          <StationTags stations={stationScene.stations} ink={ink} tag={sizes.tag} cross={sizes.cross} detail={detail} cull={stationCull} />
           <DatumLabel holeRadius={plate.holeRadius} px={px} ink={ink} />
           <OffsetLabels origin={stationScene.origin} arm={sizes.arm} name={stationScene.offsetName} px={px} ink={ink} />
-          <FaultLabels faults={faulty} px={px} ink={ink} />
+          <FaultLabels faults={faultWordsHidden ? NO_FAULTS : faultsInView} px={px} ink={ink} />
         </svg>
+        {faultWordsHidden ? (
+          // Over the drawing, not above it: appearing and going as the zoom changes must not move the drawing.
+          <p className={`pointer-events-none absolute left-2 top-2 flex items-center gap-2 rounded border bg-white/95 px-2 py-1 text-sm font-semibold ${printMode ? 'border-black text-black' : 'border-danger-700 text-danger-700'}`}>
+            <AlertOctagon aria-hidden className="h-4 w-4 shrink-0" />
+            {`problem: ${faultsInView.length} placements in view are at fault (dashed outlines); zoom in to read which and why.`}
+          </p>
+        ) : null}
       </div>
       {printMode ? null : (
-        <figcaption className="flex flex-wrap items-center gap-x-4 gap-y-2">
+        <div className="flex flex-wrap items-center gap-x-4 gap-y-2">
           <div className="flex gap-2">
-            <Button variant="secondary" onClick={() => applyView((v) => zoomAtCenter(v, 1 / KEY_ZOOM, limits))}>
+            <Button variant="secondary" onClick={() => moveView((v) => zoomAtCenter(v, 1 / KEY_ZOOM, limits))}>
               <ZoomOut aria-hidden className="h-4 w-4" />Zoom out
             </Button>
-            <Button variant="secondary" onClick={() => applyView((v) => zoomAtCenter(v, KEY_ZOOM, limits))}>
+            <Button variant="secondary" onClick={() => moveView((v) => zoomAtCenter(v, KEY_ZOOM, limits))}>
               <ZoomIn aria-hidden className="h-4 w-4" />Zoom in
             </Button>
             <Button variant="secondary" onClick={fitNow} title="Fit the plate in the drawing (key 0)">
@@ -458,9 +575,9 @@ export function PlateDrawing(props: PlateDrawingProps) {
             Drag to pan; wheel or pinch to zoom. With the drawing focused: + and − zoom, arrow keys pan, 0 fits the plate
             {onSelectPlacement ? ', Escape clears the selection' : ''}.
           </p>
-        </figcaption>
+        </div>
       )}
-    </figure>
+    </div>
   );
 }
 
