@@ -1,0 +1,21 @@
+import { useMutation } from '@tanstack/react-query';
+import { StockCheckRequestSchema, StockCheckResponseSchema, type StockCheckRequestInput } from '../../../shared/schemas/stock-check';
+import { api } from '../../lib/api-client';
+
+export const stockCheckKeys = {
+  all: ['stock-check'] as const,
+  run: () => [...stockCheckKeys.all, 'run'] as const,
+};
+
+/**
+ * The request goes through the shared schema before it leaves (the same one the route uses), and
+ * the answer is parsed on the way back. A stock check writes nothing and caches nothing, so it is a
+ * mutation; it is never retried — a 4xx repeats itself, and the operator presses the button again.
+ */
+export function postStockCheck(input: StockCheckRequestInput) {
+  return api.post('/api/stock-check', StockCheckRequestSchema.parse(input), StockCheckResponseSchema);
+}
+
+export function useStockCheck() {
+  return useMutation({ mutationKey: stockCheckKeys.run(), mutationFn: postStockCheck, retry: false });
+}
