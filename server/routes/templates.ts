@@ -7,6 +7,9 @@ import { currentUser } from '../middleware/auth';
 import type { TemplatesService } from '../services/templates';
 import { offsetsNc, stationsCsv, stationsXlsx } from '../services/station-files';
 import { parseTemplateFile } from '../services/template-import';
+import { templateDrawing } from '../services/template-drawing';
+import { writeDrawingDxf } from '../dxf/write-dxf';
+import { drawingToSvg } from '../dxf/drawing-svg';
 import { parseOr400 } from './parse';
 import type { RouteDef } from './route-table';
 
@@ -76,6 +79,16 @@ export function templateRoutes(templates: TemplatesService): RouteDef[] {
       const { name, unit, plate, components, placements, sharedOffset, numbering } = v;
       const file = toTemplateFile({ name, unit, plate, components, placements, sharedOffset, numbering }, v.stations, { contentHash: v.contentHash, version: v.version, state: v.state });
       res.attachment(fileName(v.name, v.version, 'template.json')).type('application/json').send(JSON.stringify(file, null, 2));
+    } },
+    { method: 'get', path: '/templates/:id/versions/:n/drawing.dxf', access: 'signed-in', handler: async (req, res) => {
+      const v = await load(req.params);
+      const dxf = writeDrawingDxf(templateDrawing(v, templates.evaluation(v)));
+      res.type('application/dxf').attachment(fileName(v.name, v.version, 'drawing.dxf')).send(dxf);
+    } },
+    { method: 'get', path: '/templates/:id/versions/:n/drawing.svg', access: 'signed-in', handler: async (req, res) => {
+      const v = await load(req.params);
+      const svg = drawingToSvg(templateDrawing(v, templates.evaluation(v)), { title: `${v.name} v${v.version} — origin at the shared offset`, background: '#ffffff' });
+      res.type('image/svg+xml').send(svg);
     } },
     { method: 'get', path: '/templates/:id/versions/:n/offsets.nc', access: 'signed-in', handler: async (req, res) => {
       const v = await load(req.params);

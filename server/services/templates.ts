@@ -110,6 +110,11 @@ export function templatesService(deps: { db: Db; templates: TemplatesRepo; catal
 
   return {
     present,
+    /** Stations and origin of a presented version (from the cache by its content hash). */
+    evaluation(v: TemplateVersion): TemplateEvaluation {
+      const hit = evaluations.get(v.contentHash);
+      return hit ?? evaluateTemplate(v);
+    },
     async list(): Promise<{ items: TemplateSummary[]; total: number }> {
       const rows = await templates.list();
       const items = rows.map(({ t, versions }) => ({
