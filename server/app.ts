@@ -24,12 +24,22 @@ import { stockCheckRoutes } from './routes/stock-check';
 import { namingRoutes } from './routes/naming';
 import { reviewRoutes } from './routes/reviews';
 import { auditRoutes } from './routes/audit';
+import { jobRoutes } from './routes/jobs';
+import { dxfRoutes } from './routes/dxf';
+import { jobsRepo } from './db/jobs-repo';
+import { jobsService } from './services/jobs';
 import { auditRepo } from './db/audit-repo';
-import { reviewsService, type MailSender } from './services/reviews';
+import { reviewsService } from './services/reviews';
 import { namingRepo } from './db/naming-repo';
 import { namingService } from './services/naming';
 import { templatesRepo } from './db/templates-repo';
 import { templatesService } from './services/templates';
+import { createMailer, type Mailer } from './mail/mailer';
+import { outboxRepo } from './db/outbox-repo';
+import { userTokensRepo } from './db/user-tokens-repo';
+import { accountLinksService } from './services/account-links';
+import { accountLinkRoutes } from './routes/account-links';
+import { outboxRoutes } from './routes/outbox';
 
 export interface AppDeps {
   db: Db;
@@ -38,26 +48,33 @@ export interface AppDeps {
   /** Built client (vite build output); served with a single-page fallback when present. */
   clientDir?: string;
   uploadLimitBytes?: number;
-  /** Sends review notices; none are sent when absent. */
-  mailer?: MailSender;
+  /** Sends every mail (invitations, password resets, review notices); by default the local outbox in dataDir. */
+  mailer?: Mailer;
   /** The address links in mails point at. */
   publicUrl?: string;
   /** Where unexpected errors are logged; tests pass a collector. */
   log?: (err: unknown) => void;
 }
 
-export type GridsetApp = express.Express & { locals: { routes: RouteDef[] } };
+export type GridsetApp = express.Express & {
+  /** whenIdle resolves once mails sent after an answer (password resets) are out: for tests and shutdown. */
+  locals: { routes: RouteDef[]; whenIdle: () => Promise<void> };
+};
 
 /** Builds the whole app from its dependencies; never listens (server/index.ts does). */
 export function createApp(deps: AppDeps): GridsetApp {
   const { db } = deps;
   const naming = namingService(namingRepo(db));
   const userRows = usersRepo(db);
-  const users = usersService(userRows);
+  const userTokens = userTokensRepo(db);
+  const users = usersService(userRows, userTokens);
+  const mailer = deps.mailer ?? createMailer({ db, dataDir: deps.dataDir });
+  const accountLinks = accountLinksService({ db, users: userRows, tokens: userTokens, mailer, publicUrl: deps.publicUrl ?? 'http://localhost:3000', log: deps.log ?? console.error });
   const audit = auditRepo(db);
   const catalog = catalogService(catalogRepo(db), naming, audit);
   const templates = templatesService({ db, templates: templatesRepo(db), catalog: catalogRepo(db), naming, audit });
-  const reviews = reviewsService({ db, templates, templatesRepo: templatesRepo(db), users: userRows, naming, audit, mailer: deps.mailer, publicUrl: deps.publicUrl ?? 'http://localhost:3000' });
+  const jobs = jobsService({ db, jobs: jobsRepo(db), templates, audit });
+  const reviews = reviewsService({ db, templates, templatesRepo: templatesRepo(db), users: userRows, naming, audit, mailer, publicUrl: deps.publicUrl ?? 'http://localhost:3000' });
   const settings = settingsRepo(db);
 
   const app = express() as GridsetApp;
@@ -109,6 +126,8 @@ export function createApp(deps: AppDeps): GridsetApp {
     } },
     ...authRoutes({ users, passport, csrfToken: (req, overwrite) => generateToken(req, overwrite) }),
     ...userRoutes(users),
+    ...accountLinkRoutes(accountLinks),
+    ...outboxRoutes(outboxRepo(db)),
     ...catalogRoutes(catalog),
     ...settingsRoutes(settings),
     ...templateRoutes(templates),
@@ -116,12 +135,15 @@ export function createApp(deps: AppDeps): GridsetApp {
     ...namingRoutes(naming),
     ...reviewRoutes(reviews),
     ...auditRoutes(audit),
+    ...jobRoutes(jobs),
+    ...dxfRoutes({ dataDir: deps.dataDir, uploadLimitBytes: deps.uploadLimitBytes ?? 20 * 1024 * 1024, catalog, jobs, naming }),
   ];
   mount(api, routes);
   api.use(apiNotFound);
   api.use(errorHandler(deps.log));
   app.use('/api', api);
   app.locals.routes = routes;
+  app.locals.whenIdle = () => accountLinks.whenIdle();
 
   if (deps.clientDir && existsSync(path.join(deps.clientDir, 'index.html'))) {
     const clientDir = deps.clientDir;

@@ -8,7 +8,10 @@ export interface Config {
   databaseFile: string;
   sessionSecret: string;
   uploadLimitBytes: number;
+  /** smtp:// or smtps:// URL of the server that delivers mail; without it mail stays in the local outbox. */
   smtpUrl: string | undefined;
+  /** The From of every mail (GRIDSET_MAIL_FROM). */
+  mailFrom: string | undefined;
   publicUrl: string;
 }
 
@@ -27,6 +30,7 @@ export function readConfig(env: NodeJS.ProcessEnv = process.env): Config {
     sessionSecret: env.SESSION_SECRET || loadOrCreateSecret(dataDir),
     uploadLimitBytes: Math.round(uploadMb * 1024 * 1024),
     smtpUrl: env.SMTP_URL || undefined,
+    mailFrom: env.GRIDSET_MAIL_FROM || undefined,
     publicUrl: env.GRIDSET_PUBLIC_URL ?? `http://localhost:${port}`,
   };
 }

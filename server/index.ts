@@ -4,6 +4,7 @@ import { readConfig } from './config';
 import { openDb, migrate } from './db/knex';
 import { seedDemoDataIfEmpty } from './db/seed-demo';
 import { createApp } from './app';
+import { createMailer } from './mail/mailer';
 
 const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..');
 
@@ -19,11 +20,15 @@ async function main() {
     dataDir: config.dataDir,
     clientDir: path.join(root, 'dist'),
     uploadLimitBytes: config.uploadLimitBytes,
+    mailer: createMailer({ db, dataDir: config.dataDir, smtpUrl: config.smtpUrl, from: config.mailFrom }),
+    publicUrl: config.publicUrl,
   });
   const server = app.listen(config.port, () => {
     console.log(`Gridset is serving http://localhost:${config.port} (data in ${config.dataDir})`);
+    console.log(config.smtpUrl ? 'Mail goes out by SMTP (SMTP_URL).' : `Mail stays in the local outbox (${path.join(config.dataDir, 'outbox')}); admins read it under Outbox.`);
   });
-  const stop = () => server.close(() => db.destroy().then(() => process.exit(0)));
+  // Mails still being sent after their answer (password resets) finish before the database closes.
+  const stop = () => server.close(() => app.locals.whenIdle().then(() => db.destroy()).then(() => process.exit(0)));
   process.on('SIGINT', stop);
   process.on('SIGTERM', stop);
 }

@@ -1,3 +1,2 @@
 declare module 'dxf';
 declare module 'gcode-parser';
-declare module 'dxf-writer';

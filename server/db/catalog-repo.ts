@@ -26,6 +26,7 @@ const COMPONENT_JSON = `json_object(
   'id', c.id, 'code', c.code, 'kind', c.kind, 'name', c.name, 'unit', c.unit,
   'dowels', json(c.dowels), 'stops', json(c.stops), 'jawFaces', json(c.jaw_faces),
   'clamp', json(c.clamp), 'outline', json(c.outline), 'layer', c.layer, 'notes', c.notes,
+  'outlineFile', json(c.outline_file),
   'usedBy', coalesce(u.n, 0), 'createdAt', c.created_at, 'updatedAt', c.updated_at)`;
 const componentToRow = (c: ComponentFields) => ({
   code: c.code, kind: c.kind, name: c.name, unit: c.unit,
@@ -120,6 +121,9 @@ export function catalogRepo(db: Db) {
     },
     async updateComponent(id: number, c: ComponentFields) {
       await db('components').where({ id }).update({ ...componentToRow(c), updated_at: db.fn.now() });
+    },
+    async setOutline(id: number, outline: unknown, file: unknown) {
+      await db('components').where({ id }).update({ outline: JSON.stringify(outline), outline_file: JSON.stringify(file), updated_at: db.fn.now() });
     },
     deleteComponent: (id: number) => db('components').where({ id }).delete(),
   };

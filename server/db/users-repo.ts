@@ -20,6 +20,7 @@ const toUser = (r: UserRow): User => ({
   role: r.role,
   active: !!r.active,
   displayUnit: r.display_unit ?? null,
+  invited: r.password_hash === null,
   createdAt: String(r.created_at),
 });
 
@@ -43,13 +44,13 @@ export function usersRepo(db: Db) {
     async list(): Promise<User[]> {
       return (await db<UserRow>('users').orderBy('email')).map(toUser);
     },
-    async insert(u: { email: string; name: string; role: Role; passwordHash: string | null }, trx: Db = db): Promise<User> {
+    async insert(u: { email: string; name: string; role: Role; passwordHash: string | null; active?: boolean }, trx: Db = db): Promise<User> {
       const [row] = await trx<UserRow>('users')
-        .insert({ email: u.email, name: u.name, role: u.role, password_hash: u.passwordHash })
+        .insert({ email: u.email, name: u.name, role: u.role, password_hash: u.passwordHash, active: u.active ?? true })
         .returning('*');
       return toUser(row as UserRow);
     },
-    async update(id: number, patch: { name?: string; role?: Role; active?: boolean; displayUnit?: Unit | null; passwordHash?: string }): Promise<User | undefined> {
+    async update(id: number, patch: { name?: string; role?: Role; active?: boolean; displayUnit?: Unit | null; passwordHash?: string }, trx: Db = db): Promise<User | undefined> {
       const row: Partial<UserRow> & { updated_at: unknown } = { updated_at: db.fn.now() };
       if (patch.name !== undefined) row.name = patch.name;
       if (patch.role !== undefined) row.role = patch.role;
@@ -57,8 +58,17 @@ export function usersRepo(db: Db) {
       if (patch.displayUnit !== undefined) row.display_unit = patch.displayUnit;
       if (patch.passwordHash !== undefined) row.password_hash = patch.passwordHash;
       byId.delete(id);
-      await db('users').where({ id }).update(row);
-      return this.findById(id);
+      await trx('users').where({ id }).update(row);
+      if (trx === db) return this.findById(id);
+      // Inside a transaction: read through it (the one connection is taken) and cache nothing
+      // that a rollback could take back.
+      const fresh = await trx<UserRow>('users').where({ id }).first();
+      return fresh && toUser(fresh);
+    },
+    /** Deletes a user who never signed in (an invitation that could not be mailed). */
+    async remove(id: number): Promise<void> {
+      byId.delete(id);
+      await db('users').where({ id }).del();
     },
     async countActiveAdmins(): Promise<number> {
       const r = await db('users').where({ role: 'admin', active: true }).count<{ n: number }[]>({ n: '*' });

@@ -64,8 +64,21 @@ function element(name: string, attributes: Record<string, string>, children: INo
   return { name, type: 'element', value: '', attributes, children };
 }
 
-function textNode(value: string): INode {
-  return { name: '', type: 'text', value, attributes: {}, children: [] };
+/**
+ * Text content as svgson text nodes. svgson 5.3.1 wraps text holding & < or > in CDATA but splits
+ * only the first "]]>" inside it (a non-global replace), so a second "]]>" would end the CDATA
+ * section and let the rest be read as markup. Cutting the text between "]]" and ">" leaves no
+ * node with "]]>" in it, and the nodes written one after another read back as the same text.
+ */
+function textNodes(value: string): INode[] {
+  const parts = value.split(']]>');
+  return parts.map((part, i) => ({
+    name: '',
+    type: 'text',
+    value: `${i > 0 ? '>' : ''}${part}${i < parts.length - 1 ? ']]' : ''}`,
+    attributes: {},
+    children: [],
+  }));
 }
 
 /** Extents of everything in the drawing; texts are boxed roughly (0.6 × height per character). */
@@ -204,12 +217,12 @@ export function drawingToSvg(drawing: Drawing, options: DrawingSvgOptions = {}):
   }
   for (const t of drawing.texts) {
     into(t.layer).push(
-      element('text', { x: X(t.x), y: Y(t.y), 'font-size': f(t.height), stroke: 'none', fill: 'currentColor' }, [textNode(t.text)]),
+      element('text', { x: X(t.x), y: Y(t.y), 'font-size': f(t.height), stroke: 'none', fill: 'currentColor' }, textNodes(t.text)),
     );
   }
 
   const children: INode[] = [];
-  if (options.title) children.push(element('title', {}, [textNode(options.title)]));
+  if (options.title) children.push(element('title', {}, textNodes(options.title)));
   if (options.background) {
     children.push(element('rect', { x: f(minX - margin), y: f(-(minY + h) - margin), width: f(vbW), height: f(vbH), fill: options.background, stroke: 'none' }));
   }

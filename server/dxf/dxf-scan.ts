@@ -78,6 +78,8 @@ export interface DxfScan {
   sections: string[];
   /** Lines up to and including the EOF value. */
   lines: number;
+  /** Whether the text holds any carriage return (then lines may end in \r\n or \r). */
+  hasCR: boolean;
 }
 
 const CR = 13;
@@ -117,8 +119,8 @@ function quote(s: string): string {
 export function scanDxf(text: string, maxEntities: number): DxfScan {
   const len = text.length;
   // dxf-parser splits lines on \r\n, \r and \n; follow the same rule so pair counts agree.
-  const hasCR = text.indexOf('\r') !== -1;
-  let nextCR = hasCR ? text.indexOf('\r') : -1;
+  let nextCR = text.indexOf('\r');
+  const hasCR = nextCR !== -1;
 
   // Line bookkeeping stays in plain locals (no closure touches them): this loop visits every line.
   let pos = 0;
@@ -276,6 +278,8 @@ export function scanDxf(text: string, maxEntities: number): DxfScan {
 
     if (code === 0) {
       const value = text.slice(valueStart, valueEnd).trim();
+      // Messages name the line that holds the keyword (SECTION, LINE, …), as an editor shows it.
+      const valueLine = codeLine + 1;
       if (awaitSectionName) {
         throw new DxfError('malformed', `The SECTION at line ${sectionLine} has no name (group 2).`, { line: sectionLine });
       }
@@ -292,7 +296,7 @@ export function scanDxf(text: string, maxEntities: number): DxfScan {
         }
         throw new DxfError(
           'malformed',
-          `The POLYLINE at line ${polylineOpen} is not closed by SEQEND: line ${codeLine} starts ${value || 'an unnamed group'} instead.`,
+          `The POLYLINE at line ${polylineOpen} is not closed by SEQEND: line ${valueLine} starts ${value || 'an unnamed group'} instead.`,
           { line: polylineOpen },
         );
       }
@@ -309,18 +313,18 @@ export function scanDxf(text: string, maxEntities: number): DxfScan {
         if (section !== null) {
           throw new DxfError(
             'truncated',
-            `The ${section || 'unnamed'} section that starts at line ${sectionLine} is not closed by ENDSEC before the next SECTION at line ${codeLine}.`,
+            `The ${section || 'unnamed'} section that starts at line ${sectionLine} is not closed by ENDSEC before the next SECTION at line ${valueLine}.`,
             { line: sectionLine },
           );
         }
         section = '';
-        sectionLine = codeLine;
+        sectionLine = valueLine;
         awaitSectionName = true;
         continue;
       }
       if (value === 'ENDSEC') {
         if (section === null) {
-          throw new DxfError('malformed', `Line ${codeLine} closes a section (ENDSEC) that was never opened.`, { line: codeLine });
+          throw new DxfError('malformed', `Line ${valueLine} closes a section (ENDSEC) that was never opened.`, { line: valueLine });
         }
         if (table !== null) {
           throw new DxfError('truncated', `The ${table} table that starts at line ${tableLine} is not closed by ENDTAB.`, { line: tableLine });
@@ -349,22 +353,22 @@ export function scanDxf(text: string, maxEntities: number): DxfScan {
       }
 
       if (section === 'ENTITIES') {
-        startEntity(value, codeLine, codeStart);
+        startEntity(value, valueLine, codeStart);
       } else if (section === 'BLOCKS') {
         if (value === 'BLOCK') {
           if (block !== null) {
             throw new DxfError(
               'truncated',
-              `Block "${block.block ?? ''}" that starts at line ${block.line} is not closed by ENDBLK before the next BLOCK at line ${codeLine}.`,
+              `Block "${block.block ?? ''}" that starts at line ${block.line} is not closed by ENDBLK before the next BLOCK at line ${valueLine}.`,
               { line: block.line, block: block.block ?? undefined },
             );
           }
-          block = newContainer('', codeLine);
+          block = newContainer('', valueLine);
           container = block;
           inBlockHeader = true;
         } else if (value === 'ENDBLK') {
           if (block === null) {
-            throw new DxfError('malformed', `Line ${codeLine} ends a block (ENDBLK) that was never begun.`, { line: codeLine });
+            throw new DxfError('malformed', `Line ${valueLine} ends a block (ENDBLK) that was never begun.`, { line: valueLine });
           }
           if (block.block) blocks.set(block.block, block); // dxf-parser too keeps the last of a name
           block = null;
@@ -372,27 +376,27 @@ export function scanDxf(text: string, maxEntities: number): DxfScan {
           inBlockHeader = false;
         } else if (block !== null) {
           inBlockHeader = false;
-          startEntity(value, codeLine, codeStart);
+          startEntity(value, valueLine, codeStart);
         }
       } else if (section === 'TABLES') {
         if (value === 'TABLE') {
           if (table !== null) {
             throw new DxfError(
               'truncated',
-              `The ${table} table that starts at line ${tableLine} is not closed by ENDTAB before the next TABLE at line ${codeLine}.`,
+              `The ${table} table that starts at line ${tableLine} is not closed by ENDTAB before the next TABLE at line ${valueLine}.`,
               { line: tableLine },
             );
           }
           table = '';
-          tableLine = codeLine;
+          tableLine = valueLine;
           awaitTableName = true;
         } else if (value === 'ENDTAB') {
           table = null;
         } else if ((table === 'LAYER' || table === 'VPORT') && value !== table) {
           throw new DxfError(
             'malformed',
-            `The ${table} table that starts at line ${tableLine} holds a ${value || 'nameless'} record at line ${codeLine}; it may hold only ${table} records.`,
-            { line: codeLine },
+            `The ${table} table that starts at line ${tableLine} holds a ${value || 'nameless'} record at line ${valueLine}; it may hold only ${table} records.`,
+            { line: valueLine },
           );
         }
       }
@@ -407,7 +411,7 @@ export function scanDxf(text: string, maxEntities: number): DxfScan {
       sections.push(section);
       awaitSectionName = false;
       if (section === 'ENTITIES') {
-        entitiesScan = newContainer(null, codeLine);
+        entitiesScan = newContainer(null, codeLine + 1);
         container = entitiesScan;
       }
       continue;
@@ -466,7 +470,7 @@ export function scanDxf(text: string, maxEntities: number): DxfScan {
     );
   }
 
-  return { entities: entitiesScan, blocks, sections, lines: lineNo };
+  return { entities: entitiesScan, blocks, sections, lines: lineNo, hasCR };
 }
 
 /** A group code and its raw value line, for re-reading one entity. */
@@ -477,9 +481,11 @@ export interface RawGroup {
 
 /**
  * The groups of the entity that starts at `offset` (its "0" group included), up to the next
- * "0" group. Used for the few entities dxf-parser reads incompletely.
+ * "0" group. Used for the few entities dxf-parser reads incompletely. `hasCR` (from the scan)
+ * says whether to look for carriage returns at all: looking for one in a file without any
+ * would run to the end of the text for every line.
  */
-export function readEntityGroups(text: string, offset: number): RawGroup[] {
+export function readEntityGroups(text: string, offset: number, hasCR: boolean): RawGroup[] {
   const groups: RawGroup[] = [];
   let pos = offset;
   const len = text.length;
@@ -487,8 +493,10 @@ export function readEntityGroups(text: string, offset: number): RawGroup[] {
     if (pos >= len) return null;
     let end = text.indexOf('\n', pos);
     if (end === -1) end = len;
-    const cr = text.indexOf('\r', pos);
-    if (cr !== -1 && cr < end) end = cr;
+    if (hasCR) {
+      const cr = text.indexOf('\r', pos);
+      if (cr !== -1 && cr < end) end = cr;
+    }
     const line = text.slice(pos, end);
     pos = text.charCodeAt(end) === CR && text.charCodeAt(end + 1) === LF ? end + 2 : end + 1;
     return line;

@@ -244,28 +244,31 @@ function ocsMap(nx: number, ny: number, nz: number, elevation: number): Xform | 
   return new Xform(ax, ay, bx, by, z * nx, z * ny);
 }
 
+const unicodeEscape = (_: string, hex: string): string => String.fromCharCode(Number.parseInt(hex, 16));
+
+const controlCode = (_: string, c: string): string => {
+  switch (c.toLowerCase()) {
+    case 'c':
+      return 'Ø';
+    case 'd':
+      return '°';
+    case 'p':
+      return '±';
+    case '%':
+      return '%';
+    case 'u':
+    case 'o':
+    case 'k':
+      return '';
+    default:
+      return String.fromCharCode(Number(c));
+  }
+};
+
 /** TEXT control codes (DXF Reference, TEXT: %%c, %%d, %%p, %%nnn) and \U+XXXX to characters. */
 function textValue(raw: string): string {
-  return raw
-    .replace(/\\U\+([0-9A-Fa-f]{4})/g, (_, h: string) => String.fromCharCode(Number.parseInt(h, 16)))
-    .replace(/%%(\d{3}|[cCdDpPuUoOkK%])/g, (_, c: string) => {
-      switch (c.toLowerCase()) {
-        case 'c':
-          return 'Ø';
-        case 'd':
-          return '°';
-        case 'p':
-          return '±';
-        case '%':
-          return '%';
-        case 'u':
-        case 'o':
-        case 'k':
-          return '';
-        default:
-          return String.fromCharCode(Number(c));
-      }
-    });
+  if (raw.indexOf('%%') === -1 && raw.indexOf('\\U+') === -1) return raw;
+  return raw.replace(/\\U\+([0-9A-Fa-f]{4})/g, unicodeEscape).replace(/%%(\d{3}|[cCdDpPuUoOkK%])/g, controlCode);
 }
 
 /** MTEXT with its inline formatting (DXF Reference, MTEXT "Inline codes") removed. */
@@ -284,9 +287,13 @@ function hasOwn(o: object | undefined, key: string): boolean {
   return o !== undefined && Object.prototype.hasOwnProperty.call(o, key);
 }
 
+function count(v: number | undefined): number {
+  return Number.isFinite(v) && (v as number) >= 1 ? Math.floor(v as number) : 1;
+}
+
+/** Columns and rows of a MINSERT array (INSERT groups 70 and 71), 1 × 1 for a plain INSERT. */
 function arrayCount(e: IInsertEntity): [number, number] {
-  const n = (v: number | undefined): number => (Number.isFinite(v) && (v as number) >= 1 ? Math.floor(v as number) : 1);
-  return [n(e.columnCount), n(e.rowCount)];
+  return [count(e.columnCount), count(e.rowCount)];
 }
 
 function tooMany(max: number): DxfError {
@@ -393,7 +400,9 @@ class Reader {
   readonly notes: DxfNote[] = [];
   readonly points: DxfPoint[] = [];
   readonly ext = new Extents();
-  readonly layers = new Map<string, number>();
+  readonly layers = new Map<string, { n: number }>();
+  private lastLayer = '';
+  private lastCounter = { n: 0 };
   readonly unsupported = new Map<string, number>();
   private readonly approx = new Map<string, { type: string; layer: string; how: string; count: number }>();
   private readonly warned = new Map<string, number>();
@@ -422,7 +431,17 @@ class Reader {
   }
 
   private counted(layer: string): void {
-    this.layers.set(layer, (this.layers.get(layer) ?? 0) + 1);
+    // Entities come in runs on one layer: skip the map lookup for a run.
+    if (layer !== this.lastLayer || this.layers.size === 0) {
+      let c = this.layers.get(layer);
+      if (!c) {
+        c = { n: 0 };
+        this.layers.set(layer, c);
+      }
+      this.lastLayer = layer;
+      this.lastCounter = c;
+    }
+    this.lastCounter.n++;
   }
 
   private bad(): never {
@@ -506,26 +525,28 @@ class Reader {
     }
   }
 
-  private extrusion(offset: number | undefined, fallback?: { x?: number; y?: number; z?: number }): [number, number, number] {
-    if (offset !== undefined) {
-      let x = 0;
-      let y = 0;
-      let z = 1;
-      for (const g of readEntityGroups(this.text, offset)) {
-        if (g.code === 210) x = Number(g.value);
-        else if (g.code === 220) y = Number(g.value);
-        else if (g.code === 230) z = Number(g.value);
-      }
-      return [x, y, z];
+  /** Extrusion direction re-read from the text (the scan flags every non-default one dxf-parser drops). */
+  private extrusion(offset: number): [number, number, number] {
+    let x = 0;
+    let y = 0;
+    let z = 1;
+    for (const g of readEntityGroups(this.text, offset, this.scan.hasCR)) {
+      if (g.code === 210) x = Number(g.value);
+      else if (g.code === 220) y = Number(g.value);
+      else if (g.code === 230) z = Number(g.value);
     }
-    return [fallback?.x ?? 0, fallback?.y ?? 0, fallback?.z ?? 1];
+    return [x, y, z];
   }
 
-  /** m ∘ OCS map of the entity, noting a tilted extrusion. */
-  private inOcs(m: Xform, n: [number, number, number], elevation: number): Xform {
-    const o = ocsMap(n[0], n[1], n[2], elevation);
+  /**
+   * m ∘ OCS map of an entity with extrusion (x, y, z), noting a tilted one; m itself for the
+   * default (0, 0, 1) or a missing direction.
+   */
+  private inOcs(m: Xform, x: number | undefined, y: number | undefined, z: number | undefined, elevation: number): Xform {
+    if ((x === undefined || x === 0) && (y === undefined || y === 0) && (z === undefined || z === 1)) return m;
+    const o = ocsMap(Number.isFinite(x) ? x! : 0, Number.isFinite(y) ? y! : 0, Number.isFinite(z) ? z! : 1, elevation);
     if (o === null) return m;
-    if (Math.abs(n[0]) > 1e-12 || Math.abs(n[1]) > 1e-12) {
+    if (Math.abs(x ?? 0) > 1e-12 || Math.abs(y ?? 0) > 1e-12) {
       this.warn('Some entities lie in tilted planes (extrusion direction not along Z); they were projected onto the XY plane.');
     }
     return m.kind === 0 ? o : m.then(o);
@@ -547,8 +568,8 @@ class Reader {
 
   private lwpolyline(e: ILwpolylineEntity, m: Xform, layer: string, offset: number | undefined): void {
     if (offset === undefined) {
-      const n = ocsMapArgs(e.extrusionDirectionX, e.extrusionDirectionY, e.extrusionDirectionZ);
-      this.polyline(e.vertices, !!e.shape, this.inOcs(m, n, e.elevation ?? 0), layer, 'LWPOLYLINE');
+      const mm = this.inOcs(m, e.extrusionDirectionX, e.extrusionDirectionY, e.extrusionDirectionZ, e.elevation ?? 0);
+      this.polyline(e.vertices, !!e.shape, mm, layer, 'LWPOLYLINE');
       return;
     }
     // dxf-parser stops reading vertices at a vertex identifier (group 91); read them here.
@@ -556,7 +577,7 @@ class Reader {
     let closed = false;
     let elevation = 0;
     const n: [number, number, number] = [0, 0, 1];
-    for (const g of readEntityGroups(this.text, offset)) {
+    for (const g of readEntityGroups(this.text, offset, this.scan.hasCR)) {
       const v = Number(g.value);
       switch (g.code) {
         case 10:
@@ -585,7 +606,7 @@ class Reader {
           break;
       }
     }
-    this.polyline(verts, closed, this.inOcs(m, n, elevation), layer, 'LWPOLYLINE');
+    this.polyline(verts, closed, this.inOcs(m, n[0], n[1], n[2], elevation), layer, 'LWPOLYLINE');
   }
 
   private polylineEntity(e: IPolylineEntity, m: Xform, layer: string): void {
@@ -600,7 +621,7 @@ class Reader {
       return;
     }
     const n = e.extrusionDirection;
-    this.polyline(verts, !!e.shape, this.inOcs(m, [n?.x ?? 0, n?.y ?? 0, n?.z ?? 1], 0), layer, 'POLYLINE');
+    this.polyline(verts, !!e.shape, this.inOcs(m, n?.x, n?.y, n?.z, 0), layer, 'POLYLINE');
   }
 
   private polyline(
@@ -689,7 +710,14 @@ class Reader {
         const p1 = this.vertex(m, cx + r * Math.cos(a1), cy + r * Math.sin(a1));
         // Bulge = tan(θ/4) (DXF Reference, LWPOLYLINE group 42).
         p0.bulge = Math.tan(sweep / 4) * flip;
-        addBulgeExtents(this.ext, p0.x, p0.y, p1.x, p1.y, p0.bulge);
+        // Extents from the known centre rather than one rebuilt from the bulge.
+        const ccx = m.a * cx + m.c * cy + m.e;
+        const ccy = m.b * cx + m.d * cy + m.f;
+        const rr = r * m.scale;
+        const t0 = m.kind === 0 ? a0 : Math.atan2(m.b * Math.cos(a0) + m.d * Math.sin(a0), m.a * Math.cos(a0) + m.c * Math.sin(a0));
+        this.ext.add(p0.x, p0.y);
+        this.ext.add(p1.x, p1.y);
+        addArcExtents(this.ext, ccx, ccy, rr, 0, 0, rr, t0, sweep * flip, false);
         this.paths.push({ layer, closed: false, points: [p0, p1] });
       }
       this.counted(layer);
@@ -721,8 +749,8 @@ class Reader {
     }
     let sweep = (((e.endAngle - e.startAngle) % TAU) + TAU) % TAU;
     if (sweep < 1e-12) sweep = TAU;
-    const n = ocsMapArgs(e.extrusionDirectionX, e.extrusionDirectionY, e.extrusionDirectionZ);
-    this.circularArc(this.inOcs(m, n, c.z ?? 0), c.x, c.y, r, e.startAngle, sweep, layer, 'ARC');
+    const mm = this.inOcs(m, e.extrusionDirectionX, e.extrusionDirectionY, e.extrusionDirectionZ, c.z ?? 0);
+    this.circularArc(mm, c.x, c.y, r, e.startAngle, sweep, layer, 'ARC');
   }
 
   private circle(e: ICircleEntity, m: Xform, layer: string, offset: number | undefined): void {
@@ -732,16 +760,22 @@ class Reader {
       this.warn('CIRCLE entities without a centre or a positive radius were skipped.');
       return;
     }
-    const mm = this.inOcs(m, this.extrusion(offset), c.z ?? 0);
+    let mm = m;
+    if (offset !== undefined) {
+      const [nx, ny, nz] = this.extrusion(offset);
+      mm = this.inOcs(m, nx, ny, nz, c.z ?? 0);
+    }
     if (mm.kind === 2) {
       this.circularArc(mm, c.x, c.y, r, 0, TAU, layer, 'CIRCLE');
       return;
     }
-    const p = this.vertex(mm, c.x, c.y);
+    const x = mm.kind === 0 ? c.x : mm.a * c.x + mm.c * c.y + mm.e;
+    const y = mm.kind === 0 ? c.y : mm.b * c.x + mm.d * c.y + mm.f;
+    if (!(x - x === 0 && y - y === 0 && Number.isFinite(r))) this.bad();
     const rr = r * mm.scale;
-    this.ext.add(p.x - rr, p.y - rr);
-    this.ext.add(p.x + rr, p.y + rr);
-    this.circles.push({ x: p.x, y: p.y, r: rr, layer });
+    this.ext.add(x - rr, y - rr);
+    this.ext.add(x + rr, y + rr);
+    this.circles.push({ x, y, r: rr, layer });
     this.counted(layer);
   }
 
@@ -758,7 +792,7 @@ class Reader {
     let sweep = (((t1 - t0) % TAU) + TAU) % TAU;
     if (sweep < 1e-12) sweep = TAU;
     // Minor axis = ratio · (N × major) (DXF Reference, ELLIPSE: centre and axis in WCS).
-    let [nx, ny, nz] = this.extrusion(offset);
+    let [nx, ny, nz] = offset === undefined ? [0, 0, 1] : this.extrusion(offset);
     const nl = Math.hypot(nx, ny, nz) || 1;
     nx /= nl;
     ny /= nl;
@@ -775,7 +809,7 @@ class Reader {
     const vx = m.a * minX + m.c * minY;
     const vy = m.b * minX + m.d * minY;
     const uu = ux * ux + uy * uy;
-    if (sweep === TAU && Math.abs(uu - (vx * vx + vy * vy)) <= 1e-12 * uu && Math.abs(ux * vx + uy * vy) <= 1e-12 * uu) {
+    if (sweep >= TAU - 1e-9 && Math.abs(uu - (vx * vx + vy * vy)) <= 1e-12 * uu && Math.abs(ux * vx + uy * vy) <= 1e-12 * uu) {
       // A whole ellipse with equal axes is a circle: keep it as one, holes are circles.
       const r = Math.sqrt(uu);
       this.ext.add(C.x - r, C.y - r);
@@ -795,7 +829,7 @@ class Reader {
     if (cps.length > 0) {
       let weights: number[] | null = null;
       if (offset !== undefined) {
-        weights = readEntityGroups(this.text, offset)
+        weights = readEntityGroups(this.text, offset, this.scan.hasCR)
           .filter((g) => g.code === 41)
           .map((g) => Number(g.value));
         if (weights.length === 0 || weights.every((w) => w === 1)) weights = null;
@@ -856,9 +890,10 @@ class Reader {
       this.warn('POINT entities without a position were skipped.');
       return;
     }
-    const v = this.vertex(m, p.x, p.y);
+    const v = this.vertex(m, p.x, p.y) as DxfPoint;
+    v.layer = layer;
     this.ext.add(v.x, v.y);
-    this.points.push({ x: v.x, y: v.y, layer });
+    this.points.push(v);
     this.counted(layer);
   }
 
@@ -877,7 +912,12 @@ class Reader {
       this.warn('TEXT entities without an insertion point were skipped.');
       return;
     }
-    this.note(this.inOcs(m, this.extrusion(offset), p.z ?? 0), p, e.textHeight, textValue(e.text ?? ''), layer);
+    let mm = m;
+    if (offset !== undefined) {
+      const [nx, ny, nz] = this.extrusion(offset);
+      mm = this.inOcs(m, nx, ny, nz, p.z ?? 0);
+    }
+    this.note(mm, p, e.textHeight, textValue(e.text ?? ''), layer);
   }
 
   private mtext(e: IMtextEntity, m: Xform, layer: string): void {
@@ -905,7 +945,7 @@ class Reader {
     const dx = Number.isFinite(e.columnSpacing) ? e.columnSpacing : 0;
     const dy = Number.isFinite(e.rowSpacing) ? e.rowSpacing : 0;
     const n = e.extrusionDirection;
-    const outer = this.inOcs(m, [n?.x ?? 0, n?.y ?? 0, n?.z ?? 1], pos.z ?? 0);
+    const outer = this.inOcs(m, n?.x, n?.y, n?.z, pos.z ?? 0);
     // Block geometry: shift by −base point, scale, then (for MINSERT arrays) step by the
     // unscaled row and column spacing, rotate, and move to the insertion point
     // (DXF Reference, INSERT groups 10, 41–45, 50, 70, 71).
@@ -944,10 +984,6 @@ class Reader {
   }
 }
 
-function ocsMapArgs(x: number | undefined, y: number | undefined, z: number | undefined): [number, number, number] {
-  return [Number.isFinite(x) ? x! : 0, Number.isFinite(y) ? y! : 0, Number.isFinite(z) ? z! : 1];
-}
-
 function sortedCounts(map: Map<string, number>, byCount: boolean): { type: string; count: number }[] {
   const list = [...map].filter(([, n]) => n > 0).map(([type, count]) => ({ type, count }));
   return list.sort((a, b) => (byCount && b.count !== a.count ? b.count - a.count : a.type < b.type ? -1 : a.type > b.type ? 1 : 0));
@@ -970,7 +1006,7 @@ export function inspectDxf(text: string, options: InspectDxfOptions = {}): DxfIn
   if (/^AC10[0-9]{2}/.test(source)) {
     throw new DxfError('not-dxf', 'This looks like a DWG drawing, not a DXF file. Save or export it as ASCII DXF.', { line: 1 });
   }
-  if (source.trim() === '') throw new DxfError('empty', 'The file is empty: it holds no DXF data.');
+  if (!/\S/.test(source)) throw new DxfError('empty', 'The file is empty: it holds no DXF data.');
 
   const scan = scanDxf(source, maxEntities);
   if (scan.entities === null) {
@@ -1022,7 +1058,7 @@ export function inspectDxf(text: string, options: InspectDxfOptions = {}): DxfIn
     version: typeof version === 'string' ? version : null,
     layers: [...reader.layers]
       .sort(([a], [b]) => (a < b ? -1 : a > b ? 1 : 0))
-      .map(([name, entities]) => ({ name, entities })),
+      .map(([name, c]) => ({ name, entities: c.n })),
     entities: scan.entities.total,
     entityTypes: sortedCounts(scan.entities.types, false),
     expandedEntities: plan.count,

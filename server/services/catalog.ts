@@ -1,4 +1,5 @@
 import type { ComponentFields, PlateFields } from '../../shared/schemas/catalog';
+import type { Outline } from '../../shared/schemas/geometry';
 import type { ListQuery } from '../../shared/schemas/common';
 import type { CatalogRepo } from '../db/catalog-repo';
 import { conflict, notFound } from '../middleware/errors';
@@ -59,6 +60,13 @@ export function catalogService(repo: CatalogRepo, naming: NamingService, audit: 
       await repo.updateComponent(id, input);
       const changed = (Object.keys(input) as (keyof ComponentFields)[]).filter((k) => JSON.stringify(input[k]) !== JSON.stringify((existing as Record<string, unknown>)[k]));
       await audit.record({ userId: actorId, action: 'component.update', objectType: 'component', objectId: id, summary: `Changed component ${input.code}: ${changed.join(', ') || 'no fields'}`, before: Object.fromEntries(changed.map((k) => [k, (existing as Record<string, unknown>)[k]])), after: Object.fromEntries(changed.map((k) => [k, input[k]])) });
+      return repo.getComponent(id);
+    },
+    /** Stores an outline read from a DXF (already in the component's unit, origin at its primary dowel). */
+    async setOutline(actorId: number, id: number, outline: Outline, file: { name: string; size: number; sha256: string; unit: string }) {
+      const c = await this.getComponent(id);
+      await repo.setOutline(id, outline, file);
+      await audit.record({ userId: actorId, action: 'component.outline', objectType: 'component', objectId: id, summary: `Set the outline of ${c.code} from ${file.name} (${outline.paths.length} paths, ${outline.circles.length} circles)`, after: file });
       return repo.getComponent(id);
     },
     async deleteComponent(actorId: number, id: number) {

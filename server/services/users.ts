@@ -1,9 +1,11 @@
 import type { CreateUserInput, UpdateUserInput, User } from '../../shared/schemas/auth';
 import type { UsersRepo } from '../db/users-repo';
+import type { UserTokensRepo } from '../db/user-tokens-repo';
 import { HttpError, conflict, notFound } from '../middleware/errors';
 import { hashPassword, verifyPassword } from './passwords';
 
-export function usersService(repo: UsersRepo) {
+/** With the tokens repository, deactivating a user also ends their unused invitation and reset links. */
+export function usersService(repo: UsersRepo, tokens?: UserTokensRepo) {
   return {
     /** Resolves to the user when the address and password match an active account, else null. */
     async authenticate(email: string, password: string): Promise<User | null> {
@@ -27,6 +29,8 @@ export function usersService(repo: UsersRepo) {
         throw conflict('This is the last active admin; make another user admin first.');
       }
       if (actor.id === id && input.active === false) throw new HttpError(409, 'conflict', 'You cannot deactivate your own account.');
+      // Links first: should the update then fail, the user only has to ask for a new link.
+      if (input.active === false && tokens) await tokens.revokeUnused(id, new Date().toISOString());
       return (await repo.update(id, input))!;
     },
     async setDisplayUnit(id: number, displayUnit: User['displayUnit']): Promise<User> {

@@ -20,6 +20,8 @@ export const UserSchema = z.object({
   role: RoleSchema,
   active: z.boolean(),
   displayUnit: UnitSchema.nullable(),
+  /** Invited and no password chosen yet; such a user cannot sign in. */
+  invited: z.boolean(),
   createdAt: z.string(),
 });
 export type User = z.infer<typeof UserSchema>;
@@ -34,6 +36,19 @@ export const CreateUserInputSchema = z.object({
   password: PasswordSchema,
 });
 export type CreateUserInput = z.infer<typeof CreateUserInputSchema>;
+
+/** The admin invites; the user chooses the password from the link in the mail. */
+export const InviteUserInputSchema = CreateUserInputSchema.omit({ password: true });
+export type InviteUserInput = z.infer<typeof InviteUserInputSchema>;
+
+export const SetPasswordInputSchema = z.object({
+  token: z.string({ message: 'The link is incomplete; open it again from the mail.' }).min(1, 'The link is incomplete; open it again from the mail.').max(200, 'The link is not one Gridset sent; open it again from the mail.'),
+  password: PasswordSchema,
+});
+export type SetPasswordInput = z.infer<typeof SetPasswordInputSchema>;
+
+export const ForgotPasswordInputSchema = z.object({ email });
+export type ForgotPasswordInput = z.infer<typeof ForgotPasswordInputSchema>;
 
 export const UpdateUserInputSchema = z
   .object({
@@ -52,6 +67,7 @@ export const CAN = {
   deleteCatalog: ['lead'] as Role[],
   editSettings: ['admin', 'lead'] as Role[],
   manageUsers: ['admin'] as Role[],
+  readOutbox: ['admin'] as Role[],
   editTemplates: ['lead', 'programmer'] as Role[],
   releaseTemplates: ['lead'] as Role[],
   editNaming: ['lead'] as Role[],

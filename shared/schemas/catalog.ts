@@ -121,6 +121,8 @@ export const ComponentSchema = z.object({
   outline: OutlineSchema.nullable(),
   layer: z.string(),
   notes: z.string(),
+  /** The DXF the outline was read from, when it came from one. */
+  outlineFile: z.object({ name: z.string(), size: z.number(), sha256: z.string(), unit: z.string() }).nullable().default(null),
   usedBy: z.number().int().default(0),
   createdAt: z.string(),
   updatedAt: z.string(),

@@ -2,13 +2,20 @@
  * A large, valid ASCII DXF (R2000, millimetres) for benchmarks: a grid of fixture-plate-like
  * cells, each with an outline (LWPOLYLINE with bulged corners), holes (CIRCLE), slot arcs, lines,
  * points, an occasional label (TEXT) and block INSERT, and now and then an ELLIPSE or a SPLINE.
- * Entities average about 100 bytes, so 20 MB holds about 200,000 of them. Pure and
- * deterministic: the same targetBytes gives the same text.
+ * Entities average about 100 bytes, so 20 MB holds about 200,000 of them. The text never exceeds
+ * targetBytes (the header alone excepted). Pure and deterministic: the same targetBytes gives the
+ * same text.
  */
 export function generateLargeDxf(targetBytes: number): string {
   const out: string[] = [];
   let size = 0;
+  const tail = '  0\nENDSEC\n  0\nEOF\n';
+  let full = false;
   const emit = (s: string): void => {
+    if (full || size + s.length + tail.length > targetBytes) {
+      full = true;
+      return;
+    }
     out.push(s);
     size += s.length;
   };
@@ -22,7 +29,8 @@ export function generateLargeDxf(targetBytes: number): string {
   };
   const n = (v: number): string => v.toFixed(4);
 
-  emit(
+  // The header, tables and block are always written, whatever the target.
+  const head =
     [
       '  0', 'SECTION', '  2', 'HEADER',
       '  9', '$ACADVER', '  1', 'AC1015',
@@ -45,12 +53,12 @@ export function generateLargeDxf(targetBytes: number): string {
       '  0', 'ENDSEC',
       '  0', 'SECTION', '  2', 'ENTITIES',
       '',
-    ].join('\n'),
-  );
+    ].join('\n');
+  out.push(head);
+  size += head.length;
 
-  const tail = '  0\nENDSEC\n  0\nEOF\n';
   let cell = 0;
-  while (size + tail.length < targetBytes) {
+  while (!full) {
     const x0 = (cell % 100) * 120;
     const y0 = Math.floor(cell / 100) * 90;
     cell++;
@@ -85,10 +93,10 @@ export function generateLargeDxf(targetBytes: number): string {
     }
     emit(`  0\nTEXT\n  5\n${h()}\n  8\nNOTES\n 10\n${n(x0 + 2)}\n 20\n${n(y0 + 72)}\n 40\n2.5\n  1\nPLATE ${cell}\n`);
     emit(`  0\nINSERT\n  5\n${h()}\n  8\nHOLES\n  2\nCLAMP\n 10\n${n(x0 + 40)}\n 20\n${n(y0 + 35)}\n 50\n${cell % 4 === 0 ? '90.0' : '0.0'}\n`);
-    if (cell % 50 === 0) {
+    if (cell % 20 === 0) {
       emit(`  0\nELLIPSE\n  5\n${h()}\n  8\nOUTLINE\n 10\n${n(x0 + 50)}\n 20\n${n(y0 + 35)}\n 11\n12.0\n 21\n0.0\n 40\n0.4\n 41\n0.0\n 42\n6.283185307179586\n`);
     }
-    if (cell % 200 === 0) {
+    if (cell % 40 === 0) {
       emit(
         `  0\nSPLINE\n  5\n${h()}\n  8\nOUTLINE\n 70\n8\n 71\n3\n 74\n4\n` +
           ` 11\n${n(x0 + 10)}\n 21\n${n(y0 + 10)}\n 11\n${n(x0 + 30)}\n 21\n${n(y0 + 30)}\n` +
@@ -96,6 +104,6 @@ export function generateLargeDxf(targetBytes: number): string {
       );
     }
   }
-  emit(tail);
+  out.push(tail);
   return out.join('');
 }

@@ -65,6 +65,16 @@ const EXPECTED: Record<string, typeof PUBLIC | readonly Role[]> = {
   'GET /templates/:id/versions/:n/reviews': SIGNED_IN,
   'GET /templates/:id/diff': SIGNED_IN,
   'GET /audit': ['lead', 'admin'],
+  'GET /jobs': SIGNED_IN,
+  'POST /jobs': EDITORS,
+  'GET /jobs/:id': SIGNED_IN,
+  'PUT /jobs/:id': EDITORS,
+  'POST /jobs/:id/stock-check': SIGNED_IN,
+  'GET /jobs/:id/setup-sheet.html': SIGNED_IN,
+  'GET /jobs/:id/package.zip': SIGNED_IN,
+  'POST /dxf/inspect': EDITORS,
+  'POST /components/:id/outline': EDITORS,
+  'POST /jobs/:id/outline': EDITORS,
 };
 
 let t: TestApp;

@@ -1,0 +1,44 @@
+import { CAN } from '../../shared/schemas/auth';
+import { IdParamSchema } from '../../shared/schemas/common';
+import { JobInputSchema, JobStockCheckInputSchema } from '../../shared/schemas/job';
+import { currentUser } from '../middleware/auth';
+import type { JobsService } from '../services/jobs';
+import { jobPackage, setupSheetHtml } from '../services/job-package';
+import { parseOr400 } from './parse';
+import type { RouteDef } from './route-table';
+
+const safe = (s: string) => s.replace(/[^A-Za-z0-9._-]+/g, '-').replace(/^-|-$/g, '') || 'job';
+
+export function jobRoutes(jobs: JobsService): RouteDef[] {
+  const id = (p: unknown) => parseOr400(IdParamSchema, p, 'address').id;
+  return [
+    { method: 'get', path: '/jobs', access: 'signed-in', handler: async (_req, res) => {
+      res.json(await jobs.list());
+    } },
+    { method: 'post', path: '/jobs', access: CAN.editTemplates, handler: async (req, res) => {
+      res.status(201).json(await jobs.create(currentUser(req), parseOr400(JobInputSchema, req.body, 'job')));
+    } },
+    { method: 'get', path: '/jobs/:id', access: 'signed-in', handler: async (req, res) => {
+      res.json(await jobs.detail(id(req.params)));
+    } },
+    { method: 'put', path: '/jobs/:id', access: CAN.editTemplates, handler: async (req, res) => {
+      const jobId = id(req.params);
+      res.json(await jobs.update(currentUser(req), jobId, parseOr400(JobInputSchema, req.body, 'job')));
+    } },
+    // The operator records measured bars at the machine.
+    { method: 'post', path: '/jobs/:id/stock-check', access: 'signed-in', handler: async (req, res) => {
+      const jobId = id(req.params);
+      res.json(await jobs.stockCheck(currentUser(req), jobId, parseOr400(JobStockCheckInputSchema, req.body, 'stock check')));
+    } },
+    { method: 'get', path: '/jobs/:id/setup-sheet.html', access: 'signed-in', handler: async (req, res) => {
+      const job = await jobs.detail(id(req.params));
+      const html = setupSheetHtml(job, await jobs.version(job.id));
+      res.type('text/html').send(html);
+    } },
+    { method: 'get', path: '/jobs/:id/package.zip', access: 'signed-in', handler: async (req, res) => {
+      const job = await jobs.detail(id(req.params));
+      const zip = await jobPackage(job, await jobs.version(job.id));
+      res.type('application/zip').attachment(`${safe(job.name)}-${safe(job.partNumber)}-package.zip`).send(zip);
+    } },
+  ];
+}

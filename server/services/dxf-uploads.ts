@@ -1,0 +1,46 @@
+import { createHash } from 'node:crypto';
+import { copyFileSync, mkdirSync, readFileSync } from 'node:fs';
+import path from 'node:path';
+import type { Unit } from '../../shared/schemas/common';
+import type { Outline } from '../../shared/schemas/geometry';
+import { convert } from '../../shared/units/units';
+import { DxfError, inspectDxf, type DxfInspection } from '../dxf/read-dxf';
+import { HttpError, badRequest } from '../middleware/errors';
+
+/** Reads an uploaded DXF; a file Gridset cannot read is a 400 that names the problem (and line or block). */
+export function inspectUploadedDxf(filePath: string): { text: string; inspection: DxfInspection; sha256: string } {
+  const buf = readFileSync(filePath);
+  // The type is judged by content, not by the file name: binary DXF and other files are named as such.
+  const text = buf.toString('utf8');
+  try {
+    return { text, inspection: inspectDxf(text), sha256: createHash('sha256').update(buf).digest('hex') };
+  } catch (err) {
+    if (err instanceof DxfError) throw new HttpError(400, `dxf-${err.code}`, err.message, { line: err.line ?? null, block: err.block ?? null });
+    throw err;
+  }
+}
+
+/** Keeps the original file, named by its content hash, once what it holds was accepted. */
+export function keepOriginal(dataDir: string, tmpPath: string, sha256: string): string {
+  const dir = path.join(dataDir, 'uploads');
+  mkdirSync(dir, { recursive: true });
+  const target = path.join(dir, `${sha256}.dxf`);
+  copyFileSync(tmpPath, target);
+  return target;
+}
+
+/**
+ * The outline in the owner's unit with its origin moved to `datum` (a point in the drawing's
+ * own coordinates and unit): the primary dowel for a component, the datum corner for a part.
+ */
+export function normalizeOutline(inspection: DxfInspection, fileUnit: Unit | null, targetUnit: Unit, datum: { x: number; y: number }): { outline: Outline; unit: Unit } {
+  const unit = inspection.unit ?? fileUnit;
+  if (!unit) throw badRequest('The file does not say its unit ($INSUNITS is 0 or missing): send unit=in or unit=mm with the upload.', null, 'dxf-unit-unknown');
+  const f = (v: number) => convert(v, unit, targetUnit);
+  const outline: Outline = {
+    paths: inspection.outline.paths.map((p) => ({ ...p, points: p.points.map((v) => ({ ...v, x: f(v.x - datum.x), y: f(v.y - datum.y) })) })),
+    circles: inspection.outline.circles.map((c) => ({ ...c, x: f(c.x - datum.x), y: f(c.y - datum.y), r: f(c.r) })),
+  };
+  if (outline.paths.length === 0 && outline.circles.length === 0) throw badRequest('The file holds no lines, arcs, polylines or circles to use as an outline.', null, 'dxf-no-outline');
+  return { outline, unit };
+}

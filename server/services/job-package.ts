@@ -1,0 +1,113 @@
+import { createHash } from 'node:crypto';
+import JSZip from 'jszip';
+import type { JobDetail } from '../../shared/schemas/job';
+import type { TemplateVersion } from '../../shared/schemas/template-api';
+import { evaluateTemplate } from '../../shared/stations/evaluate-template';
+import { componentLayer } from '../../shared/interchange/drawing-layers';
+import { formatLength, formatNumber } from '../../shared/units/units';
+import { reasonText, STOCK_CHECK_ADVICE } from '../../shared/clamps/reason-text';
+import { writeDrawingDxf } from '../dxf/write-dxf';
+import { drawingToSvg } from '../dxf/drawing-svg';
+import { templateDrawing } from './template-drawing';
+import { offsetsNc, stationsCsv, stationsXlsx } from './station-files';
+
+const esc = (s: unknown) => String(s).replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);
+
+/** The part layer is named after the part number, upper-cased to the DXF name set. */
+const partLayer = (job: JobDetail) => `PART-${job.partNumber.toUpperCase().replace(/[^A-Z0-9_-]+/g, '-')}`.slice(0, 31);
+
+function jobDrawing(job: JobDetail, v: TemplateVersion) {
+  const evaluation = evaluateTemplate(v);
+  return templateDrawing(v, evaluation, job.partOutline ? { outline: job.partOutline, layer: partLayer(job) } : undefined);
+}
+
+export const CAUTIONS = [
+  'This sheet is advice computed from the entered template, clamp models and measurements; it is not a guarantee that the setup holds.',
+  'Check every clamp and its torque before cycle start, and prove the first cycle at reduced rapid and feed.',
+  'Check the offset file against your control’s programming manual before running it.',
+  'Follow the machine builder’s instructions, your shop’s procedures, local codes and licensed practice.',
+];
+
+/** A print-ready page (Letter and A4): no navigation, black on white, sections on their own pages. */
+export function setupSheetHtml(job: JobDetail, v: TemplateVersion): string {
+  const u = v.unit;
+  const svg = drawingToSvg(jobDrawing(job, v), { widthPx: 900, background: '#ffffff', title: `${job.name}: stations on ${v.plate.code}` });
+  const byCode = new Map(v.components.map((c) => [c.code, c]));
+  const latest = job.stockChecks[0];
+  const clamps = v.placements.filter((p) => byCode.get(p.component)?.clamp);
+  const printed = new Date().toISOString().slice(0, 10);
+  return `<!doctype html>
+<html lang="en"><head><meta charset="utf-8"><title>Setup sheet — ${esc(job.name)}</title>
+<style>
+  @page { margin: 12mm; }
+  body { font: 11pt/1.4 system-ui, sans-serif; color: #000; background: #fff; margin: 0; }
+  h1 { font-size: 18pt; margin: 0 0 4pt; } h2 { font-size: 13pt; margin: 14pt 0 6pt; border-bottom: 1px solid #000; }
+  table { border-collapse: collapse; width: 100%; font-size: 10pt; } th, td { border: 1px solid #555; padding: 2pt 4pt; text-align: left; }
+  td.n { text-align: right; font-family: ui-monospace, monospace; font-variant-numeric: tabular-nums; white-space: nowrap; }
+  .page { break-before: page; } svg { width: 100%; height: auto; max-height: 160mm; }
+  .caution { border: 2px solid #000; padding: 6pt; margin-top: 10pt; } .box { display: inline-block; width: 10pt; height: 10pt; border: 1px solid #000; margin-right: 6pt; }
+  footer { position: fixed; bottom: 0; left: 0; right: 0; font-size: 8pt; border-top: 1px solid #000; padding-top: 2pt; }
+</style></head><body>
+<h1>Setup sheet — ${esc(job.name)}</h1>
+<p>Part <b>${esc(job.partNumber)}</b>${job.partRevision ? ` rev ${esc(job.partRevision)}` : ''} · template <b>${esc(v.name)}</b> version ${v.version} (${esc(v.state)}) on plate <b>${esc(v.plate.code)}</b>, pitch ${formatLength(v.plate.pitch, v.plate.unit)}, ${v.plate.columns} × ${v.plate.rows} holes.</p>
+<p>Shared work offset <b>${esc(v.sharedOffset.name ?? 'shared offset')}</b> at ${v.sharedOffset.kind === 'hole' ? `grid hole (${v.sharedOffset.hole.col}, ${v.sharedOffset.hole.row})` : v.sharedOffset.kind === 'center' ? 'the center of the hole grid' : `the point (${formatLength(v.sharedOffset.x, u)}, ${formatLength(v.sharedOffset.y, u)})`}.
+ Stock ${formatLength(job.stock.width, u)} × ${formatLength(job.stock.thickness, u)} × ${formatLength(job.stock.length, u)} ${esc(job.stock.material)}; carrier ${formatLength(job.carrier, u)}, tool clearance ${formatLength(job.clearance, u)}, minimum bite ${formatLength(job.minBite, u)}.</p>
+<p>Runtime: ${v.stations.length} stations × ${job.cycleMinutes} min + ${job.loadMinutes} min load = <b>${formatNumber(job.runtimeMinutes, 'mm')} min</b> unattended.</p>
+<h2>Station map</h2>
+${svg}
+<h2 class="page">Placements</h2>
+<table><thead><tr><th>Placement</th><th>Component</th><th>Grid hole</th><th>Rotation</th><th>Layer</th><th>Stops in use</th></tr></thead><tbody>
+${v.placements.map((p) => `<tr><td>${esc(p.id)}</td><td>${esc(p.component)}</td><td class="n">(${p.hole.col}, ${p.hole.row})</td><td class="n">${p.rotation}°</td><td>${esc(byCode.get(p.component) ? componentLayer(byCode.get(p.component)!) : '')}</td><td>${(p.stopsInUse ?? []).map((s) => s + 1).join(', ') || '—'}</td></tr>`).join('\n')}
+</tbody></table>
+<h2>Stations (translation from the shared offset, ${u})</h2>
+<table><thead><tr><th>Station</th><th>X</th><th>Y</th><th>Z</th><th>C</th><th>Width held</th><th>Placement</th></tr></thead><tbody>
+${v.stations.map((s) => `<tr><td class="n">${s.number}</td><td class="n">${formatNumber(s.x, u)}</td><td class="n">${formatNumber(s.y, u)}</td><td class="n">${formatNumber(s.z, u)}</td><td class="n">${formatNumber(s.c, 'mm')}°</td><td class="n">${s.nominalWidth === null ? '—' : formatNumber(s.nominalWidth, u)}</td><td>${esc(s.placement)}</td></tr>`).join('\n')}
+</tbody></table>
+<h2 class="page">Stock check</h2>
+${latest ? `<p>Latest check (${esc(latest.at)}${latest.by ? `, ${esc(latest.by)}` : ''}): ${latest.bars.length} bars against ${esc(latest.jawPlacement)}, nominal opening ${formatLength(latest.nominalOpening, latest.unit)}.</p>
+<table><thead><tr><th>Rail setting</th><th>Shift</th><th>Bars</th></tr></thead><tbody>
+${latest.result.settings.map((s, i) => `<tr><td>Setting ${i + 1}</td><td class="n">${s.shift >= 0 ? '+' : ''}${formatLength(s.shift, latest.unit)}</td><td>${s.bars.map(esc).join(', ')}</td></tr>`).join('\n')}
+</tbody></table>
+${latest.result.unplaceable.length ? `<p><b>Cannot be used on this rail:</b> ${latest.result.unplaceable.map((id) => {
+    const b = latest.result.bars.find((x) => x.id === id);
+    return `${esc(id)} (${(b?.reasons ?? []).map((r) => esc(reasonText(r))).join('; ')})`;
+  }).join(', ')}</p>` : ''}` : '<p>No bars have been checked for this job yet.</p>'}
+<h2>Clamp check list</h2>
+${clamps.length ? clamps.map((p) => `<p><span class="box"></span>${esc(p.id)} (${esc(p.component)}): every clamp seated on the stock and torqued to the clamp maker's value; rail bolts tight.</p>`).join('\n') : '<p>No clamping components.</p>'}
+<p><span class="box"></span>A few stations probed against the table; all within the probe-check tolerance.</p>
+<div class="caution"><b>Cautions.</b><ul>${[...CAUTIONS, STOCK_CHECK_ADVICE].map((c) => `<li>${esc(c)}</li>`).join('')}</ul></div>
+<footer>${esc(v.name)} v${v.version} · content hash ${esc(v.contentHash)} · printed ${printed} · Gridset</footer>
+</body></html>`;
+}
+
+/**
+ * The job package: everything the programmer and the operator need in one download, with a
+ * manifest holding the pinned version's content hash and the SHA-256 of every file.
+ */
+export async function jobPackage(job: JobDetail, v: TemplateVersion): Promise<Buffer> {
+  const drawing = jobDrawing(job, v);
+  const files: [string, string | Buffer][] = [
+    ['stations.csv', stationsCsv(v.unit, v.stations)],
+    ['stations.xlsx', await stationsXlsx(v)],
+    ['job-drawing.dxf', writeDrawingDxf(drawing)],
+    ['job-drawing.svg', drawingToSvg(drawing, { background: '#ffffff', title: job.name })],
+    ['offsets-g52.nc', offsetsNc(v, { mode: 'g52', dialect: 'standard' })],
+    ['setup-sheet.html', setupSheetHtml(job, v)],
+  ];
+  if (job.stockChecks.length) files.push(['stock-check.json', JSON.stringify(job.stockChecks[0], null, 2)]);
+  const zip = new JSZip();
+  const listed = files.map(([name, body]) => {
+    zip.file(name, body);
+    const bytes = typeof body === 'string' ? Buffer.from(body, 'utf8') : body;
+    return { name, bytes: bytes.length, sha256: createHash('sha256').update(bytes).digest('hex') };
+  });
+  const manifest = {
+    format: 'gridset-job-package', formatVersion: 1,
+    job: { id: job.id, name: job.name, partNumber: job.partNumber, partRevision: job.partRevision },
+    template: { id: v.templateId, name: v.name, version: v.version, state: v.state, contentHash: v.contentHash },
+    unit: v.unit, stations: v.stations.length, files: listed,
+    note: 'G10 work-offset blocks need the machine position of the shared offset; download them from the template version with base=x,y,z.',
+  };
+  zip.file('manifest.json', JSON.stringify(manifest, null, 2));
+  return zip.generateAsync({ type: 'nodebuffer', compression: 'DEFLATE' });
+}

@@ -1,0 +1,80 @@
+import { z } from 'zod';
+import { UnitSchema, finite, listOf, nonNegative, positive } from './common';
+import { OutlineSchema } from './geometry';
+import { PairingSchema, StationSchema } from './template';
+import { MeasuredBarSchema, StockCheckResponseSchema } from './stock-check';
+import { VersionStateSchema } from './template-api';
+
+const text = (label: string, max: number) => z.string({ message: `${label} is required.` }).trim().min(1, `${label} is required.`).max(max, `${label} must be ${max} characters or fewer.`);
+
+export const StockSizeSchema = z.object({
+  width: positive('Stock width'),
+  thickness: positive('Stock thickness'),
+  length: positive('Stock length'),
+  material: z.string().trim().max(80, 'Material must be 80 characters or fewer.').default(''),
+});
+
+/** A job's own fields; lengths are in the pinned template's unit. */
+export const JobInputSchema = z.object({
+  name: text('Job name', 120),
+  partNumber: text('Part number', 60),
+  partRevision: z.string().trim().max(20, 'Revision must be 20 characters or fewer.').default(''),
+  templateId: z.number({ message: 'Choose a template.' }).int().positive('Choose a template.'),
+  version: z.number({ message: 'Choose a released version.' }).int().positive('Choose a released version.'),
+  stock: StockSizeSchema,
+  carrier: positive('Carrier thickness'),
+  clearance: nonNegative('Tool clearance'),
+  minBite: positive('Minimum bite'),
+  cycleMinutes: positive('Cycle time'),
+  loadMinutes: nonNegative('Load time').default(0),
+  notes: z.string().max(4000).default(''),
+});
+export type JobInput = z.input<typeof JobInputSchema>;
+export type JobFields = z.output<typeof JobInputSchema>;
+
+export const PartFileSchema = z.object({ name: z.string(), size: z.number(), sha256: z.string(), unit: UnitSchema, datum: z.object({ x: finite('x'), y: finite('y') }) });
+
+export const JobStockCheckSchema = z.object({
+  id: z.number().int(),
+  jawPlacement: z.string(),
+  at: z.string(),
+  by: z.string().nullable(),
+  nominalOpening: z.number(),
+  unit: UnitSchema,
+  appliesTo: z.array(z.string()),
+  bars: z.array(MeasuredBarSchema),
+  result: StockCheckResponseSchema,
+});
+export type JobStockCheck = z.infer<typeof JobStockCheckSchema>;
+
+export const JobSummarySchema = JobInputSchema.extend({
+  id: z.number().int(),
+  templateName: z.string(),
+  unit: UnitSchema,
+  versionState: VersionStateSchema,
+  contentHash: z.string(),
+  stations: z.number().int(),
+  runtimeMinutes: z.number(),
+  /** A later released version of the same template, when there is one; the job stays pinned. */
+  newerRelease: z.number().int().nullable(),
+  hasPartOutline: z.boolean(),
+  createdAt: z.string(),
+  updatedAt: z.string(),
+});
+export type JobSummary = z.infer<typeof JobSummarySchema>;
+export const JobListSchema = listOf(JobSummarySchema);
+
+export const JobDetailSchema = JobSummarySchema.extend({
+  partOutline: OutlineSchema.nullable(),
+  partFile: PartFileSchema.nullable(),
+  stationList: z.array(StationSchema),
+  pairings: z.array(PairingSchema),
+  stockChecks: z.array(JobStockCheckSchema),
+});
+export type JobDetail = z.infer<typeof JobDetailSchema>;
+
+export const JobStockCheckInputSchema = z.object({
+  /** Which jaw rail's clamp window to check against (a placement id from the pairing table); the first pairing when left out. */
+  jawPlacement: z.string().max(40).optional(),
+  bars: z.array(MeasuredBarSchema).min(1, 'bars must list at least one measured bar.').max(10_000, 'A stock check takes at most 10,000 bars: split the list into several checks.'),
+});
