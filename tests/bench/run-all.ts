@@ -4,6 +4,7 @@ const BENCHES: Record<string, () => Promise<{ run: () => Promise<void> }>> = {
   'catalog-list': () => import('./catalog-list.bench'),
   stations: () => import('./stations.bench'),
   'stock-check': () => import('./stock-check.bench'),
+  dxf: () => import('./dxf.bench'),
 };
 
 const wanted = process.argv.slice(2);

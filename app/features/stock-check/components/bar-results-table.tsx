@@ -33,7 +33,7 @@ function supplierWord(s: BarResultRow['supplier']): string {
   return 'within tolerance';
 }
 
-const columns = col.columns([
+const baseColumns = [
   col.accessor('id', { header: 'Bar', cell: (c) => <span className="font-mono font-semibold">{c.getValue()}</span> }),
   col.accessor('width', { header: 'Width', meta: { numeric: true }, cell: len }),
   col.accessor('thickness', { header: 'Thickness', meta: { numeric: true }, cell: len }),
@@ -42,7 +42,7 @@ const columns = col.columns([
     id: 'verdict',
     header: 'Verdict at shift 0',
     cell: (c) => (
-      <span className="flex flex-col items-start gap-1">
+      <span className="flex min-w-[13rem] flex-col items-start gap-1">
         {verdictsOf(c.row.original.reasons).map((v) => <VerdictBadge key={v} verdict={v} />)}
       </span>
     ),
@@ -62,13 +62,15 @@ const columns = col.columns([
     cell: (c) => {
       const r = c.row.original;
       return r.setting === null ? (
-        <span className="inline-flex items-center gap-1.5 font-semibold text-slate-900"><Ban aria-hidden className="h-4 w-4 shrink-0" />cannot be used on this rail</span>
+        <span className="inline-flex min-w-[9rem] items-center gap-1.5 font-semibold text-slate-900"><Ban aria-hidden className="h-4 w-4 shrink-0" />cannot be used on this rail</span>
       ) : (
         <span className="whitespace-nowrap"><span className="font-semibold">Setting {r.setting}</span> <span className="font-mono">{formatSettingShift(r.settingShift!, r.unit)}</span></span>
       );
     },
   }),
-  col.accessor((r) => supplierWord(r.supplier), {
+];
+
+const supplierColumn = col.accessor((r) => supplierWord(r.supplier), {
     id: 'supplier',
     header: 'Supplier tolerance',
     cell: (c) => {
@@ -76,15 +78,18 @@ const columns = col.columns([
       const s = c.row.original.supplier;
       const title = s ? [s.width?.message, s.thickness?.message].filter(Boolean).join(' ') : undefined;
       return word === 'outside tolerance' ? (
-        <span title={title} className="inline-flex items-center gap-1.5 font-semibold text-slate-900"><Truck aria-hidden className="h-4 w-4 shrink-0" />outside — supplier matter</span>
+        <span title={title} className="inline-flex min-w-[8rem] items-center gap-1.5 font-semibold text-slate-900"><Truck aria-hidden className="h-4 w-4 shrink-0" />outside — supplier matter</span>
       ) : (
-        <span title={title} className="text-slate-700">{word}</span>
+        <span title={title} className="whitespace-nowrap text-slate-700">{word}</span>
       );
     },
-  }),
-]);
+});
+
+// Defined once: the supplier column shows only when nominal stock sizes were entered.
+const columns = col.columns(baseColumns);
+const columnsWithSupplier = col.columns([...baseColumns, supplierColumn]);
 
 /** Every bar with its verdict at shift 0, the shifts that hold it, and the setting it goes on. */
-export function BarResultsTable({ rows, filter }: { rows: BarResultRow[]; filter: string }) {
-  return <DataTable caption="Stock check, bar by bar" columns={columns} data={rows} filter={filter} getRowId={(r) => r.id} empty="No bar matches the filter." />;
+export function BarResultsTable({ rows, filter, supplierChecked }: { rows: BarResultRow[]; filter: string; supplierChecked: boolean }) {
+  return <DataTable caption="Stock check, bar by bar" columns={supplierChecked ? columnsWithSupplier : columns} data={rows} filter={filter} getRowId={(r) => r.id} empty="No bar matches the filter." />;
 }

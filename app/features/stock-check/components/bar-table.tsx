@@ -13,6 +13,17 @@ export interface BarRow {
   autoId: boolean;
 }
 
+/**
+ * Focus a cell without letting it hide under the sticky "Check the bars" bar at the bottom of the
+ * form: bring it to the middle when it is near an edge.
+ */
+function focusInView(el: HTMLInputElement) {
+  el.focus({ preventScroll: true });
+  el.select();
+  const r = el.getBoundingClientRect();
+  if (r.top < 80 || r.bottom > window.innerHeight - 120) el.scrollIntoView({ block: 'center' });
+}
+
 let keySeq = 0;
 export function makeBarRow(cells: Partial<BarCells> = {}, autoId = false): BarRow {
   keySeq += 1;
@@ -41,11 +52,13 @@ const HEADER: Readonly<Record<BarField, string>> = { id: 'Bar id', width: 'Width
  * (or ↑) one row up; Enter on the last row adds a row. A cell reached by the keyboard is
  * selected, so typing replaces it.
  */
-export function BarTable({ rows, onRowsChange, unit, problems }: {
+export function BarTable({ rows, onRowsChange, unit, problems, onCellEdit }: {
   rows: BarRow[];
   onRowsChange: (rows: BarRow[]) => void;
   unit: Unit | null;
   problems: readonly TableProblem[];
+  /** A cell was typed in: its problem, if any, no longer applies. */
+  onCellEdit?: (index: number, field: BarField) => void;
 }) {
   const pendingFocus = useRef<{ index: number; field: BarField } | null>(null);
   const bad = new Map(problems.map((p) => [`${p.index}:${p.field}`, p.message]));
@@ -57,21 +70,19 @@ export function BarTable({ rows, onRowsChange, unit, problems }: {
     pendingFocus.current = null;
     const row = rows[p.index];
     const el = row ? (document.getElementById(barCellId(row.key, p.field)) as HTMLInputElement | null) : null;
-    el?.focus();
-    el?.select();
+    if (el) focusInView(el);
   }, [rows]);
 
   const focusCell = (index: number, field: BarField) => {
     const row = rows[index];
     const el = row ? (document.getElementById(barCellId(row.key, field)) as HTMLInputElement | null) : null;
-    if (el) {
-      el.focus();
-      el.select();
-    }
+    if (el) focusInView(el);
   };
 
-  const setCell = (index: number, field: BarField, value: string) =>
+  const setCell = (index: number, field: BarField, value: string) => {
+    onCellEdit?.(index, field);
     onRowsChange(rows.map((r, i) => (i === index ? { ...r, cells: { ...r.cells, [field]: value }, autoId: field === 'id' ? false : r.autoId } : r)));
+  };
 
   const addRow = (focusField: BarField | null) => {
     if (focusField) pendingFocus.current = { index: rows.length, field: focusField };

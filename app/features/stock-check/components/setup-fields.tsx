@@ -8,7 +8,7 @@ import { SETUP_LABEL, formMessage, type SetupFormText, type SetupFormValues, typ
 type SetupForm = UseFormReturn<SetupFormText, unknown, SetupFormValues>;
 
 const HINT: Partial<Record<SetupLengthField, string>> = {
-  nominalOpening: 'the width the rail holds at its nominal setting',
+  nominalOpening: 'the width this rail holds at its nominal setting: no template gives it here, so check it',
   carrier: 'left at the bottom of the part',
   clearance: 'kept between the clamp tops and the tool',
   minBite: 'the least flat face the clamp must grip',

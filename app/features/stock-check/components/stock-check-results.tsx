@@ -145,7 +145,7 @@ export const StockCheckResults = forwardRef<HTMLHeadingElement, { run: CheckRun;
 });
 
 /** Every bar of the check, full width: the verdict at shift 0, the shifts that hold it, where it goes. */
-export function BarByBar({ run }: { run: CheckRun }) {
+export function BarByBar({ run, stale }: { run: CheckRun; stale: boolean }) {
   const [filter, setFilter] = useState('');
   const supplier = useMemo(() => supplierFlags(run), [run]);
   const rows = useMemo(() => resultRows(run, supplier), [run, supplier]);
@@ -158,7 +158,8 @@ export function BarByBar({ run }: { run: CheckRun }) {
         </div>
         <div className="w-64"><TextField label="Find a bar" value={filter} onChange={(e) => setFilter(e.target.value)} /></div>
       </div>
-      <BarResultsTable rows={rows} filter={filter} />
+      {stale ? <Notice tone="caution" title="The inputs changed after this check">This table is for the inputs as they were: run the check again.</Notice> : null}
+      <BarResultsTable rows={rows} filter={filter} supplierChecked={supplier.checked} />
     </section>
   );
 }

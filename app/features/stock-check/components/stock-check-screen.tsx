@@ -167,7 +167,9 @@ export function StockCheckScreen({ components }: { components: readonly Componen
 
           <section aria-labelledby="bars-title" className="flex flex-col gap-4 rounded border border-slate-300 bg-white p-4">
             <h2 id="bars-title" className="text-lg font-semibold">2 · Measured bars</h2>
-            <BarTable rows={rows} onRowsChange={setRows} unit={unit} problems={barProblems} />
+            <BarsPaste unit={unit} tableIds={tableIds} onApply={applyPaste} />
+            <BarTable rows={rows} onRowsChange={setRows} unit={unit} problems={barProblems}
+              onCellEdit={(index, field) => setBarProblems((ps) => (ps.some((p) => p.index === index && p.field === field) ? ps.filter((p) => !(p.index === index && p.field === field)) : ps))} />
             {barProblems.length > 0 ? (
               <div role="alert" className="rounded border-l-4 border-danger-700 bg-danger-50 p-3 text-danger-700">
                 <p className="font-semibold">{barProblems.length === 1 ? 'One cell needs fixing' : `${barProblems.length} cells need fixing`} before the check can run:</p>
@@ -177,7 +179,6 @@ export function StockCheckScreen({ components }: { components: readonly Componen
                 {barProblems.length > SHOWN_PROBLEMS ? <p className="mt-1 text-slate-900">…and {barProblems.length - SHOWN_PROBLEMS} more.</p> : null}
               </div>
             ) : null}
-            <BarsPaste unit={unit} tableIds={tableIds} onApply={applyPaste} />
             <fieldset className="flex flex-col gap-2">
               <legend className="font-semibold">Nominal stock <span className="font-normal text-slate-600">— optional, for the supplier tolerance flag</span></legend>
               <div className="grid grid-cols-1 gap-4 sm:grid-cols-2">
@@ -187,7 +188,8 @@ export function StockCheckScreen({ components }: { components: readonly Componen
             </fieldset>
           </section>
 
-          <div className="flex flex-col gap-2">
+          {/* Kept in view while the form scrolls: the one action of the screen. */}
+          <div className="sticky bottom-0 flex flex-col gap-2 border-t border-slate-300 bg-slate-50 py-3">
             {otherProblems.map((m) => <ErrorText key={m} error={m} />)}
             <ErrorText error={check.error} />
             <Button type="submit" disabled={check.isPending} className="min-h-12 text-lg">
@@ -207,7 +209,7 @@ export function StockCheckScreen({ components }: { components: readonly Componen
           )}
         </section>
       </div>
-      {run ? <BarByBar run={run} /> : null}
+      {run ? <BarByBar run={run} stale={run.key !== inputsKey} /> : null}
     </div>
   );
 }

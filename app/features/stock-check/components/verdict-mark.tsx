@@ -22,7 +22,7 @@ export function VerdictBadge({ verdict, detail = false }: { verdict: Verdict; de
   const Icon = ICON[verdict];
   return (
     <span className="inline-flex flex-col items-start gap-0.5">
-      <span className={`inline-flex items-center gap-1.5 whitespace-nowrap rounded border px-2 py-0.5 font-semibold ${BADGE[VERDICT_TONE[verdict]]}`} title={verdictSentence(verdict)}>
+      <span className={`inline-flex items-center gap-1.5 rounded border px-2 py-0.5 font-semibold ${BADGE[VERDICT_TONE[verdict]]}`} title={verdictSentence(verdict)}>
         <Icon aria-hidden className="h-4 w-4 shrink-0" />
         {VERDICT_WORD[verdict]}
       </span>
