@@ -31,7 +31,9 @@ export function Layout() {
           <NavLink to="/catalog/plates" className={navClass}>Plates</NavLink>
           <NavLink to="/naming" className={navClass}>Naming</NavLink>
           {may(user.role, 'editSettings') ? <NavLink to="/settings" className={navClass}>Shop settings</NavLink> : null}
+          {may(user.role, 'editSettings') ? <NavLink to="/audit" className={navClass}>Audit</NavLink> : null}
           {may(user.role, 'manageUsers') ? <NavLink to="/admin/users" className={navClass}>Users</NavLink> : null}
+          {may(user.role, 'readOutbox') ? <NavLink to="/admin/outbox" className={navClass}>Outbox</NavLink> : null}
           <div className="ml-auto flex flex-wrap items-center gap-3">
             <div role="group" aria-label="Display unit" className="flex overflow-hidden rounded border border-slate-400">
               {(['in', 'mm'] as const).map((u) => (

@@ -14,9 +14,13 @@ import { SettingsRoute } from './routes/settings';
 import { NotFoundRoute } from './routes/not-found';
 import { TemplatesRoute } from './routes/templates';
 import { NamingRoute } from './routes/naming';
+import { AuditRoute } from './routes/audit';
 import { TemplateCompareRoute } from './routes/template-compare';
 import { TemplateVersionRoute } from './routes/template-version';
 import { StockCheckRoute } from './routes/stock-check';
+import { OutboxRoute } from './routes/outbox';
+import { SetPasswordRoute } from './routes/set-password';
+import { ForgotPasswordRoute } from './routes/forgot-password';
 
 function RequireSignIn() {
   const me = useMe();
@@ -34,6 +38,9 @@ function RequireRole({ roles }: { roles: readonly Role[] }) {
 
 export const router = createBrowserRouter([
   { path: '/sign-in', element: <SignInRoute /> },
+  // Reached from a mailed link or the sign-in page, so outside the signed-in layout.
+  { path: '/set-password', element: <SetPasswordRoute /> },
+  { path: '/forgot-password', element: <ForgotPasswordRoute /> },
   {
     element: <RequireSignIn />,
     children: [
@@ -51,7 +58,8 @@ export const router = createBrowserRouter([
           { path: 'catalog/components', element: <ComponentsRoute /> },
           { path: 'catalog/components/:id', element: <ComponentEditRoute /> },
           { element: <RequireRole roles={CAN.manageUsers} />, children: [{ path: 'admin/users', element: <UsersRoute /> }] },
-          { element: <RequireRole roles={CAN.editSettings} />, children: [{ path: 'settings', element: <SettingsRoute /> }] },
+          { element: <RequireRole roles={CAN.readOutbox} />, children: [{ path: 'admin/outbox', element: <OutboxRoute /> }] },
+          { element: <RequireRole roles={CAN.editSettings} />, children: [{ path: 'settings', element: <SettingsRoute /> }, { path: 'audit', element: <AuditRoute /> }] },
           { path: '*', element: <NotFoundRoute /> },
         ],
       },
