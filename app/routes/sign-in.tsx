@@ -1,4 +1,4 @@
-import { Navigate, useLocation, useNavigate } from 'react-router-dom';
+import { Link, Navigate, useLocation, useNavigate } from 'react-router-dom';
 import { SignInForm } from '../features/auth/components/sign-in-form';
 import { useMe } from '../features/auth/api';
 
@@ -18,6 +18,7 @@ export function SignInRoute() {
           </div>
         </div>
         <SignInForm onSignedIn={() => navigate(from, { replace: true })} />
+        <p className="mt-4"><Link to="/forgot-password" className="text-accent-700 underline">Forgot your password?</Link></p>
       </div>
     </main>
   );

@@ -42,10 +42,6 @@ export function outboxRepo(db: Db) {
         .offset(query.offset);
       return { items: rows.map(toMail), total: Number(count?.n ?? 0) };
     },
-    async findById(id: number): Promise<(OutboxMail & { emlFile: string | null }) | undefined> {
-      const row = await db<OutboxRow>('outbox').where({ id }).first();
-      return row && { ...toMail(row), emlFile: row.eml_file };
-    },
   };
 }
 export type OutboxRepo = ReturnType<typeof outboxRepo>;

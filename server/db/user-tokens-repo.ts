@@ -58,9 +58,6 @@ export function userTokensRepo(db: Db) {
     async remove(id: number, trx: Db = db): Promise<void> {
       await trx('user_tokens').where({ id }).del();
     },
-    async forUser(userId: number): Promise<UserToken[]> {
-      return (await db<UserTokenRow>('user_tokens').where({ user_id: userId }).orderBy('id')).map(toToken);
-    },
   };
 }
 export type UserTokensRepo = ReturnType<typeof userTokensRepo>;

@@ -3,7 +3,7 @@ import { IdParamSchema } from '../../shared/schemas/common';
 import { JobInputSchema, JobStockCheckInputSchema } from '../../shared/schemas/job';
 import { currentUser } from '../middleware/auth';
 import type { JobsService } from '../services/jobs';
-import { jobPackage, setupSheetHtml } from '../services/job-package';
+import { jobDrawingSvg, jobPackage, setupSheetHtml } from '../services/job-package';
 import { parseOr400 } from './parse';
 import type { RouteDef } from './route-table';
 
@@ -34,6 +34,10 @@ export function jobRoutes(jobs: JobsService): RouteDef[] {
       const job = await jobs.detail(id(req.params));
       const html = setupSheetHtml(job, await jobs.version(job.id));
       res.type('text/html').send(html);
+    } },
+    { method: 'get', path: '/jobs/:id/drawing.svg', access: 'signed-in', handler: async (req, res) => {
+      const job = await jobs.detail(id(req.params));
+      res.type('image/svg+xml').send(jobDrawingSvg(job, await jobs.version(job.id)));
     } },
     { method: 'get', path: '/jobs/:id/package.zip', access: 'signed-in', handler: async (req, res) => {
       const job = await jobs.detail(id(req.params));

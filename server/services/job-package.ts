@@ -3,7 +3,7 @@ import JSZip from 'jszip';
 import type { JobDetail } from '../../shared/schemas/job';
 import type { TemplateVersion } from '../../shared/schemas/template-api';
 import { evaluateTemplate } from '../../shared/stations/evaluate-template';
-import { componentLayer } from '../../shared/interchange/drawing-layers';
+import { DRAWING_LAYERS, componentLayer } from '../../shared/interchange/drawing-layers';
 import { formatLength, formatNumber } from '../../shared/units/units';
 import { reasonText, STOCK_CHECK_ADVICE } from '../../shared/clamps/reason-text';
 import { writeDrawingDxf } from '../dxf/write-dxf';
@@ -19,6 +19,25 @@ const partLayer = (job: JobDetail) => `PART-${job.partNumber.toUpperCase().repla
 function jobDrawing(job: JobDetail, v: TemplateVersion) {
   const evaluation = evaluateTemplate(v);
   return templateDrawing(v, evaluation, job.partOutline ? { outline: job.partOutline, layer: partLayer(job) } : undefined);
+}
+
+/**
+ * Layer colours (ACI) for the job drawing shown on screen: red and green are kept for safety
+ * meanings in the app (DESIGN.md), so the origin and stations are drawn in black and dark grey,
+ * components in dark grey and the part in blue, the one hue that stands out. The package's
+ * files keep templateDrawing's CAM colours.
+ */
+const SCREEN_ACI: Readonly<Record<string, number>> = {
+  [DRAWING_LAYERS.plate]: 8, [DRAWING_LAYERS.holes]: 9, [DRAWING_LAYERS.origin]: 7, [DRAWING_LAYERS.stations]: 250, [DRAWING_LAYERS.numbers]: 7,
+};
+
+/** The job's plate drawing as an SVG picture for the job page: the template with the part at every station. */
+export function jobDrawingSvg(job: JobDetail, v: TemplateVersion): string {
+  const drawing = jobDrawing(job, v);
+  const part = job.partOutline ? partLayer(job) : null;
+  drawing.layers = drawing.layers.map((l) => ({ ...l, color: l.name === part ? 5 : SCREEN_ACI[l.name] ?? 251 }));
+  const title = `${job.name}: ${job.partOutline ? 'the part at' : 'the template with'} every station on ${v.plate.code}, origin at the shared offset`;
+  return drawingToSvg(drawing, { widthPx: 1200, background: '#ffffff', title });
 }
 
 export const CAUTIONS = [

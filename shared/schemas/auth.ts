@@ -27,7 +27,7 @@ export const UserSchema = z.object({
 export type User = z.infer<typeof UserSchema>;
 export const UserListSchema = listOf(UserSchema);
 
-export const PasswordSchema = z.string().min(10, 'Choose a password of at least 10 characters.').max(200, 'Passwords are limited to 200 characters.');
+export const PasswordSchema = z.string({ message: 'Choose a password of at least 10 characters.' }).min(10, 'Choose a password of at least 10 characters.').max(200, 'Passwords are limited to 200 characters.');
 
 export const CreateUserInputSchema = z.object({
   email,

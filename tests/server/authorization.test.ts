@@ -72,6 +72,7 @@ const EXPECTED: Record<string, typeof PUBLIC | readonly Role[]> = {
   'POST /jobs/:id/stock-check': SIGNED_IN,
   'GET /jobs/:id/setup-sheet.html': SIGNED_IN,
   'GET /jobs/:id/package.zip': SIGNED_IN,
+  'GET /jobs/:id/drawing.svg': SIGNED_IN,
   'POST /dxf/inspect': EDITORS,
   'POST /components/:id/outline': EDITORS,
   'POST /jobs/:id/outline': EDITORS,

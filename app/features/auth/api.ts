@@ -1,6 +1,6 @@
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { z } from 'zod';
-import { UserSchema, type LoginInput, type User } from '../../../shared/schemas/auth';
+import { UserSchema, type ForgotPasswordInput, type LoginInput, type SetPasswordInput, type User } from '../../../shared/schemas/auth';
 import type { Unit } from '../../../shared/schemas/common';
 import { ApiError, apiRequest, setCsrfToken } from '../../lib/api-client';
 
@@ -8,6 +8,8 @@ export const authKeys = { me: () => ['auth', 'me'] as const };
 
 const MeSchema = z.object({ user: UserSchema });
 const LoginAnswerSchema = z.object({ user: UserSchema, csrfToken: z.string() });
+const SetPasswordAnswerSchema = z.object({ ok: z.literal(true), email: z.string() });
+const ForgotPasswordAnswerSchema = z.object({ ok: z.literal(true), message: z.string() });
 
 /** The signed-in user, or null when there is no session (a 401 is an answer here, not an error). */
 export const meQuery = () =>
@@ -57,3 +59,11 @@ export function useSetDisplayUnit() {
     onSuccess: (answer) => qc.setQueryData(authKeys.me(), answer.user),
   });
 }
+
+/** From the mailed link: sets the password (and activates an invited account); the user then signs in. */
+export const useSetPassword = () =>
+  useMutation({ mutationFn: (input: SetPasswordInput) => apiRequest('POST', '/api/auth/set-password', { body: input, schema: SetPasswordAnswerSchema }) });
+
+/** The answer is the same whether or not the address has an account. */
+export const useForgotPassword = () =>
+  useMutation({ mutationFn: (input: ForgotPasswordInput) => apiRequest('POST', '/api/auth/forgot-password', { body: input, schema: ForgotPasswordAnswerSchema }) });

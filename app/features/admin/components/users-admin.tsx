@@ -7,7 +7,8 @@ import { SelectField, TextField, inputClass } from '../../../components/ui/field
 import { DataTable, columnHelperFor } from '../../../components/ui/data-table';
 import { ErrorText } from '../../../components/ui/notice';
 import { applyServerIssues } from '../../../lib/form-errors';
-import { useCreateUser, useUpdateUser, useUsers } from '../api';
+import { useCreateUser, useInviteUser, useUpdateUser, useUsers } from '../api';
+import { InviteUserForm } from './invite-user-form';
 
 const ROLE_OPTIONS = ROLES.map((r) => ({ value: r, label: r }));
 
@@ -24,8 +25,24 @@ function RoleCell({ user }: { user: User }) {
   );
 }
 
+/** An invited user has no password yet: a new link is what helps, not reactivation. */
+function InvitedCell({ user }: { user: User }) {
+  const invite = useInviteUser();
+  return (
+    <div className="flex flex-wrap items-center gap-2">
+      <span>invited, no password yet</span>
+      <Button variant="secondary" disabled={invite.isPending} onClick={() => invite.mutate({ email: user.email, name: user.name, role: user.role })}>
+        Send the invitation again
+      </Button>
+      {invite.isSuccess ? <span role="status" className="text-sm text-safe-700">New link sent.</span> : null}
+      {invite.error ? <span role="alert" className="text-sm text-danger-700">{invite.error.message}</span> : null}
+    </div>
+  );
+}
+
 function ActiveCell({ user }: { user: User }) {
   const update = useUpdateUser();
+  if (user.invited && !user.active) return <InvitedCell user={user} />;
   return (
     <div className="flex items-center gap-2">
       <span>{user.active ? 'active' : 'deactivated'}</span>
@@ -53,7 +70,10 @@ export function UsersAdmin() {
       <div className="max-w-sm"><TextField label="Filter users" value={filter} onChange={(e) => setFilter(e.target.value)} /></div>
       <ErrorText error={users.error} />
       <DataTable caption="Users" columns={columns} data={users.data?.items ?? NO_USERS} filter={filter} getRowId={(u) => String(u.id)} />
-      <AddUserForm />
+      <div className="grid grid-cols-1 items-start gap-6 xl:grid-cols-2">
+        <InviteUserForm />
+        <AddUserForm />
+      </div>
     </div>
   );
 }
