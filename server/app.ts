@@ -64,13 +64,13 @@ export type GridsetApp = express.Express & {
 /** Builds the whole app from its dependencies; never listens (server/index.ts does). */
 export function createApp(deps: AppDeps): GridsetApp {
   const { db } = deps;
-  const naming = namingService(namingRepo(db));
+  const audit = auditRepo(db);
+  const naming = namingService(namingRepo(db), audit);
   const userRows = usersRepo(db);
   const userTokens = userTokensRepo(db);
-  const users = usersService(userRows, userTokens);
+  const users = usersService(userRows, userTokens, audit);
   const mailer = deps.mailer ?? createMailer({ db, dataDir: deps.dataDir });
   const accountLinks = accountLinksService({ db, users: userRows, tokens: userTokens, mailer, publicUrl: deps.publicUrl ?? 'http://localhost:3000', log: deps.log ?? console.error });
-  const audit = auditRepo(db);
   const catalog = catalogService(catalogRepo(db), naming, audit);
   const templates = templatesService({ db, templates: templatesRepo(db), catalog: catalogRepo(db), naming, audit });
   const jobs = jobsService({ db, jobs: jobsRepo(db), templates, audit });
@@ -129,7 +129,7 @@ export function createApp(deps: AppDeps): GridsetApp {
     ...accountLinkRoutes(accountLinks),
     ...outboxRoutes(outboxRepo(db)),
     ...catalogRoutes(catalog),
-    ...settingsRoutes(settings),
+    ...settingsRoutes(settings, audit),
     ...templateRoutes(templates),
     ...stockCheckRoutes(),
     ...namingRoutes(naming),

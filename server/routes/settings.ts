@@ -1,16 +1,21 @@
 import { CAN } from '../../shared/schemas/auth';
 import { ShopSettingsSchema } from '../../shared/schemas/settings';
 import type { SettingsRepo } from '../db/settings-repo';
+import type { AuditRepo } from '../db/audit-repo';
+import { currentUser } from '../middleware/auth';
 import { parseOr400 } from './parse';
 import type { RouteDef } from './route-table';
 
-export function settingsRoutes(settings: SettingsRepo): RouteDef[] {
+export function settingsRoutes(settings: SettingsRepo, audit: AuditRepo): RouteDef[] {
   return [
     { method: 'get', path: '/settings', access: 'signed-in', handler: async (_req, res) => {
       res.json(await settings.get());
     } },
     { method: 'put', path: '/settings', access: CAN.editSettings, handler: async (req, res) => {
-      res.json(await settings.put(parseOr400(ShopSettingsSchema, req.body, 'shop settings')));
+      const before = await settings.get();
+      const saved = await settings.put(parseOr400(ShopSettingsSchema, req.body, 'shop settings'));
+      await audit.record({ userId: currentUser(req).id, action: 'settings.save', objectType: 'settings', objectId: 'shop', summary: 'Changed the shop settings', before, after: saved });
+      res.json(saved);
     } },
   ];
 }

@@ -23,7 +23,7 @@ export function userRoutes(users: UsersService): RouteDef[] {
       handler: async (req, res) => {
         const parsed = CreateUserInputSchema.safeParse(req.body);
         if (!parsed.success) throw validationError(parsed.error, 'new user');
-        res.status(201).json(await users.create(parsed.data));
+        res.status(201).json(await users.create(currentUser(req), parsed.data));
       },
     },
     {

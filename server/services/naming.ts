@@ -1,13 +1,18 @@
 import type { NamingCheckResult, NamingConvention, NamingTarget } from '../../shared/schemas/naming';
 import { checkName } from '../../shared/naming/check-name';
 import type { NamingRepo } from '../db/naming-repo';
+import type { AuditRepo } from '../db/audit-repo';
 import { HttpError } from '../middleware/errors';
 
-export function namingService(repo: NamingRepo) {
+export function namingService(repo: NamingRepo, audit?: AuditRepo) {
   return {
     current: () => repo.current(),
     history: () => repo.history(),
-    save: (c: Omit<NamingConvention, 'version'>, userId: number) => repo.save(c, userId),
+    async save(c: Omit<NamingConvention, 'version'>, userId: number) {
+      const saved = await repo.save(c, userId);
+      await audit?.record({ userId, action: 'naming.save', objectType: 'naming', objectId: saved.version, summary: `Saved naming convention version ${saved.version}`, after: saved });
+      return saved;
+    },
     async check(target: NamingTarget, name: string): Promise<NamingCheckResult> {
       const convention = await repo.current();
       return checkName(convention[target], name, target);

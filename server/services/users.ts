@@ -1,11 +1,12 @@
 import type { CreateUserInput, UpdateUserInput, User } from '../../shared/schemas/auth';
 import type { UsersRepo } from '../db/users-repo';
+import type { AuditRepo } from '../db/audit-repo';
 import type { UserTokensRepo } from '../db/user-tokens-repo';
 import { HttpError, conflict, notFound } from '../middleware/errors';
 import { hashPassword, verifyPassword } from './passwords';
 
 /** With the tokens repository, deactivating a user also ends their unused invitation and reset links. */
-export function usersService(repo: UsersRepo, tokens?: UserTokensRepo) {
+export function usersService(repo: UsersRepo, tokens?: UserTokensRepo, audit?: AuditRepo) {
   return {
     /** Resolves to the user when the address and password match an active account, else null. */
     async authenticate(email: string, password: string): Promise<User | null> {
@@ -17,9 +18,11 @@ export function usersService(repo: UsersRepo, tokens?: UserTokensRepo) {
       return user;
     },
     list: () => repo.list(),
-    async create(input: CreateUserInput): Promise<User> {
+    async create(actor: User, input: CreateUserInput): Promise<User> {
       if (await repo.findWithHashByEmail(input.email)) throw conflict(`A user with the address ${input.email} already exists.`);
-      return repo.insert({ email: input.email, name: input.name, role: input.role, passwordHash: await hashPassword(input.password) });
+      const user = await repo.insert({ email: input.email, name: input.name, role: input.role, passwordHash: await hashPassword(input.password) });
+      await audit?.record({ userId: actor.id, action: 'user.create', objectType: 'user', objectId: user.id, summary: `Added user ${user.email} as ${user.role}`, after: { email: user.email, role: user.role } });
+      return user;
     },
     async update(actor: User, id: number, input: UpdateUserInput): Promise<User> {
       const target = await repo.findById(id);
@@ -31,7 +34,9 @@ export function usersService(repo: UsersRepo, tokens?: UserTokensRepo) {
       if (actor.id === id && input.active === false) throw new HttpError(409, 'conflict', 'You cannot deactivate your own account.');
       // Links first: should the update then fail, the user only has to ask for a new link.
       if (input.active === false && tokens) await tokens.revokeUnused(id, new Date().toISOString());
-      return (await repo.update(id, input))!;
+      const updated = (await repo.update(id, input))!;
+      await audit?.record({ userId: actor.id, action: 'user.update', objectType: 'user', objectId: id, summary: `Changed user ${target.email}: ${Object.keys(input).join(', ')}`, before: { role: target.role, active: target.active, name: target.name }, after: input });
+      return updated;
     },
     async setDisplayUnit(id: number, displayUnit: User['displayUnit']): Promise<User> {
       return (await repo.update(id, { displayUnit }))!;
