@@ -26,6 +26,8 @@ import { reviewRoutes } from './routes/reviews';
 import { auditRoutes } from './routes/audit';
 import { jobRoutes } from './routes/jobs';
 import { dxfRoutes } from './routes/dxf';
+import { manifestRoutes } from './routes/manifest';
+import { manifestService } from './services/manifest';
 import { jobsRepo } from './db/jobs-repo';
 import { jobsService } from './services/jobs';
 import { auditRepo } from './db/audit-repo';
@@ -136,6 +138,7 @@ export function createApp(deps: AppDeps): GridsetApp {
     ...reviewRoutes(reviews),
     ...auditRoutes(audit),
     ...jobRoutes(jobs),
+    ...manifestRoutes({ manifest: manifestService({ db, catalog: catalogRepo(db), naming, audit }), templates, dataDir: deps.dataDir, uploadLimitBytes: deps.uploadLimitBytes ?? 20 * 1024 * 1024 }),
     ...dxfRoutes({ dataDir: deps.dataDir, uploadLimitBytes: deps.uploadLimitBytes ?? 20 * 1024 * 1024, catalog, jobs, naming }),
   ];
   mount(api, routes);

@@ -122,6 +122,9 @@ export function catalogRepo(db: Db) {
     async updateComponent(id: number, c: ComponentFields) {
       await db('components').where({ id }).update({ ...componentToRow(c), updated_at: db.fn.now() });
     },
+    async updateComponentIn(trx: Db, id: number, c: ComponentFields) {
+      await trx('components').where({ id }).update({ ...componentToRow(c), updated_at: trx.fn.now() });
+    },
     async setOutline(id: number, outline: unknown, file: unknown) {
       await db('components').where({ id }).update({ outline: JSON.stringify(outline), outline_file: JSON.stringify(file), updated_at: db.fn.now() });
     },

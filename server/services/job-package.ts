@@ -36,6 +36,8 @@ export function jobDrawingSvg(job: JobDetail, v: TemplateVersion): string {
   const drawing = jobDrawing(job, v);
   const part = job.partOutline ? partLayer(job) : null;
   drawing.layers = drawing.layers.map((l) => ({ ...l, color: l.name === part ? 5 : SCREEN_ACI[l.name] ?? 251 }));
+  // On a screen the plate is seen whole, so the station numbers (an eighth of the pitch, sized for print) are set larger.
+  drawing.texts = drawing.texts.map((t) => (t.layer === DRAWING_LAYERS.numbers ? { ...t, height: t.height * 1.6 } : t));
   const title = `${job.name}: ${job.partOutline ? 'the part at' : 'the template with'} every station on ${v.plate.code}, origin at the shared offset`;
   return drawingToSvg(drawing, { widthPx: 1200, background: '#ffffff', title });
 }

@@ -5,6 +5,7 @@ const BENCHES: Record<string, () => Promise<{ run: () => Promise<void> }>> = {
   stations: () => import('./stations.bench'),
   'stock-check': () => import('./stock-check.bench'),
   dxf: () => import('./dxf.bench'),
+  manifest: () => import('./manifest.bench'),
 };
 
 const wanted = process.argv.slice(2);

@@ -74,6 +74,10 @@ const EXPECTED: Record<string, typeof PUBLIC | readonly Role[]> = {
   'GET /jobs/:id/package.zip': SIGNED_IN,
   'GET /jobs/:id/drawing.svg': SIGNED_IN,
   'POST /dxf/inspect': EDITORS,
+  'GET /manifest.xlsx': SIGNED_IN,
+  'GET /templates/:id/versions/:n/manifest.xlsx': SIGNED_IN,
+  'POST /manifest/preview': EDITORS,
+  'POST /manifest/commit': EDITORS,
   'POST /components/:id/outline': EDITORS,
   'POST /jobs/:id/outline': EDITORS,
 };
