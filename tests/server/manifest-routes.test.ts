@@ -23,7 +23,7 @@ describe('manifest routes', () => {
   it('previews a changed and an added row (read back and edited with exceljs, a second writer) and commits them in one transaction', async () => {
     const file = (await binary(lead.get('/api/manifest.xlsx')).expect(200)).body as Buffer;
     const wb = new ExcelJS.Workbook();
-    await wb.xlsx.load(file);
+    await wb.xlsx.load(file as never);
     const ws = wb.getWorksheet('Components')!;
     const header = (ws.getRow(1).values as unknown[]).map((v) => String(v ?? '').toLowerCase());
     const col = (name: string) => header.indexOf(name);
@@ -49,7 +49,7 @@ describe('manifest routes', () => {
   it('refuses a manifest with errors at their cells and writes nothing', async () => {
     const file = (await binary(lead.get('/api/manifest.xlsx')).expect(200)).body as Buffer;
     const wb = new ExcelJS.Workbook();
-    await wb.xlsx.load(file);
+    await wb.xlsx.load(file as never);
     const ws = wb.getWorksheet('Components')!;
     const header = (ws.getRow(1).values as unknown[]).map((v) => String(v ?? '').toLowerCase());
     ws.getRow(3).getCell(header.indexOf('code')).value = 'BAD CODE';
@@ -68,7 +68,7 @@ describe('manifest routes', () => {
   it('adds a Stations sheet for a template version', async () => {
     const file = (await binary(lead.get('/api/templates/1/versions/1/manifest.xlsx')).expect(200)).body as Buffer;
     const wb = new ExcelJS.Workbook();
-    await wb.xlsx.load(file);
+    await wb.xlsx.load(file as never);
     expect(wb.worksheets.map((w) => w.name)).toEqual(expect.arrayContaining(['Components', 'Layers', 'Stations']));
     expect(wb.getWorksheet('Stations')!.rowCount).toBe(21);
   });

@@ -1,0 +1,64 @@
+import { useState } from 'react';
+import { Download, Upload } from 'lucide-react';
+import { Button } from '../../../components/ui/button';
+import { ErrorText, Notice } from '../../../components/ui/notice';
+import { ApiError } from '../../../lib/api-client';
+import { useCommitManifest, usePreviewManifest, type ManifestAnswer } from '../api';
+
+const ACTION_WORDS = { add: 'will be added', change: 'will change', same: 'same as the catalog' } as const;
+
+/**
+ * The lead downloads the catalog as a workbook, edits it, and brings it back: every row is
+ * checked and shown before one transaction writes it; with any error nothing is written.
+ */
+export function ManifestImport({ canWrite, onCommitted }: { canWrite: boolean; onCommitted: () => Promise<unknown> }) {
+  const [file, setFile] = useState<File | null>(null);
+  const [progress, setProgress] = useState(0);
+  const preview = usePreviewManifest(setProgress);
+  const commit = useCommitManifest(setProgress, onCommitted);
+  const answer: ManifestAnswer | undefined = preview.data;
+  const commitErrors = commit.error instanceof ApiError ? ((commit.error.details as { errors?: ManifestAnswer['errors'] } | null)?.errors ?? []) : [];
+  const errors = [...(answer?.errors ?? []), ...commitErrors];
+  const changes = answer?.changes.filter((c) => c.action !== 'same') ?? [];
+  return (
+    <section className="flex flex-col gap-3 rounded border border-slate-300 bg-white p-4" aria-labelledby="manifest-title">
+      <h2 id="manifest-title" className="text-lg font-semibold">Manifest spreadsheet</h2>
+      <p className="text-slate-700">The catalog as an XLSX workbook (Components and Layers sheets). Edit it in a spreadsheet and bring it back: you see every change before anything is written.</p>
+      <div><a className="inline-flex min-h-10 items-center gap-2 rounded border border-slate-400 bg-white px-3 font-semibold hover:bg-slate-100" href="/api/manifest.xlsx" download><Download aria-hidden className="h-4 w-4" />Download the manifest</a></div>
+      {canWrite ? (
+        <>
+          <label className="flex flex-col gap-1 font-semibold text-slate-700">Bring back an edited manifest (.xlsx or .csv)
+            <input type="file" accept=".xlsx,.csv,application/vnd.openxmlformats-officedocument.spreadsheetml.sheet,text/csv" className="min-h-10 font-normal"
+              onChange={(e) => { const f = e.target.files?.[0] ?? null; setFile(f); commit.reset(); if (f) preview.mutate(f); }} />
+          </label>
+          {preview.isPending || commit.isPending ? <progress className="w-64" max={1} value={progress} aria-label="Upload progress" /> : null}
+          <ErrorText error={preview.error} />
+          {answer ? (
+            <div className="flex flex-col gap-2">
+              <p className="font-semibold">{answer.changes.length} rows read: {changes.filter((c) => c.action === 'add').length} to add, {changes.filter((c) => c.action === 'change').length} to change, {answer.changes.length - changes.length} the same · {errors.length} problem{errors.length === 1 ? '' : 's'}</p>
+              {errors.length ? (
+                <table className="w-full border-collapse text-[15px]">
+                  <caption className="mb-1 text-left font-semibold text-danger-700">Fix these in the workbook; nothing is written while any remain</caption>
+                  <thead className="bg-slate-100"><tr><th className="px-2 py-1 text-left">Sheet</th><th className="px-2 py-1 text-left">Cell</th><th className="px-2 py-1 text-left">Problem</th></tr></thead>
+                  <tbody>{errors.slice(0, 200).map((e, i) => <tr key={i} className="border-t border-slate-200"><td className="px-2 py-1">{e.sheet ?? '—'}</td><td className="px-2 py-1 font-mono">{e.column ?? ''}{e.row ?? ''}</td><td className="px-2 py-1">{e.message}</td></tr>)}</tbody>
+                </table>
+              ) : null}
+              {changes.length ? (
+                <table className="w-full border-collapse text-[15px]">
+                  <caption className="mb-1 text-left font-semibold">What the import will do</caption>
+                  <thead className="bg-slate-100"><tr><th className="px-2 py-1 text-left">Row</th><th className="px-2 py-1 text-left">Code</th><th className="px-2 py-1 text-left">Change</th><th className="px-2 py-1 text-left">Fields</th></tr></thead>
+                  <tbody>{changes.map((c) => <tr key={`${c.sheet}-${c.row}`} className="border-t border-slate-200"><td className="num px-2 py-1">{c.row}</td><td className="px-2 py-1 font-mono">{c.code}</td><td className="px-2 py-1">{ACTION_WORDS[c.action]}</td><td className="px-2 py-1">{c.fields.join(', ')}</td></tr>)}</tbody>
+                </table>
+              ) : errors.length ? null : <Notice tone="info" title="Every row is the same as the catalog; there is nothing to import." />}
+              {file && !errors.length && changes.length ? (
+                <div><Button onClick={() => commit.mutate(file)} disabled={commit.isPending}><Upload aria-hidden className="h-4 w-4" />Import {changes.length} change{changes.length === 1 ? '' : 's'}</Button></div>
+              ) : null}
+              {commit.isSuccess ? <Notice tone="info" title="Imported. The catalog now matches the manifest." /> : null}
+              {commit.error && !commitErrors.length ? <ErrorText error={commit.error} /> : null}
+            </div>
+          ) : null}
+        </>
+      ) : null}
+    </section>
+  );
+}
