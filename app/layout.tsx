@@ -26,6 +26,7 @@ export function Layout() {
             <img src="/favicon.svg" alt="" className="h-7 w-7" /> Gridset
           </NavLink>
           <NavLink to="/templates" className={navClass}>Templates</NavLink>
+          <NavLink to="/jobs" className={navClass}>Jobs</NavLink>
           <NavLink to="/stock-check" className={navClass}>Stock check</NavLink>
           <NavLink to="/catalog/components" className={navClass}>Components</NavLink>
           <NavLink to="/catalog/plates" className={navClass}>Plates</NavLink>

@@ -17,6 +17,8 @@ import { NamingRoute } from './routes/naming';
 import { AuditRoute } from './routes/audit';
 import { TemplateCompareRoute } from './routes/template-compare';
 import { TemplateVersionRoute } from './routes/template-version';
+import { JobsRoute } from './routes/jobs';
+import { JobRoute } from './routes/job';
 import { StockCheckRoute } from './routes/stock-check';
 import { OutboxRoute } from './routes/outbox';
 import { SetPasswordRoute } from './routes/set-password';
@@ -49,6 +51,8 @@ export const router = createBrowserRouter([
         children: [
           { index: true, element: <HomeRoute /> },
           { path: 'templates', element: <TemplatesRoute /> },
+          { path: 'jobs', element: <JobsRoute /> },
+          { path: 'jobs/:id', element: <JobRoute /> },
           { path: 'templates/:id/versions/:n', element: <TemplateVersionRoute /> },
           { path: 'stock-check', element: <StockCheckRoute /> },
           { path: 'templates/:id/compare', element: <TemplateCompareRoute /> },

@@ -82,6 +82,7 @@ export function templateRoutes(templates: TemplatesService): RouteDef[] {
     } },
     { method: 'get', path: '/templates/:id/versions/:n/drawing.dxf', access: 'signed-in', handler: async (req, res) => {
       const v = await load(req.params);
+      await templates.requireExportableNames(v);
       const dxf = writeDrawingDxf(templateDrawing(v, templates.evaluation(v)));
       res.type('application/dxf').attachment(fileName(v.name, v.version, 'drawing.dxf')).send(dxf);
     } },

@@ -110,6 +110,18 @@ export function templatesService(deps: { db: Db; templates: TemplatesRepo; catal
 
   return {
     present,
+    /**
+     * A drawing leaves Gridset only with layer names the convention accepts, or with the lead's
+     * written waiver on the version.
+     */
+    async requireExportableNames(v: TemplateVersion) {
+      if (v.namingWaiver) return;
+      const convention = await naming.current();
+      const layers = versionNamingProblems(v, convention).filter((p) => p.target === 'layer');
+      if (layers.length) {
+        throw new HttpError(400, 'naming', `The drawing would carry layers that break the naming convention: ${layers[0]!.message}${layers.length > 1 ? ` (and ${layers.length - 1} more)` : ''}. Rename the components' layers in the catalog and start a new version, or have a lead release it with a waiver.`, { naming: layers });
+      }
+    },
     /** Stations and origin of a presented version (from the cache by its content hash). */
     evaluation(v: TemplateVersion): TemplateEvaluation {
       const hit = evaluations.get(v.contentHash);

@@ -69,3 +69,16 @@ describe('release and the naming convention', () => {
     await lead.put('/api/naming/convention', rules).expect(200);
   });
 });
+
+describe('drawing export and the naming convention', () => {
+  it('refuses a drawing whose layers break the convention, naming the layer', async () => {
+    // A convention without the GRID-… pattern refuses the drawing's own plate and hole layers.
+    const { version: _v, ...rules } = DEMO_CONVENTION;
+    await lead.put('/api/naming/convention', { ...rules, layer: { ...rules.layer, patterns: rules.layer.patterns.filter((p) => !p.startsWith('GRID-')), tokens: rules.layer.tokens.filter((tk) => tk.name !== 'what') } }).expect(200);
+    const res = await programmer.get('/api/templates/2/versions/1/drawing.dxf');
+    expect(res.status).toBe(400);
+    expect(res.body.error.message).toMatch(/GRID-/);
+    await lead.put('/api/naming/convention', rules).expect(200);
+    expect((await programmer.get('/api/templates/2/versions/1/drawing.dxf')).status).toBe(200);
+  });
+});

@@ -28,14 +28,19 @@ export function resultRows(run: CheckRun, supplier: SupplierFlags): BarResultRow
 }
 
 /** The inputs the advice was worked out from, named (PRODUCT.md, Safety). */
-function inputsLine(run: CheckRun): string {
+function inputsLine(run: CheckRun, clampFrom: string): string {
   const { request, rail } = run;
   const u = request.unit;
-  return `rail ${rail.code} and its clamp model from the catalog, nominal opening ${formatLength(request.nominalOpening, u)}, carrier ${formatLength(request.carrier, u)}, tool clearance ${formatLength(request.clearance, u)}, minimum bite ${formatLength(request.minBite, u)}, ${plural(request.bars.length)} as measured`;
+  return `rail ${rail.code} and its clamp model from ${clampFrom}, nominal opening ${formatLength(request.nominalOpening, u)}, carrier ${formatLength(request.carrier, u)}, tool clearance ${formatLength(request.clearance, u)}, minimum bite ${formatLength(request.minBite, u)}, ${plural(request.bars.length)} as measured`;
 }
 
 /** What a check said: the sorting list first, the caution, the bars no setting takes, the supplier matter and the chart. */
-export const StockCheckResults = forwardRef<HTMLHeadingElement, { run: CheckRun; stale: boolean }>(function StockCheckResults({ run, stale }, headingRef) {
+export const StockCheckResults = forwardRef<HTMLHeadingElement, {
+  run: CheckRun;
+  stale: boolean;
+  /** Where the rail's clamp model came from, for the inputs line: "the catalog" here, a template version on a job. */
+  clampFrom?: string;
+}>(function StockCheckResults({ run, stale, clampFrom = 'the catalog' }, headingRef) {
   const { request, response, rail } = run;
   const unit = request.unit;
   const supplier = useMemo(() => supplierFlags(run), [run]);
@@ -85,7 +90,7 @@ export const StockCheckResults = forwardRef<HTMLHeadingElement, { run: CheckRun;
 
       <Notice tone="caution" title="Advice, not a go-ahead">
         <p>{STOCK_CHECK_ADVICE}</p>
-        <p className="mt-1 text-sm">Worked out for: {inputsLine(run)}.</p>
+        <p className="mt-1 text-sm">Worked out for: {inputsLine(run, clampFrom)}.</p>
       </Notice>
 
       {response.unplaceable.length > 0 ? (

@@ -1,0 +1,96 @@
+import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import { useState } from 'react';
+import { z } from 'zod';
+import { UnitSchema, type Unit } from '../../../shared/schemas/common';
+import { JobDetailSchema, JobListSchema, JobStockCheckInputSchema, type JobInput } from '../../../shared/schemas/job';
+import { StockCheckResponseSchema, type MeasuredBarInput } from '../../../shared/schemas/stock-check';
+import { api, uploadWithProgress } from '../../lib/api-client';
+
+export const jobKeys = {
+  all: ['jobs'] as const,
+  list: () => [...jobKeys.all, 'list'] as const,
+  detail: (id: number) => [...jobKeys.all, id] as const,
+};
+
+export const jobsQuery = () => queryOptions({ queryKey: jobKeys.list(), queryFn: () => api.get('/api/jobs', JobListSchema) });
+export const jobQuery = (id: number) => queryOptions({ queryKey: jobKeys.detail(id), queryFn: () => api.get(`/api/jobs/${id}`, JobDetailSchema) });
+
+export const useJobs = () => useQuery(jobsQuery());
+export const useJob = (id: number) => useQuery(jobQuery(id));
+
+export function useCreateJob() {
+  const qc = useQueryClient();
+  return useMutation({
+    mutationFn: (input: JobInput) => api.post('/api/jobs', input, JobDetailSchema),
+    onSuccess: (job) => {
+      qc.setQueryData(jobKeys.detail(job.id), job);
+      void qc.invalidateQueries({ queryKey: jobKeys.list() });
+    },
+  });
+}
+
+export function useUpdateJob(id: number) {
+  const qc = useQueryClient();
+  return useMutation({
+    mutationFn: (input: JobInput) => api.put(`/api/jobs/${id}`, input, JobDetailSchema),
+    onSuccess: (job) => {
+      qc.setQueryData(jobKeys.detail(id), job);
+      void qc.invalidateQueries({ queryKey: jobKeys.list() });
+    },
+  });
+}
+
+export interface PartOutlineUpload {
+  file: File;
+  /** The drawing's unit, used only when the file does not say ($INSUNITS 0 or missing). */
+  unit: Unit;
+  /** The part's datum in drawing coordinates; the lower-left corner of its extents when left out. */
+  datumX?: number;
+  datumY?: number;
+}
+
+/** The part's DXF outline, with the fraction sent so far (null before the first progress event). */
+export function useUploadPartOutline(id: number) {
+  const qc = useQueryClient();
+  const [progress, setProgress] = useState<number | null>(null);
+  const mutation = useMutation({
+    mutationFn: ({ file, unit, datumX, datumY }: PartOutlineUpload) => {
+      const form = new FormData();
+      form.append('unit', unit);
+      if (datumX !== undefined) form.append('datumX', String(datumX));
+      if (datumY !== undefined) form.append('datumY', String(datumY));
+      // The file last: multer reads the text fields before it streams the file.
+      form.append('file', file, file.name);
+      setProgress(0);
+      return uploadWithProgress(`/api/jobs/${id}/outline`, form, setProgress, { schema: JobDetailSchema });
+    },
+    retry: false,
+    onSuccess: (job) => {
+      qc.setQueryData(jobKeys.detail(id), job);
+      void qc.invalidateQueries({ queryKey: jobKeys.list() });
+    },
+    onSettled: () => setProgress(null),
+  });
+  return { ...mutation, progress };
+}
+
+/** What the job's stock check answers: the contract's response plus the rail it was checked against. */
+export const JobStockCheckAnswerSchema = StockCheckResponseSchema.extend({
+  jawPlacement: z.string(),
+  nominalOpening: z.number(),
+  unit: UnitSchema,
+  appliesTo: z.array(z.string()),
+});
+
+/** Measured bars against one jaw rail of the job's pinned template; the server keeps the result with the job. */
+export function useJobStockCheck(id: number) {
+  const qc = useQueryClient();
+  return useMutation({
+    mutationFn: (input: { jawPlacement: string; bars: MeasuredBarInput[] }) =>
+      api.post(`/api/jobs/${id}/stock-check`, JobStockCheckInputSchema.parse(input), JobStockCheckAnswerSchema),
+    retry: false,
+    onSuccess: () => qc.invalidateQueries({ queryKey: jobKeys.detail(id) }),
+  });
+}
+
+export const jobFileUrl = (id: number, file: 'package.zip' | 'setup-sheet.html' | 'drawing.svg') => `/api/jobs/${id}/${file}`;

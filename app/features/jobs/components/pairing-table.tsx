@@ -1,0 +1,68 @@
+import type { Unit } from '../../../../shared/schemas/common';
+import type { Station } from '../../../../shared/schemas/template';
+import { formatLength } from '../../../../shared/units/units';
+import { stationRuns } from '../job-format';
+import type { JobRail } from '../job-rails';
+
+/**
+ * Which jaw rail holds which width for which stations, with the choice of the rail whose clamp
+ * window the measured bars are checked against. A rail whose component carries no clamp model
+ * in the pinned version cannot be chosen.
+ */
+export function PairingTable({ rails, stations, unit, selected, onSelect, hasClamp }: {
+  rails: readonly JobRail[];
+  stations: readonly Station[];
+  unit: Unit;
+  selected: string | null;
+  onSelect: (jawPlacement: string) => void;
+  hasClamp: (jawComponent: string) => boolean;
+}) {
+  const numberOf = new Map(stations.map((s) => [s.id, s.number]));
+  return (
+    <section aria-labelledby="pairing-title" className="flex flex-col gap-2">
+      <h2 id="pairing-title" className="text-lg font-semibold">Jaw rails <span className="font-normal text-slate-600">— which rail holds which width, for which stations</span></h2>
+      {rails.length === 0 ? (
+        <p className="rounded border border-slate-300 bg-white p-3 text-slate-800">No jaw rail of this template faces a fixed jaw, so there is no clamp window to check bars against.</p>
+      ) : (
+        <div className="overflow-x-auto rounded border border-slate-300 bg-white">
+          <table className="w-full border-collapse text-[15px]">
+            <caption className="sr-only">Jaw rails of the pinned template and the rail the bars are checked against</caption>
+            <thead className="bg-slate-100">
+              <tr>
+                <th scope="col" className="border-b border-slate-300 px-3 py-2 text-left font-semibold text-slate-700">Check bars for</th>
+                <th scope="col" className="border-b border-slate-300 px-3 py-2 text-left font-semibold text-slate-700">Jaw rail</th>
+                <th scope="col" className="border-b border-slate-300 px-3 py-2 text-left font-semibold text-slate-700">On hole</th>
+                <th scope="col" className="border-b border-slate-300 px-3 py-2 text-left font-semibold text-slate-700">Against</th>
+                <th scope="col" className="border-b border-slate-300 px-3 py-2 text-right font-semibold text-slate-700">Width held</th>
+                <th scope="col" className="border-b border-slate-300 px-3 py-2 text-left font-semibold text-slate-700">Stations</th>
+              </tr>
+            </thead>
+            <tbody>
+              {rails.map((r) => {
+                const clamp = hasClamp(r.jawComponent);
+                const isSelected = selected === r.jawPlacement;
+                const numbers = r.stations.map((id) => numberOf.get(id)).filter((n): n is number => n !== undefined);
+                return (
+                  <tr key={r.jawPlacement} className={`border-b border-slate-200 last:border-0 ${isSelected ? 'bg-accent-50' : ''}`}>
+                    <td className="px-3 py-1">
+                      <label className={`inline-flex min-h-10 items-center gap-2 font-semibold ${clamp ? 'cursor-pointer' : 'text-slate-500'}`}>
+                        <input type="radio" name="check-rail" className="h-5 w-5 accent-accent-700" checked={isSelected} disabled={!clamp}
+                          onChange={() => onSelect(r.jawPlacement)} aria-label={`Check bars for rail ${r.jawPlacement}`} />
+                        {clamp ? (isSelected ? 'this rail' : 'choose') : 'no clamp model'}
+                      </label>
+                    </td>
+                    <td className="px-3 py-2"><span className="font-mono font-semibold">{r.jawPlacement}</span> <span className="font-mono text-slate-700">{r.jawComponent}</span></td>
+                    <td className="px-3 py-2 font-mono [font-variant-numeric:tabular-nums]">({r.pairings[0]!.jawHole.col}, {r.pairings[0]!.jawHole.row})</td>
+                    <td className="px-3 py-2">{r.pairings.map((p) => <span key={`${p.fixedPlacement}:${p.fixedFace}`} className="block"><span className="font-mono">{p.fixedPlacement}</span> <span className="font-mono text-slate-700">{p.fixedComponent}</span></span>)}</td>
+                    <td className="num px-3 py-2">{r.pairings.map((p) => <span key={`${p.fixedPlacement}:${p.fixedFace}`} className="block">{formatLength(p.width, unit)}</span>)}</td>
+                    <td className="px-3 py-2"><span className="font-mono [font-variant-numeric:tabular-nums]">{stationRuns(numbers) || '—'}</span> <span className="text-slate-600">({numbers.length})</span></td>
+                  </tr>
+                );
+              })}
+            </tbody>
+          </table>
+        </div>
+      )}
+    </section>
+  );
+}

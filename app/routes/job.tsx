@@ -1,0 +1,272 @@
+import { forwardRef, useEffect, useMemo, useRef, useState, type FormEvent } from 'react';
+import { Link, useParams } from 'react-router-dom';
+import { useQuery } from '@tanstack/react-query';
+import { Pencil, ScanLine } from 'lucide-react';
+import { STOCK_CHECK_ADVICE } from '../../shared/clamps/reason-text';
+import { may } from '../../shared/schemas/auth';
+import type { ClampModel } from '../../shared/schemas/catalog';
+import type { JobDetail, JobStockCheck } from '../../shared/schemas/job';
+import type { TemplateSummary, TemplateVersion } from '../../shared/schemas/template-api';
+import { formatLength, formatNumber } from '../../shared/units/units';
+import { Page } from '../components/ui/page';
+import { Button } from '../components/ui/button';
+import { ErrorText, Notice } from '../components/ui/notice';
+import { ApiError } from '../lib/api-client';
+import { applyServerIssues } from '../lib/form-errors';
+import { useMe } from '../features/auth/api';
+import { useJob, useJobStockCheck, useUpdateJob } from '../features/jobs/api';
+import { formatServerTime } from '../features/jobs/job-format';
+import { checkedBeforeEdit, jobCheckRun, jobRails, railClamp, type JobCheckRun, type JobRail } from '../features/jobs/job-rails';
+import { JobDrawing } from '../features/jobs/components/job-drawing';
+import { JobFiles, JobSetupFacts, NewerReleaseNotice, RuntimeCard } from '../features/jobs/components/job-facts';
+import { JobForm } from '../features/jobs/components/job-form';
+import { PairingTable } from '../features/jobs/components/pairing-table';
+import { PartOutlineUpload } from '../features/jobs/components/part-outline-upload';
+import { useTemplates, versionFileUrl, versionQuery } from '../features/templates/api';
+import { BarTable, barCellId, makeBarRow, type BarRow } from '../features/stock-check/components/bar-table';
+import { BarsPaste } from '../features/stock-check/components/bars-paste';
+import { BarByBar, StockCheckResults } from '../features/stock-check/components/stock-check-results';
+import { BAR_FIELDS, BAR_FIELD_LABEL, readBarTable, type BarField, type PastedRow, type TableProblem } from '../features/stock-check/parse-bars';
+
+const NO_TEMPLATES: TemplateSummary[] = [];
+const SHOWN_PROBLEMS = 12;
+const firstRows = () => [makeBarRow({ id: 'B1' }, true), makeBarRow({ id: 'B2' }, true), makeBarRow({ id: 'B3' }, true)];
+
+/**
+ * One screen, one job: where the part sits at every station, how long a load runs, which bars go
+ * on which rail setting, and the files for the machine. Operators read it all and enter bars;
+ * programmers and leads also edit the job and its part outline.
+ */
+export function JobRoute() {
+  const id = Number(useParams().id);
+  const me = useMe();
+  const job = useJob(id);
+  const j = job.data;
+  const version = useQuery({ ...versionQuery(j?.templateId ?? 0, j?.version ?? 0), enabled: !!j });
+  const canEdit = may(me.data?.role, 'editTemplates');
+  const [editing, setEditing] = useState(false);
+
+  if (job.error) return <Page title="Job"><ErrorText error={job.error} /><p><Link className="text-accent-700 underline" to="/jobs">All jobs</Link></p></Page>;
+  if (!j) return <Page title="Job"><p className="text-slate-700">Loading the job…</p></Page>;
+  const v = version.data;
+  return (
+    <Page
+      title={j.name}
+      subtitle={
+        <span className="flex flex-wrap items-center gap-x-2">
+          <span>Part <span className="font-mono font-semibold text-slate-900">{j.partNumber}</span>{j.partRevision ? <> rev <span className="font-mono font-semibold text-slate-900">{j.partRevision}</span></> : null}</span>
+          <span aria-hidden>·</span>
+          <span>on <Link className="text-accent-700 underline" to={`/templates/${j.templateId}/versions/${j.version}`}>{j.templateName} v{j.version}</Link> ({j.versionState}, pinned)</span>
+          <span aria-hidden>·</span>
+          <span>content hash <span className="font-mono" title={j.contentHash}>{j.contentHash.slice(0, 16)}</span></span>
+        </span>
+      }
+      actions={<JobFiles job={j} stationsCsvUrl={versionFileUrl(j.templateId, j.version, 'stations.csv')} />}
+    >
+      <NewerReleaseNotice job={j} canEdit={canEdit} />
+      {version.error ? <ErrorText error={version.error} /> : null}
+
+      <div className="grid grid-cols-1 items-start gap-6 lg:grid-cols-[minmax(0,1fr)_22rem]">
+        <JobDrawing job={j} plateCode={v?.plate.code ?? ''} offsetName={v?.sharedOffset.name ?? 'shared offset'} />
+        <div className="flex flex-col gap-4">
+          <RuntimeCard job={j} />
+          <JobSetupFacts job={j} />
+          {canEdit && !editing ? (
+            <Button variant="secondary" onClick={() => setEditing(true)}><Pencil aria-hidden className="h-4 w-4" />Edit job</Button>
+          ) : null}
+        </div>
+      </div>
+
+      {canEdit && editing ? <EditJob job={j} onDone={() => setEditing(false)} /> : null}
+      {canEdit ? <PartOutlineUpload job={j} /> : null}
+
+      {v ? <StockCheckSection job={j} version={v} /> : <p className="text-slate-700">Loading the template version…</p>}
+    </Page>
+  );
+}
+
+function EditJob({ job, onDone }: { job: JobDetail; onDone: () => void }) {
+  const templates = useTemplates();
+  const update = useUpdateJob(job.id);
+  const { name, partNumber, partRevision, templateId, version, stock, carrier, clearance, minBite, cycleMinutes, loadMinutes, notes } = job;
+  if (templates.error) return <ErrorText error={templates.error} />;
+  // The selects are uncontrolled: they are drawn once their options are known, so what shows is what is sent.
+  if (templates.isPending) return <p className="text-slate-700">Loading templates…</p>;
+  return (
+    <JobForm
+      title="Edit job"
+      submitLabel="Save job"
+      templates={templates.data?.items ?? NO_TEMPLATES}
+      defaultValues={{ name, partNumber, partRevision, templateId, version, stock, carrier, clearance, minBite, cycleMinutes, loadMinutes, notes }}
+      pending={update.isPending}
+      error={update.error}
+      onSubmit={(values, setError) => update.mutate(values, { onSuccess: onDone, onError: (err) => applyServerIssues(err, setError) })}
+      onCancel={onDone}
+    />
+  );
+}
+
+/** The pairing table, the bars the operator measured, and what the latest check of the chosen rail said. */
+function StockCheckSection({ job, version }: { job: JobDetail; version: TemplateVersion }) {
+  const rails = useMemo(() => jobRails(job.pairings), [job.pairings]);
+  const clamps = useMemo(() => new Map(rails.map((r) => [r.jawComponent, railClamp(version.components, r.jawComponent, job.unit)])), [rails, version.components, job.unit]);
+  const [chosen, setChosen] = useState<string | null>(null);
+  const selected = rails.find((r) => r.jawPlacement === chosen && clamps.get(r.jawComponent))
+    ?? rails.find((r) => r.jawPlacement === job.stockChecks[0]?.jawPlacement && clamps.get(r.jawComponent))
+    ?? rails.find((r) => clamps.get(r.jawComponent)) ?? null;
+  const clamp = selected ? clamps.get(selected.jawComponent) ?? null : null;
+  const checks = selected ? job.stockChecks.filter((c) => c.jawPlacement === selected.jawPlacement) : [];
+  const latest = checks[0] ?? null;
+  const run = useMemo(() => (selected && clamp && latest ? jobCheckRun(job, latest, railFor(selected, clamp)) : null), [job, latest, selected, clamp]);
+  const resultsHeading = useRef<HTMLHeadingElement>(null);
+  const [focusCheck, setFocusCheck] = useState<number | null>(null);
+
+  // After the operator's own check, bring its answer into view (and to a screen reader).
+  useEffect(() => {
+    if (latest && focusCheck !== null && latest.id !== focusCheck) {
+      resultsHeading.current?.focus();
+      setFocusCheck(null);
+    }
+  }, [latest, focusCheck]);
+
+  return (
+    <section aria-labelledby="stock-check-title" className="flex flex-col gap-4 border-t border-slate-300 pt-4">
+      <div>
+        <h2 id="stock-check-title" className="text-xl font-semibold">Stock check: which bars go on which rail setting</h2>
+        <p className="text-slate-700">Measure the bars, choose the jaw rail, and check them against its clamp window with this job’s carrier, clearance and minimum bite.</p>
+      </div>
+      <PairingTable rails={rails} stations={job.stationList} unit={job.unit} selected={selected?.jawPlacement ?? null}
+        onSelect={(p) => { setChosen(p); setFocusCheck(null); }} hasClamp={(code) => !!clamps.get(code)} />
+      {selected && clamp ? (
+        <>
+          <div className="grid grid-cols-1 items-start gap-6 xl:grid-cols-[minmax(0,31rem)_minmax(0,1fr)]">
+            <BarsEntry job={job} rail={selected} clamp={clamp} onChecked={() => setFocusCheck(latest?.id ?? -1)} />
+            <section aria-label="Latest check" className="flex flex-col gap-4">
+              {latest && run ? (
+                <LatestCheck ref={resultsHeading} job={job} rail={selected} check={latest} run={run} count={checks.length} />
+              ) : (
+                <div className="flex flex-col gap-3 rounded border border-dashed border-slate-400 bg-white p-6 text-slate-800">
+                  <h3 className="text-xl font-semibold">No bars checked on {selected.jawPlacement} yet</h3>
+                  <p>Type or paste the measured bars and press <span className="font-semibold">Check the bars</span>. The sorting list, the bars that cannot be used, and a chart of every bar against each setting’s window appear here, and stay with the job.</p>
+                  <Notice tone="caution" title="Advice, not a go-ahead">{STOCK_CHECK_ADVICE}</Notice>
+                </div>
+              )}
+            </section>
+          </div>
+          {latest && run ? <BarByBar run={run} stale={checkedBeforeEdit(job, latest)} /> : null}
+        </>
+      ) : rails.length > 0 ? (
+        <Notice tone="info" title="No jaw rail of this template has a clamp model">A lead adds the clamp model to the jaw rail in the catalog; a new template version then carries it.</Notice>
+      ) : null}
+    </section>
+  );
+}
+
+const railFor = (rail: JobRail, clamp: ClampModel) => ({ code: `${rail.jawPlacement} (${rail.jawComponent})`, name: rail.jawComponent, clamp });
+
+const LatestCheck = forwardRef<HTMLHeadingElement, { job: JobDetail; rail: JobRail; check: JobStockCheck; run: JobCheckRun; count: number }>(
+  function LatestCheck({ job, rail, check, run, count }, ref) {
+    return (
+      <>
+        <p className="text-slate-700">
+          Latest check on <span className="font-mono font-semibold">{rail.jawPlacement}</span>: {formatServerTime(check.at)}{check.by ? ` by ${check.by}` : ''}
+          {count > 1 ? ` · ${count} checks of this rail kept with the job` : ''}.
+        </p>
+        <StockCheckResults ref={ref} run={run} stale={checkedBeforeEdit(job, check)} clampFrom={`${job.templateName} v${job.version}`} />
+      </>
+    );
+  },
+);
+
+/** The measured bars, typed or pasted, posted with the chosen rail; problems shown on the cells that cause them. */
+function BarsEntry({ job, rail, clamp, onChecked }: { job: JobDetail; rail: JobRail; clamp: ClampModel; onChecked: () => void }) {
+  const [rows, setRows] = useState<BarRow[]>(firstRows);
+  const [problems, setProblems] = useState<TableProblem[]>([]);
+  const check = useJobStockCheck(job.id);
+  const unit = job.unit;
+
+  const focusCell = (index: number, field: BarField) => {
+    const row = rows[index];
+    if (row) document.getElementById(barCellId(row.key, field))?.focus();
+  };
+
+  const submit = (e: FormEvent) => {
+    e.preventDefault();
+    const table = readBarTable(rows, unit);
+    if (!table.ok) {
+      setProblems(table.problems);
+      focusCell(table.problems[0]!.index, table.problems[0]!.field);
+      return;
+    }
+    if (table.bars.length === 0) {
+      setProblems([{ index: 0, field: 'width', message: 'No bars yet: type each bar in the table, or paste rows from a spreadsheet.' }]);
+      focusCell(0, 'width');
+      return;
+    }
+    setProblems([]);
+    onChecked();
+    check.mutate({ jawPlacement: rail.jawPlacement, bars: table.bars }, {
+      onError: (err) => {
+        if (!(err instanceof ApiError)) return;
+        // bars.3.width is the table row of bar 4.
+        const rowIssues: TableProblem[] = [];
+        for (const issue of err.issues) {
+          const m = /^bars\.(\d+)\.(\w+)$/.exec(issue.path);
+          const field = m?.[2] as BarField | undefined;
+          if (m && field && (BAR_FIELDS as readonly string[]).includes(field)) {
+            const index = table.rowOf[Number(m[1])] ?? 0;
+            rowIssues.push({ index, field, message: `row ${index + 1}, ${BAR_FIELD_LABEL[field]}: ${issue.message}` });
+          }
+        }
+        if (rowIssues.length > 0) setProblems(rowIssues);
+      },
+    });
+  };
+
+  const applyPaste = (pasted: PastedRow[], mode: 'replace' | 'append') => {
+    const fresh = pasted.map((p) => makeBarRow(p.cells));
+    setRows((rs) => (mode === 'replace' ? fresh : [...rs.filter((r) => !(r.autoId && !r.cells.width.trim() && !r.cells.thickness.trim() && !r.cells.cornerRadius.trim())), ...fresh]));
+    setProblems([]);
+  };
+
+  const tableIds = new Map<string, number>();
+  rows.forEach((r, i) => {
+    const id = r.cells.id.trim();
+    const blank = !r.cells.width.trim() && !r.cells.thickness.trim() && !r.cells.cornerRadius.trim();
+    if (id && !(blank && r.autoId) && !tableIds.has(id)) tableIds.set(id, i + 1);
+  });
+
+  return (
+    <form noValidate onSubmit={submit} aria-labelledby="bars-entry-title" className="flex flex-col gap-4 rounded border border-slate-300 bg-white p-4">
+      <h3 id="bars-entry-title" className="text-lg font-semibold">Measured bars for {rail.jawPlacement} <span className="font-mono font-normal text-slate-700">{rail.jawComponent}</span></h3>
+      <dl className="grid grid-cols-[minmax(0,1fr)_auto] gap-x-4 gap-y-0.5 text-slate-800">
+        {([
+          ['Nominal opening', formatLength(rail.width, unit)],
+          ['Width window', `−${formatNumber(clamp.acceptBelow, unit)} / +${formatLength(clamp.acceptAbove, unit)}`],
+          ['Slot slop', `±${formatLength(clamp.slotSlop, unit)}`],
+          ['Carrier (job)', formatLength(job.carrier, unit)],
+          ['Tool clearance (job)', formatLength(job.clearance, unit)],
+          ['Minimum bite (job)', formatLength(job.minBite, unit)],
+        ] as const).map(([k, v]) => (
+          <div key={k} className="contents"><dt>{k}</dt><dd className="num">{v}</dd></div>
+        ))}
+      </dl>
+      <BarsPaste unit={unit} tableIds={tableIds} onApply={applyPaste} />
+      <BarTable rows={rows} onRowsChange={setRows} unit={unit} problems={problems}
+        onCellEdit={(index, field) => setProblems((ps) => (ps.some((p) => p.index === index && p.field === field) ? ps.filter((p) => !(p.index === index && p.field === field)) : ps))} />
+      {problems.length > 0 ? (
+        <div role="alert" className="rounded border-l-4 border-danger-700 bg-danger-50 p-3 text-danger-700">
+          <p className="font-semibold">{problems.length === 1 ? 'One cell needs fixing' : `${problems.length} cells need fixing`} before the check can run:</p>
+          <ul className="mt-1 list-disc pl-5 text-slate-900">{problems.slice(0, SHOWN_PROBLEMS).map((p, i) => <li key={i}>{p.message}</li>)}</ul>
+          {problems.length > SHOWN_PROBLEMS ? <p className="mt-1 text-slate-900">…and {problems.length - SHOWN_PROBLEMS} more.</p> : null}
+        </div>
+      ) : null}
+      <div className="sticky bottom-0 flex flex-col gap-2 border-t border-slate-300 bg-white py-3">
+        <ErrorText error={check.error} />
+        <Button type="submit" disabled={check.isPending} className="min-h-12 text-lg">
+          <ScanLine aria-hidden className="h-5 w-5" />{check.isPending ? 'Checking…' : `Check the bars on ${rail.jawPlacement}`}
+        </Button>
+      </div>
+    </form>
+  );
+}
