@@ -133,7 +133,7 @@ export function createApp(deps: AppDeps): GridsetApp {
     ...catalogRoutes(catalog),
     ...settingsRoutes(settings, audit),
     ...templateRoutes(templates),
-    ...stockCheckRoutes(),
+    ...stockCheckRoutes({ dataDir: deps.dataDir, uploadLimitBytes: deps.uploadLimitBytes ?? 20 * 1024 * 1024 }),
     ...namingRoutes(naming),
     ...reviewRoutes(reviews),
     ...auditRoutes(audit),

@@ -53,6 +53,7 @@ const EXPECTED: Record<string, typeof PUBLIC | readonly Role[]> = {
   'GET /templates/:id/versions/:n/drawing.dxf': SIGNED_IN,
   'GET /templates/:id/versions/:n/drawing.svg': SIGNED_IN,
   'POST /stock-check': SIGNED_IN,
+  'POST /stock-check/bars-file': SIGNED_IN,
   'GET /naming/convention': SIGNED_IN,
   'PUT /naming/convention': ['lead'],
   'GET /naming/conventions': SIGNED_IN,

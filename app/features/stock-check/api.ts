@@ -1,6 +1,7 @@
+import { z } from 'zod';
 import { useMutation } from '@tanstack/react-query';
 import { StockCheckRequestSchema, StockCheckResponseSchema, type StockCheckRequestInput } from '../../../shared/schemas/stock-check';
-import { api } from '../../lib/api-client';
+import { api, uploadWithProgress } from '../../lib/api-client';
 
 export const stockCheckKeys = {
   all: ['stock-check'] as const,
@@ -18,4 +19,11 @@ export function postStockCheck(input: StockCheckRequestInput) {
 
 export function useStockCheck() {
   return useMutation({ mutationKey: stockCheckKeys.run(), mutationFn: postStockCheck, retry: false });
+}
+
+/** A CSV or XLSX file of measured bars, turned by the server into tab-separated text for the paste reader. */
+export function readBarsFile(file: File) {
+  const form = new FormData();
+  form.append('file', file);
+  return uploadWithProgress('/api/stock-check/bars-file', form, () => {}, { schema: z.object({ text: z.string(), sheet: z.string().nullable() }) });
 }

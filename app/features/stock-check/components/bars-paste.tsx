@@ -4,6 +4,7 @@ import type { Unit } from '../../../../shared/schemas/common';
 import { Button } from '../../../components/ui/button';
 import { inputClass } from '../../../components/ui/field';
 import { parseBarsPaste, type PastedRow, type PasteProblem } from '../parse-bars';
+import { readBarsFile } from '../api';
 
 const SEPARATOR_WORD = { tab: 'tab', semicolon: 'semicolon', comma: 'comma' } as const;
 const SHOWN_PROBLEMS = 12;
@@ -22,6 +23,18 @@ export function BarsPaste({ unit, tableIds, onApply }: {
   const [text, setText] = useState('');
   const [problems, setProblems] = useState<PasteProblem[]>([]);
   const [done, setDone] = useState<string | null>(null);
+  const [fileNote, setFileNote] = useState<string | null>(null);
+  const onFile = async (file: File | undefined) => {
+    setFileNote(null);
+    if (!file) return;
+    try {
+      const read = await readBarsFile(file);
+      setText(read.text);
+      setFileNote(`Read ${file.name}${read.sheet ? ` (sheet "${read.sheet}")` : ''} into the box below: check it, then replace the table or add the rows.`);
+    } catch (e) {
+      setFileNote(e instanceof Error ? e.message : String(e));
+    }
+  };
 
   const apply = (mode: 'replace' | 'append') => {
     setDone(null);
@@ -53,6 +66,10 @@ export function BarsPaste({ unit, tableIds, onApply }: {
 
   return (
     <div className="flex flex-col gap-2">
+      <label className="flex flex-col gap-1 text-sm font-semibold text-slate-700">Or read a CSV or XLSX file of bars
+        <input type="file" accept=".csv,.xlsx,text/csv,application/vnd.openxmlformats-officedocument.spreadsheetml.sheet" className="min-h-10 font-normal" onChange={(e) => void onFile(e.target.files?.[0])} />
+      </label>
+      {fileNote ? <p role="status" className="text-sm text-slate-800">{fileNote}</p> : null}
       <label htmlFor={id} className="text-sm font-semibold text-slate-700">Paste from a spreadsheet</label>
       <p id={`${id}-hint`} className="text-sm text-slate-600">
         Copy the cells — id, width, thickness, corner radius{unit ? `, in ${unit}` : ''} — and paste them here. Cells may be split by tabs, semicolons or commas; a header row is optional.
