@@ -20,21 +20,12 @@ export function Layout() {
   return (
     <div className="flex min-h-screen flex-col">
       <a href="#main" className="sr-only focus:not-sr-only">Skip to content</a>
-      <nav aria-label="Main" className="border-b border-slate-300 bg-white">
-        <div className="mx-auto flex max-w-7xl flex-wrap items-center gap-2 px-4 py-2">
+      <header className="border-b border-slate-300 bg-white">
+        <div className="mx-auto flex max-w-7xl flex-wrap items-center gap-3 px-4 pt-2">
           <NavLink to="/" className="mr-3 flex items-center gap-2 text-xl font-semibold text-accent-800">
             <img src="/favicon.svg" alt="" className="h-7 w-7" /> Gridset
           </NavLink>
-          <NavLink to="/templates" className={navClass}>Templates</NavLink>
-          <NavLink to="/jobs" className={navClass}>Jobs</NavLink>
-          <NavLink to="/stock-check" className={navClass}>Stock check</NavLink>
-          <NavLink to="/catalog/components" className={navClass}>Components</NavLink>
-          <NavLink to="/catalog/plates" className={navClass}>Plates</NavLink>
-          <NavLink to="/naming" className={navClass}>Naming</NavLink>
-          {may(user.role, 'editSettings') ? <NavLink to="/settings" className={navClass}>Shop settings</NavLink> : null}
-          {may(user.role, 'editSettings') ? <NavLink to="/audit" className={navClass}>Audit</NavLink> : null}
-          {may(user.role, 'manageUsers') ? <NavLink to="/admin/users" className={navClass}>Users</NavLink> : null}
-          {may(user.role, 'readOutbox') ? <NavLink to="/admin/outbox" className={navClass}>Outbox</NavLink> : null}
+          <span className="text-slate-600">{settings.data?.shopName ?? ''}</span>
           <div className="ml-auto flex flex-wrap items-center gap-3">
             <div role="group" aria-label="Display unit" className="flex overflow-hidden rounded border border-slate-400">
               {(['in', 'mm'] as const).map((u) => (
@@ -52,7 +43,20 @@ export function Layout() {
             </Button>
           </div>
         </div>
-      </nav>
+        <nav aria-label="Main" className="mx-auto flex max-w-7xl flex-wrap items-center gap-1 px-4 py-2">
+          <NavLink to="/templates" className={navClass}>Templates</NavLink>
+          <NavLink to="/jobs" className={navClass}>Jobs</NavLink>
+          <NavLink to="/stock-check" className={navClass}>Stock check</NavLink>
+          <NavLink to="/catalog/components" className={navClass}>Components</NavLink>
+          <NavLink to="/catalog/plates" className={navClass}>Plates</NavLink>
+          <NavLink to="/naming" className={navClass}>Naming</NavLink>
+          {may(user.role, 'editSettings') || may(user.role, 'manageUsers') ? <span aria-hidden className="mx-2 h-6 w-px bg-slate-300" /> : null}
+          {may(user.role, 'editSettings') ? <NavLink to="/settings" className={navClass}>Shop settings</NavLink> : null}
+          {may(user.role, 'editSettings') ? <NavLink to="/audit" className={navClass}>Audit</NavLink> : null}
+          {may(user.role, 'manageUsers') ? <NavLink to="/admin/users" className={navClass}>Users</NavLink> : null}
+          {may(user.role, 'readOutbox') ? <NavLink to="/admin/outbox" className={navClass}>Outbox</NavLink> : null}
+        </nav>
+      </header>
       <div id="main" className="flex-1">
         <Outlet />
       </div>

@@ -20,6 +20,8 @@ export interface SvgArc {
   sweep: 0 | 1;
   x: number;
   y: number;
+  /** Included angle in radians, always positive. */
+  includedAngle: number;
 }
 
 /**
@@ -35,9 +37,9 @@ export interface SvgArc {
 export function bulgeToSvgArc(from: Point, to: Point, bulge: number | undefined): SvgArc | null {
   const chord = Math.hypot(to.x - from.x, to.y - from.y);
   if (!bulge || chord === 0 || !Number.isFinite(bulge)) return null;
-  const included = 4 * Math.atan(Math.abs(bulge));
-  const r = chord / (2 * Math.sin(included / 2));
-  return { r, largeArc: Math.abs(bulge) > 1 ? 1 : 0, sweep: bulge > 0 ? 1 : 0, x: to.x, y: to.y };
+  const includedAngle = 4 * Math.atan(Math.abs(bulge));
+  const r = chord / (2 * Math.sin(includedAngle / 2));
+  return { r, largeArc: Math.abs(bulge) > 1 ? 1 : 0, sweep: bulge > 0 ? 1 : 0, x: to.x, y: to.y, includedAngle };
 }
 
 function segment(from: Point, to: Point, bulge: number | undefined): string {

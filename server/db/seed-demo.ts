@@ -12,6 +12,8 @@ import { DEMO_CONVENTION } from '../../shared/naming/conventions';
 import { usersRepo } from './users-repo';
 import { templatesService } from '../services/templates';
 import { namingService } from '../services/naming';
+import { jobsService } from '../services/jobs';
+import { jobsRepo } from './jobs-repo';
 import type { Placement, SharedOffset } from '../../shared/schemas/template';
 
 /** Demo only: an invented shop; every account shares this password, so never keep them on a real server. */
@@ -171,4 +173,31 @@ async function seedDemoTemplates(db: Db) {
     await service.saveDraft(lead, created.id, 1, { revision: 1, placements: t.placements, sharedOffset: t.sharedOffset, numbering: { order: 'row-by-row' } });
     if (t.release) await service.release(lead, created.id, 1);
   }
+  await seedDemoJob(db, service, lead);
+}
+
+/** An invented part on the inch layout, with a radiused end, and one lot of measured bars checked. */
+async function seedDemoJob(db: Db, templates: ReturnType<typeof templatesService>, lead: Parameters<ReturnType<typeof templatesService>['create']>[0]) {
+  const audit = auditRepo(db);
+  const jobs = jobsService({ db, jobs: jobsRepo(db), templates, audit });
+  const job = await jobs.create(lead, {
+    name: 'Bracket BR-1001, night run', partNumber: 'BR-1001', partRevision: 'B', templateId: 1, version: 1,
+    stock: { width: 1, thickness: 0.5, length: 0.875, material: '6061-T6 bar' },
+    carrier: 0.25, clearance: 0.03, minBite: 0.06, cycleMinutes: 13, loadMinutes: 10, notes: 'Demo job: invented part.',
+  });
+  // 0.850 in along the rail × 1.000 in across the jaws (the width held), with a 0.100 in radius on the
+  // far corners (bulge tan(22.5°) = 0.414214 for a quarter arc, DXF Reference group 42) and a 0.257 in
+  // bore; datum at the corner that sits against the stop and the fixed jaw.
+  const q = 0.414214;
+  const outline = {
+    paths: [{ closed: true, points: [{ x: 0, y: 0 }, { x: 0.75, y: 0, bulge: q }, { x: 0.85, y: 0.1 }, { x: 0.85, y: 0.9, bulge: q }, { x: 0.75, y: 1 }, { x: 0, y: 1 }] }],
+    circles: [{ x: 0.425, y: 0.5, r: 0.1285 }],
+  };
+  await jobs.setPartOutline(lead, job.id, outline, { name: 'BR-1001-rev-B.dxf', size: 0, sha256: 'demo', unit: 'in', datum: { x: 0, y: 0 } });
+  const operator = (await usersRepo(db).findWithHashByEmail('operator@gridset.test'))!;
+  const widths = [0.998, 1.004, 1.012, 1.021, 1.036, 0.991, 1.043, 0.962, 1.009, 1.028];
+  await jobs.stockCheck(operator, job.id, {
+    jawPlacement: 'A-JR',
+    bars: widths.map((w, i) => ({ id: `L7-${String(i + 1).padStart(2, '0')}`, width: w, thickness: 0.5 + ((i % 3) - 1) * 0.004, cornerRadius: i === 7 ? 0.05 : 0.02 })),
+  });
 }

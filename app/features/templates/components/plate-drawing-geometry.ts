@@ -2,7 +2,8 @@
 // Everything here is in plate coordinates (origin at the datum hole, +X along columns, +Y along
 // rows, PRODUCT.md computation 1); the drawing flips Y once, in a scale(1, -1) group.
 import type { Point } from '../../../../shared/schemas/common';
-import type { Outline, OutlinePath } from '../../../../shared/schemas/geometry';
+import type { Outline } from '../../../../shared/schemas/geometry';
+import { svgNum as num, pathData as outlinePathData } from '../../../lib/outline-svg';
 import type { Hole } from '../../../../shared/schemas/template';
 import type { RigidTransform } from '../../../../shared/geometry/transform';
 
@@ -18,68 +19,8 @@ export function unionBox(a: Box, b: Box): Box {
   return { minX: Math.min(a.minX, b.minX), minY: Math.min(a.minY, b.minY), maxX: Math.max(a.maxX, b.maxX), maxY: Math.max(a.maxY, b.maxY) };
 }
 
-/**
- * A number for path data. Six decimals is a millionth of an inch or of a millimetre, far below a
- * pixel at the deepest zoom allowed, and it keeps 16,000-station path strings short.
- */
-export function num(v: number): string {
-  const r = Math.round(v * 1e6) / 1e6;
-  return r === 0 ? '0' : String(r);
-}
-
-/** The parameters of an SVG elliptical-arc command ("A rx ry rot large sweep x y") for a circular arc. */
-export interface SvgArc {
-  r: number;
-  largeArc: 0 | 1;
-  sweep: 0 | 1;
-  /** End point. */
-  x: number;
-  y: number;
-  /** Included angle in radians, always positive. */
-  includedAngle: number;
-}
-
-/**
- * The arc a DXF bulge describes from `from` to `to`, as SVG arc parameters.
- *
- * bulge = tan(θ/4), θ the included angle, negative when the arc runs clockwise (DXF Reference,
- * LWPOLYLINE group code 42). So θ = 4·atan|b| and, from the chord c = 2r·sin(θ/2),
- * r = c / (2·sin(θ/2)). SVG's sweep-flag 1 draws in the direction of increasing angle in the
- * current user space (SVG 2, Paths, "sweep-flag"); in plate coordinates (+Y up) that is
- * counter-clockwise, the direction of a positive bulge, so the path must be drawn before the
- * Y flip for the flag to mean this. The large-arc flag is set when θ > 180°, i.e. |b| > 1.
- * Returns null for a straight segment (no bulge, or a zero-length chord).
- */
-export function bulgeToSvgArc(from: Point, to: Point, bulge: number | undefined): SvgArc | null {
-  const chord = Math.hypot(to.x - from.x, to.y - from.y);
-  if (!bulge || chord === 0 || !Number.isFinite(bulge)) return null;
-  const includedAngle = 4 * Math.atan(Math.abs(bulge));
-  const r = chord / (2 * Math.sin(includedAngle / 2));
-  return { r, largeArc: Math.abs(bulge) > 1 ? 1 : 0, sweep: bulge > 0 ? 1 : 0, x: to.x, y: to.y, includedAngle };
-}
-
-function segmentCommand(from: Point, to: Point, bulge: number | undefined): string {
-  const arc = bulgeToSvgArc(from, to, bulge);
-  return arc
-    ? `A${num(arc.r)} ${num(arc.r)} 0 ${arc.largeArc} ${arc.sweep} ${num(arc.x)} ${num(arc.y)}`
-    : `L${num(to.x)} ${num(to.y)}`;
-}
-
-/** One outline path as SVG path data; a vertex's bulge shapes the segment to the next vertex. */
-export function outlinePathData(path: OutlinePath): string {
-  const pts = path.points;
-  const first = pts[0];
-  if (!first) return '';
-  let d = `M${num(first.x)} ${num(first.y)}`;
-  for (let i = 0; i + 1 < pts.length; i++) d += segmentCommand(pts[i]!, pts[i + 1]!, pts[i]!.bulge);
-  if (path.closed && pts.length > 1) {
-    const last = pts[pts.length - 1]!;
-    // A straight closing edge is what Z draws anyway; an arced one must be spelled out first.
-    if (last.bulge) d += segmentCommand(last, first, last.bulge);
-    d += 'Z';
-  }
-  return d;
-}
+// Path data for outlines (bulges → SVG arcs) is shared with the catalog's outline preview.
+export { svgNum as num, bulgeToSvgArc, pathData as outlinePathData, circleData, type SvgArc } from '../../../lib/outline-svg';
 
 /** A full circle as two half arcs (one SVG arc command cannot end where it starts). */
 export function circlePathData(cx: number, cy: number, r: number): string {
