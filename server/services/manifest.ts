@@ -1,3 +1,4 @@
+import { createHash } from 'node:crypto';
 import type { User } from '../../shared/schemas/auth';
 import type { Component } from '../../shared/schemas/catalog';
 import type { Station } from '../../shared/schemas/template';
@@ -38,8 +39,24 @@ export function manifestService(deps: { db: Db; catalog: CatalogRepo; naming: Na
     return readManifestCsv(buf.toString('utf8'), { convention });
   }
 
-  async function plan(buf: Buffer) {
+  /**
+   * Reads of recent uploads by content hash and convention version: a commit of the file just
+   * previewed skips reading the workbook again (the slow part) and only plans it afresh against
+   * the catalog as it is now.
+   */
+  const recentReads = new Map<string, { read: ManifestRead; at: number }>();
+  async function readOnce(buf: Buffer): Promise<ManifestRead> {
+    const key = `${createHash('sha256').update(buf).digest('hex')}:${(await naming.current()).version}`;
+    const hit = recentReads.get(key);
+    if (hit && Date.now() - hit.at < 10 * 60_000) return hit.read;
     const r = await read(buf);
+    recentReads.set(key, { read: r, at: Date.now() });
+    while (recentReads.size > 4) recentReads.delete(recentReads.keys().next().value!);
+    return r;
+  }
+
+  async function plan(buf: Buffer) {
+    const r = await readOnce(buf);
     const p = planManifest(await allComponents(), r);
     const errors = [...p.errors].map(({ sheet, row, column, message, code }) => ({ sheet, row, column, message, code }));
     const changes = p.changes.map(({ sheet, row, action, code, fields }) => ({ sheet, row, action, code, fields }));
