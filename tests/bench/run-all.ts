@@ -6,6 +6,7 @@ const BENCHES: Record<string, () => Promise<{ run: () => Promise<void> }>> = {
   'stock-check': () => import('./stock-check.bench'),
   dxf: () => import('./dxf.bench'),
   manifest: () => import('./manifest.bench'),
+  'job-package': () => import('./job-package.bench'),
 };
 
 const wanted = process.argv.slice(2);
