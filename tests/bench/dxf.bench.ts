@@ -7,7 +7,7 @@ import os from 'node:os';
 import path from 'node:path';
 import { generateLargeDxf } from './generate-dxf';
 import { median, timeMedian } from './lib';
-import { railBands } from '../shared/station-fixtures';
+import { railBandsWithStations } from '../shared/station-fixtures';
 import { evaluateTemplate } from '../../shared/stations/evaluate-template';
 import { templateDrawing } from '../../server/services/template-drawing';
 import { writeDrawingDxf } from '../../server/dxf/write-dxf';
@@ -36,14 +36,7 @@ export async function run() {
   console.log(`  inspectDxf:      ${m(inspect, 'ms').toFixed(0)} ms wall, ${m(inspect, 'cpuMs').toFixed(0)} ms CPU, peak RSS ${m(inspect, 'maxRssMb').toFixed(0)} MB`);
   console.log(`  ratios: time ${(m(inspect, 'ms') / m(bare, 'ms')).toFixed(2)} (CPU ${(m(inspect, 'cpuMs') / m(bare, 'cpuMs')).toFixed(2)}), peak RSS ${(m(inspect, 'maxRssMb') / m(bare, 'maxRssMb')).toFixed(2)} (targets <= 1.5)`);
 
-  const content = railBands(4);
-  let left = 500;
-  content.placements = content.placements.map((p) => {
-    if (!p.stopsInUse?.length) return p;
-    const n = Math.max(0, Math.min(16, left));
-    left -= n;
-    return { ...p, stopsInUse: Array.from({ length: n }, (_, i) => i) };
-  });
+  const content = railBandsWithStations(4, 500);
   const evaluation = evaluateTemplate(content);
   let bytes = 0;
   const exportMs = await timeMedian(7, () => { bytes = writeDrawingDxf(templateDrawing(content, evaluation)).length; });

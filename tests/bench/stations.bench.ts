@@ -3,7 +3,7 @@
 import express from 'express';
 import { evaluateTemplate } from '../../shared/stations/evaluate-template';
 import { applyTransform, placementTransform } from '../../shared/geometry/transform';
-import { railBands } from '../shared/station-fixtures';
+import { railBands, railBandsWithStations } from '../shared/station-fixtures';
 import { catalogRepo } from '../../server/db/catalog-repo';
 import { templatesRepo } from '../../server/db/templates-repo';
 import { templatesService } from '../../server/services/templates';
@@ -31,14 +31,7 @@ export async function run() {
   console.log(`evaluateTemplate: ${big.placements.length} placements, ${stations} stations: median ${engine.toFixed(1)} ms (target < 50 ms); bare transforms ${bare.toFixed(2)} ms; ratio ${(engine / bare).toFixed(1)}×`);
 
   const { db, base, server, headers } = await realServer();
-  const content = railBands(4);
-  let left = 500;
-  content.placements = content.placements.map((p) => {
-    if (!p.stopsInUse?.length) return p;
-    const n = Math.max(0, Math.min(16, left));
-    left -= n;
-    return { ...p, stopsInUse: Array.from({ length: n }, (_, i) => i) };
-  });
+  const content = railBandsWithStations(4, 500);
   const service = templatesService({ db, templates: templatesRepo(db), catalog: catalogRepo(db), naming: namingService(namingRepo(db)), audit: auditRepo(db) });
   const lead = (await usersRepo(db).findWithHashByEmail('lead@gridset.test'))!;
   const { id } = await service.importFile(lead, { ...content, name: 'Bench 500' });

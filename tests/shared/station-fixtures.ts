@@ -69,3 +69,16 @@ export function railBands(bands: number): TemplateContent {
   }
   return content({ plate: { columns: 90, rows: 2 * bands }, components: [cr16, jr16], placements, sharedOffset: { kind: 'center' } });
 }
+
+/** railBands(bands) with stops taken off the last rails until exactly `stations` stations remain. */
+export function railBandsWithStations(bands: number, stations: number): TemplateContent {
+  const c = railBands(bands);
+  let left = stations;
+  c.placements = c.placements.map((p) => {
+    if (!p.stopsInUse?.length) return p;
+    const n = Math.max(0, Math.min(p.stopsInUse.length, left));
+    left -= n;
+    return { ...p, stopsInUse: Array.from({ length: n }, (_, i) => i) };
+  });
+  return c;
+}
