@@ -48,7 +48,7 @@ export function AddPlacement({ layout, catalog, hole, setHole, readOnly }: { lay
           </select>
         </label>
       </div>
-      <p className="text-sm text-slate-600">The primary dowel goes in the hole; click a hole on the drawing to pick it.</p>
+      <p className="text-sm text-slate-600">The primary dowel goes in the hole; with no placement selected, click a hole on the drawing to pick it.</p>
       <div><Button onClick={add} disabled={!code}>Add placement</Button></div>
     </fieldset>
   );
@@ -77,6 +77,7 @@ export function PlacementPanel({ layout, selected, onSelect, readOnly }: { layou
       {p && !readOnly ? (
         <div className="flex flex-col gap-2 border-t border-slate-200 pt-2">
           <p className="font-semibold">{p.id}: {p.component} on hole ({p.hole.col}, {p.hole.row}) at {p.rotation}°</p>
+          <p className="text-sm text-slate-600">Click a hole on the drawing to move its primary dowel there, or use the buttons.</p>
           <div className="flex flex-wrap gap-1" role="group" aria-label="Move by one hole">
             <Button variant="secondary" aria-label="Move one hole left (−X)" onClick={() => replace({ ...p, hole: { ...p.hole, col: p.hole.col - 1 } })}><ArrowLeft aria-hidden className="h-4 w-4" />−X</Button>
             <Button variant="secondary" aria-label="Move one hole right (+X)" onClick={() => replace({ ...p, hole: { ...p.hole, col: p.hole.col + 1 } })}><ArrowRight aria-hidden className="h-4 w-4" />+X</Button>

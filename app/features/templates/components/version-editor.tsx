@@ -80,7 +80,11 @@ export function VersionEditor({ templateId, version, catalog, displayUnit, canEd
               displayUnit={displayUnit}
               selectedPlacement={selected}
               onSelectPlacement={setSelected}
-              onHoleClick={(h) => { setHole(h); }}
+              onHoleClick={(h) => {
+                // With a placement selected, a hole click moves its primary dowel there; otherwise it picks the hole for a new one.
+                if (editable && selected) layout.update({ placements: layout.draft.placements.map((p) => (p.id === selected ? { ...p, hole: h } : p)) });
+                else setHole(h);
+              }}
               showOrder={showOrder}
               problems={evaluation.problems}
               height="34rem"
