@@ -61,12 +61,12 @@ export function TemplateVersionRoute() {
         <NamingWaiver problems={(release.error.details as { naming: { message: string }[] }).naming} pending={release.isPending} onWaive={(w) => release.mutate(w)} />
       ) : <ErrorText error={release.error ?? newDraft.error} />}
       {v.namingWaiver ? <Notice tone="caution" title="Released with a naming waiver">{v.namingWaiver}</Notice> : null}
-      {me.data ? (
-        <ReviewActions version={v} user={me.data} isAuthor={v.authorId === me.data.id}
-          previous={template.data.versions.filter((x) => x.number < n && x.state !== 'draft').at(-1)?.number ?? template.data.versions.filter((x) => x.number < n).at(-1)?.number ?? null}
-          onChanged={() => { void template.refetch(); void version.refetch(); }} />
-      ) : null}
-      <VersionEditor key={`${id}-${n}-${v.revision}`} templateId={id} version={v} catalog={components.data?.items ?? NO_COMPONENTS} displayUnit={displayUnit} canEdit={may(role, 'editTemplates')} probeTolerance={probeTolerance} />
+      <VersionEditor key={`${id}-${n}-${v.revision}`} templateId={id} version={v} catalog={components.data?.items ?? NO_COMPONENTS} displayUnit={displayUnit} canEdit={may(role, 'editTemplates')} probeTolerance={probeTolerance}
+        reviewSlot={({ dirty }) => (me.data ? (
+          <ReviewActions version={v} user={me.data} isAuthor={v.authorId === me.data.id} unsavedChanges={dirty}
+            previous={template.data.versions.filter((x) => x.number < n && x.state !== 'draft').at(-1)?.number ?? template.data.versions.filter((x) => x.number < n).at(-1)?.number ?? null}
+            onChanged={() => { void template.refetch(); void version.refetch(); }} />
+        ) : null)} />
     </Page>
   );
 }

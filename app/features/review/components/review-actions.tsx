@@ -13,7 +13,7 @@ const STEP_WORDS: Record<string, string> = { submit: 'submitted for review', app
  * The review steps this user may take on this version, worked out with the same lifecycle table
  * the server enforces, plus the trail of who did what.
  */
-export function ReviewActions({ version, user, isAuthor, previous, onChanged }: { version: TemplateVersion; user: User; isAuthor: boolean; previous: number | null; onChanged: () => void }) {
+export function ReviewActions({ version, user, isAuthor, previous, unsavedChanges = false, onChanged }: { version: TemplateVersion; user: User; isAuthor: boolean; previous: number | null; unsavedChanges?: boolean; onChanged: () => void }) {
   const [comment, setComment] = useState('');
   const step = useReviewStep(version.templateId, version.version, onChanged);
   const trail = useTrail(version.templateId, version.version);
@@ -31,7 +31,8 @@ export function ReviewActions({ version, user, isAuthor, previous, onChanged }: 
             </label>
           ) : null}
           <div className="flex flex-wrap gap-2">
-            {can('submit') ? <Button disabled={step.isPending || version.problems.length > 0} onClick={() => step.mutate({ step: 'submit' })}>Submit for review</Button> : null}
+            {can('submit') ? <Button disabled={step.isPending || version.problems.length > 0 || unsavedChanges} onClick={() => step.mutate({ step: 'submit' })}>Submit for review</Button> : null}
+            {can('submit') && unsavedChanges ? <span className="self-center text-warning-700">Save the draft first: a review sees the saved version.</span> : null}
             {can('approve') ? <Button disabled={step.isPending} onClick={() => step.mutate({ step: 'approve', comment })}>Approve and release</Button> : null}
             {can('request-changes') ? <Button variant="secondary" disabled={step.isPending || comment.trim().length < 3} onClick={() => step.mutate({ step: 'request-changes', comment })}>Request changes</Button> : null}
             {can('retire') ? <Button variant="danger" disabled={step.isPending} onClick={() => window.confirm(`Retire version ${version.version}? Jobs pinned to it keep it.`) && step.mutate({ step: 'retire' })}>Retire</Button> : null}

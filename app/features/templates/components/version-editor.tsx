@@ -1,4 +1,4 @@
-import { useState } from 'react';
+import { useState, type ReactNode } from 'react';
 import type { Component } from '../../../../shared/schemas/catalog';
 import type { Unit } from '../../../../shared/schemas/common';
 import type { Hole } from '../../../../shared/schemas/template';
@@ -22,6 +22,8 @@ interface Props {
   displayUnit: Unit;
   canEdit: boolean;
   probeTolerance: number;
+  /** Composed in by the route (the review steps), told whether the draft has unsaved edits. */
+  reviewSlot?: (state: { dirty: boolean }) => ReactNode;
 }
 
 /**
@@ -29,7 +31,7 @@ interface Props {
  * edit at once (the shared engine runs in the browser); the draft is saved explicitly with
  * "Save draft", and a save that lost a race shows both versions instead of overwriting.
  */
-export function VersionEditor({ templateId, version, catalog, displayUnit, canEdit, probeTolerance }: Props) {
+export function VersionEditor({ templateId, version, catalog, displayUnit, canEdit, probeTolerance, reviewSlot }: Props) {
   const editable = canEdit && version.state === 'draft';
   const layout = useLayoutDraft(version, catalog);
   const save = useSaveVersion(templateId, version.version);
@@ -44,6 +46,7 @@ export function VersionEditor({ templateId, version, catalog, displayUnit, canEd
 
   return (
     <div className="flex flex-col gap-4">
+      {reviewSlot?.({ dirty: layout.dirty })}
       {editable ? (
         <div className="sticky top-0 z-10 flex flex-wrap items-center gap-3 rounded border border-slate-300 bg-white p-3">
           <Button onClick={() => onSave()} disabled={!layout.dirty || save.isPending || evaluation.problems.length > 0}>{save.isPending ? 'Saving…' : 'Save draft'}</Button>
