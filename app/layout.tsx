@@ -46,6 +46,7 @@ export function Layout() {
         <nav aria-label="Main" className="mx-auto flex max-w-7xl flex-wrap items-center gap-1 px-4 py-2">
           <NavLink to="/templates" className={navClass}>Templates</NavLink>
           <NavLink to="/jobs" className={navClass}>Jobs</NavLink>
+          <NavLink to="/reviews" className={navClass}>Reviews</NavLink>
           <NavLink to="/stock-check" className={navClass}>Stock check</NavLink>
           <NavLink to="/catalog/components" className={navClass}>Components</NavLink>
           <NavLink to="/catalog/plates" className={navClass}>Plates</NavLink>

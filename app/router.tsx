@@ -15,6 +15,7 @@ import { NotFoundRoute } from './routes/not-found';
 import { TemplatesRoute } from './routes/templates';
 import { NamingRoute } from './routes/naming';
 import { AuditRoute } from './routes/audit';
+import { ReviewsRoute } from './routes/reviews';
 import { TemplateCompareRoute } from './routes/template-compare';
 import { TemplateVersionRoute } from './routes/template-version';
 import { JobsRoute } from './routes/jobs';
@@ -57,6 +58,7 @@ export const router = createBrowserRouter([
           { path: 'stock-check', element: <StockCheckRoute /> },
           { path: 'templates/:id/compare', element: <TemplateCompareRoute /> },
           { path: 'naming', element: <NamingRoute /> },
+          { path: 'reviews', element: <ReviewsRoute /> },
           { path: 'catalog/plates', element: <PlatesRoute /> },
           { path: 'catalog/plates/:id', element: <PlateEditRoute /> },
           { path: 'catalog/components', element: <ComponentsRoute /> },

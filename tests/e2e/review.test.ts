@@ -30,7 +30,7 @@ describe('review of a moved rail in a real browser', () => {
     expect(await mail.textContent()).toContain('reviewer@gridset.test');
 
     await e2e.signIn(page, 'reviewer');
-    await page.goto(`${e2e.baseUrl}/templates/1/versions/2`);
+    await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Reviews' }).click();
     await page.getByRole('link', { name: /Compare v1 → v2/ }).click();
     await page.getByText('2 placements moved').first().waitFor();
     // Each of rail B's 8 stations moves by exactly the pitch in X.

@@ -1,0 +1,49 @@
+import { Link } from 'react-router-dom';
+import { Page } from '../components/ui/page';
+import { ErrorText } from '../components/ui/notice';
+import { useTemplates } from '../features/templates/api';
+import { StateTag } from './templates';
+
+/** "What is waiting for me?": every version in review, with the comparison it should be read against. */
+export function ReviewsRoute() {
+  const templates = useTemplates();
+  const rows = (templates.data?.items ?? []).flatMap((t) =>
+    t.versions.map((v) => {
+      const before = t.versions.filter((x) => x.number < v.number && (x.state === 'released' || x.state === 'retired')).at(-1)?.number
+        ?? t.versions.filter((x) => x.number < v.number).at(-1)?.number ?? null;
+      return { t, v, before };
+    }),
+  );
+  const waiting = rows.filter((r) => r.v.state === 'in-review');
+  const drafts = rows.filter((r) => r.v.state === 'draft');
+  const link = 'font-semibold text-accent-700 underline';
+  return (
+    <Page title="Reviews" subtitle="Template versions waiting for someone other than their author to compare and sign off.">
+      <ErrorText error={templates.error} />
+      <section aria-labelledby="waiting-title" className="flex flex-col gap-2">
+        <h2 id="waiting-title" className="text-lg font-semibold">In review ({waiting.length})</h2>
+        {waiting.length ? (
+          <ul className="flex flex-col gap-2">
+            {waiting.map(({ t, v, before }) => (
+              <li key={`${t.id}-${v.number}`} className="flex flex-wrap items-center gap-3 rounded border border-slate-300 bg-white p-3">
+                <StateTag state={v.state} />
+                <span className="font-semibold">{t.name} v{v.number}</span>
+                <span className="text-slate-600">on {t.plateCode} · {v.placements} placements · saved {v.updatedAt}</span>
+                <span className="ml-auto flex gap-3">
+                  {before ? <Link className={link} to={`/templates/${t.id}/compare?from=${before}&to=${v.number}`}>Compare v{before} → v{v.number}</Link> : null}
+                  <Link className={link} to={`/templates/${t.id}/versions/${v.number}`}>Open v{v.number}</Link>
+                </span>
+              </li>
+            ))}
+          </ul>
+        ) : <p className="text-slate-600">Nothing is waiting for review.</p>}
+      </section>
+      <section aria-labelledby="drafts-title" className="flex flex-col gap-2">
+        <h2 id="drafts-title" className="text-lg font-semibold">Drafts not yet submitted ({drafts.length})</h2>
+        <ul className="flex flex-col gap-1">
+          {drafts.map(({ t, v }) => <li key={`${t.id}-${v.number}`}><Link className={link} to={`/templates/${t.id}/versions/${v.number}`}>{t.name} v{v.number}</Link> <span className="text-slate-600">· saved {v.updatedAt}</span></li>)}
+        </ul>
+      </section>
+    </Page>
+  );
+}
