@@ -23,7 +23,7 @@ function jobDrawing(job: JobDetail, v: TemplateVersion) {
 
 /**
  * Layer colours (ACI) for the job drawing shown on screen: red and green are kept for safety
- * meanings in the app (DESIGN.md), so the origin and stations are drawn in black and dark grey,
+ * meanings in the app (ANSI Z535.1 / ISO 3864 hues), so the origin and stations are drawn in black and dark grey,
  * components in dark grey and the part in blue, the one hue that stands out. The package's
  * files keep templateDrawing's CAM colours.
  */

@@ -145,7 +145,7 @@ describe('outline path data', () => {
 
 describe('the plate', () => {
   it('grid hole (col, row) is at (col·pitch, row·pitch) from the datum hole', () => {
-    // PRODUCT.md, computation 1
+    // hole (col, row) at (col·pitch, row·pitch), shared/geometry/transform.ts
     expect(holeCenter({ col: 3, row: 2 }, 2)).toEqual({ x: 6, y: 4 });
     expect(holeCenter({ col: 0, row: 0 }, 50)).toEqual({ x: 0, y: 0 });
     expect(holeCenter({ col: 4, row: 7 }, 50)).toEqual({ x: 200, y: 350 });
@@ -189,7 +189,7 @@ describe('the plate', () => {
 describe('placements on the plate', () => {
   it.each([0, 90, 180, 270])('the transform attribute and the moved box agree with placementTransform at %d°', (rotation) => {
     // SVG 2 Coordinate Systems: translate(tx ty) rotate(θ) maps p to t + R(θ)·p, the placement
-    // transform of PRODUCT.md computation 1 (shared/geometry/transform.ts is the reference).
+    // placement transform (shared/geometry/transform.ts is the reference).
     const t = placementTransform({ col: 3, row: 2 }, rotation, 2);
     expect(transformAttr(t)).toBe(rotation ? `translate(6 4) rotate(${rotation})` : 'translate(6 4)');
     const local = { minX: -0.5, minY: -0.375, maxX: 8.5, maxY: 0.375 };

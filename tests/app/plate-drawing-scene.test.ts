@@ -51,7 +51,7 @@ describe('plate scene', () => {
   });
 
   it('places the outline by the placement transform', () => {
-    // PRODUCT.md computation 1: hole (10, 2) on 2 in is (20, 4); turned 90°, local (x, y) → (20 − y, 4 + x)
+    // Placement transform (shared/geometry/transform.ts): hole (10, 2) on 2 in is (20, 4); turned 90°, local (x, y) → (20 − y, 4 + x)
     const b = buildPlateScene(layout()).byId.get('B')!;
     expect(b.bounds).toEqual({ minX: 19.625, minY: 3.5, maxX: 20.375, maxY: 12.5 });
     expect(b.primary).toEqual({ x: 20, y: 4 });
@@ -92,7 +92,7 @@ describe('plate scene', () => {
 
 describe('station scene', () => {
   it.each<['in' | 'mm']>([['in'], ['mm']])('puts each station at origin + translation on the plate (template in %s)', (unit) => {
-    // PRODUCT.md computation 2: translation = datum − shared offset origin, so datum = origin + translation;
+    // Station translation (shared/stations/evaluate-template.ts): translation = datum − shared offset origin, so datum = origin + translation;
     // the datum is the stop moved by the placement transform (computation 1).
     const content = layout({ unit });
     const ev = evaluateTemplate(content);
@@ -120,7 +120,7 @@ describe('station scene', () => {
     expect(scene.stations.map((s) => s.number)).toEqual(ev.stations.map((s) => s.number).sort((a, b) => a - b));
     expect(scene.order).toBe(polylinePathData(scene.stations.map((s) => s.datum)));
     const a0 = scene.stations.find((s) => s.id === 'A:0')!;
-    // A:0 datum (2.5, 2.375) − origin (12, 10) = (−9.5, −7.625); four decimals in inches (DESIGN.md, Numbers first)
+    // A:0 datum (2.5, 2.375) − origin (12, 10) = (−9.5, −7.625); four decimals in inches (display precision, shared/units/units.ts)
     expect(a0.title).toContain('X -9.5000 in, Y -7.6250 in from the shared offset');
   });
 
@@ -180,7 +180,7 @@ describe('words', () => {
   it('reads the pointer from the shared offset in the display unit, with the nearest hole', () => {
     const scene = buildPlateScene(layout());
     const origin = { x: 12, y: 10 };
-    // 7.25 in = 184.150 mm (NIST SP 811: 1 in = 25.4 mm exactly); three decimals in mm (DESIGN.md)
+    // 7.25 in = 184.150 mm (NIST SP 811: 1 in = 25.4 mm exactly); three decimals in mm (shared/units/units.ts)
     expect(pointerReadout({ x: 19.25, y: 13.125 }, scene, origin, 'in')).toEqual({ x: '7.2500 in', y: '3.1250 in', hole: { col: 10, row: 7 } });
     expect(pointerReadout({ x: 19.25, y: 13.125 }, scene, origin, 'mm')).toMatchObject({ x: '184.150 mm', y: '79.375 mm' });
     expect(pointerReadout({ x: -1.5, y: 0 }, scene, origin, 'in').hole).toBeNull();

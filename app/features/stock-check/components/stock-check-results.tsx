@@ -27,7 +27,7 @@ export function resultRows(run: CheckRun, supplier: SupplierFlags): BarResultRow
   });
 }
 
-/** The inputs the advice was worked out from, named (PRODUCT.md, Safety). */
+/** The inputs the advice was worked out from, named (advice names its inputs). */
 function inputsLine(run: CheckRun, clampFrom: string): string {
   const { request, rail } = run;
   const u = request.unit;

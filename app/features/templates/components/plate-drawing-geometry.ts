@@ -1,6 +1,6 @@
 // Pure path building for the plate drawing: no React, no DOM, so every number can be unit-tested.
 // Everything here is in plate coordinates (origin at the datum hole, +X along columns, +Y along
-// rows, PRODUCT.md computation 1); the drawing flips Y once, in a scale(1, -1) group.
+// rows, as in shared/geometry/transform.ts); the drawing flips Y once, in a scale(1, -1) group.
 import type { Point } from '../../../../shared/schemas/common';
 import type { Outline } from '../../../../shared/schemas/geometry';
 import { svgNum as num, pathData as outlinePathData } from '../../../lib/outline-svg';
@@ -64,7 +64,7 @@ export interface PlateGrid {
   edgeMargin?: number;
 }
 
-/** Grid hole (col, row) sits at (col·pitch, row·pitch) from the datum hole (PRODUCT.md, computation 1). */
+/** Grid hole (col, row) sits at (col·pitch, row·pitch) from the datum hole (shared/geometry/transform.ts). */
 export function holeCenter(hole: Hole, pitch: number): Point {
   return { x: hole.col * pitch, y: hole.row * pitch };
 }

@@ -59,7 +59,7 @@ export const SCREEN_INK: Ink = {
   hover: 'stroke-accent-700',
 };
 
-/** Black strokes on white for setup sheets (DESIGN.md, Print); the words and dash patterns carry the meaning. */
+/** Black strokes on white for setup sheets (print: black on white); the words and dash patterns carry the meaning. */
 export const PRINT_INK: Ink = {
   plate: 'fill-white stroke-black',
   hole: 'stroke-black',

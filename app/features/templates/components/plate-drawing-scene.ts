@@ -194,7 +194,7 @@ export const offsetNameOf = (content: TemplateContent) => content.sharedOffset.n
 
 /**
  * Stations on the plate. Translations and the origin come from evaluateTemplate in the template's
- * unit (datum = origin + translation, PRODUCT.md computation 2); they are converted to the
+ * unit (datum = origin + translation, as shared/stations/evaluate-template.ts computes it); they are converted to the
  * drawing unit here, and the words are in the display unit.
  */
 export function buildStationScene(
