@@ -23,14 +23,13 @@ import { JobForm } from '../features/jobs/components/job-form';
 import { PairingTable } from '../features/jobs/components/pairing-table';
 import { PartOutlineUpload } from '../features/jobs/components/part-outline-upload';
 import { useTemplates, versionFileUrl, versionQuery } from '../features/templates/api';
-import { BarTable, barCellId, makeBarRow, type BarRow } from '../features/stock-check/components/bar-table';
+import { BarTable, barCellId, firstBarRows, tableIdRows, withPastedRows, type BarRow } from '../features/stock-check/components/bar-table';
 import { BarsPaste } from '../features/stock-check/components/bars-paste';
 import { BarByBar, StockCheckResults } from '../features/stock-check/components/stock-check-results';
 import { BAR_FIELDS, BAR_FIELD_LABEL, readBarTable, type BarField, type PastedRow, type TableProblem } from '../features/stock-check/parse-bars';
 
 const NO_TEMPLATES: TemplateSummary[] = [];
 const SHOWN_PROBLEMS = 12;
-const firstRows = () => [makeBarRow({ id: 'B1' }, true), makeBarRow({ id: 'B2' }, true), makeBarRow({ id: 'B3' }, true)];
 
 /**
  * One screen, one job: where the part sits at every station, how long a load runs, which bars go
@@ -180,7 +179,7 @@ const LatestCheck = forwardRef<HTMLHeadingElement, { job: JobDetail; rail: JobRa
 
 /** The measured bars, typed or pasted, posted with the chosen rail; problems shown on the cells that cause them. */
 function BarsEntry({ job, rail, clamp, onChecked }: { job: JobDetail; rail: JobRail; clamp: ClampModel; onChecked: () => void }) {
-  const [rows, setRows] = useState<BarRow[]>(firstRows);
+  const [rows, setRows] = useState<BarRow[]>(firstBarRows);
   const [problems, setProblems] = useState<TableProblem[]>([]);
   const check = useJobStockCheck(job.id);
   const unit = job.unit;
@@ -224,17 +223,11 @@ function BarsEntry({ job, rail, clamp, onChecked }: { job: JobDetail; rail: JobR
   };
 
   const applyPaste = (pasted: PastedRow[], mode: 'replace' | 'append') => {
-    const fresh = pasted.map((p) => makeBarRow(p.cells));
-    setRows((rs) => (mode === 'replace' ? fresh : [...rs.filter((r) => !(r.autoId && !r.cells.width.trim() && !r.cells.thickness.trim() && !r.cells.cornerRadius.trim())), ...fresh]));
+    setRows((rs) => withPastedRows(rs, pasted, mode));
     setProblems([]);
   };
 
-  const tableIds = new Map<string, number>();
-  rows.forEach((r, i) => {
-    const id = r.cells.id.trim();
-    const blank = !r.cells.width.trim() && !r.cells.thickness.trim() && !r.cells.cornerRadius.trim();
-    if (id && !(blank && r.autoId) && !tableIds.has(id)) tableIds.set(id, i + 1);
-  });
+  const tableIds = tableIdRows(rows);
 
   return (
     <form noValidate onSubmit={submit} aria-labelledby="bars-entry-title" className="flex flex-col gap-4 rounded border border-slate-300 bg-white p-4">

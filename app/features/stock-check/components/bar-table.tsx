@@ -3,7 +3,7 @@ import { Plus, Trash2 } from 'lucide-react';
 import type { Unit } from '../../../../shared/schemas/common';
 import { Button } from '../../../components/ui/button';
 import { inputClass } from '../../../components/ui/field';
-import { BAR_FIELDS, BAR_FIELD_LABEL, type BarCells, type BarField, type TableProblem } from '../parse-bars';
+import { BAR_FIELDS, BAR_FIELD_LABEL, isBlankRow, type BarCells, type BarField, type PastedRow, type TableProblem } from '../parse-bars';
 
 export interface BarRow {
   /** Stable React key; never shown. */
@@ -28,6 +28,25 @@ let keySeq = 0;
 export function makeBarRow(cells: Partial<BarCells> = {}, autoId = false): BarRow {
   keySeq += 1;
   return { key: keySeq, cells: { id: '', width: '', thickness: '', cornerRadius: '', ...cells }, autoId };
+}
+
+/** The three numbered empty rows a new bar table starts with. */
+export const firstBarRows = (): BarRow[] => [makeBarRow({ id: 'B1' }, true), makeBarRow({ id: 'B2' }, true), makeBarRow({ id: 'B3' }, true)];
+
+/** Pasted rows into the table: they replace it, or follow its rows minus the untouched automatic ones. */
+export function withPastedRows(rows: readonly BarRow[], pasted: readonly PastedRow[], mode: 'replace' | 'append'): BarRow[] {
+  const fresh = pasted.map((p) => makeBarRow(p.cells));
+  return mode === 'replace' ? fresh : [...rows.filter((r) => !(r.autoId && isBlankRow(r.cells, true))), ...fresh];
+}
+
+/** Each bar id in the table → its 1-based row, for "add below" to refuse ids already there. */
+export function tableIdRows(rows: readonly BarRow[]): Map<string, number> {
+  const ids = new Map<string, number>();
+  rows.forEach((r, i) => {
+    const id = r.cells.id.trim();
+    if (id && !(r.autoId && isBlankRow(r.cells, true)) && !ids.has(id)) ids.set(id, i + 1);
+  });
+  return ids;
 }
 
 /** The next free id of the form B<n>, so typed rows need only their sizes. */

@@ -13,7 +13,7 @@ import { useStockCheck } from '../api';
 import type { CheckRun } from '../check-run';
 import { BAR_FIELDS, BAR_FIELD_LABEL, parseDecimal, readBarTable, type BarField, type PastedRow, type TableProblem } from '../parse-bars';
 import { SetupFormSchema, convertSetupText, defaultSetupText, type SetupFormText, type SetupFormValues, type SetupLengthField } from '../setup-form';
-import { BarTable, barCellId, makeBarRow, type BarRow } from './bar-table';
+import { BarTable, barCellId, firstBarRows, tableIdRows, withPastedRows, type BarRow } from './bar-table';
 import { BarsPaste } from './bars-paste';
 import { LengthField, SetupFields } from './setup-fields';
 import { BarByBar, StockCheckResults } from './stock-check-results';
@@ -22,7 +22,6 @@ type Rail = Component & { clamp: ClampModel };
 const hasClamp = (c: Component): c is Rail => c.clamp !== null;
 const SHOWN_PROBLEMS = 12;
 
-const firstRows = () => [makeBarRow({ id: 'B1' }, true), makeBarRow({ id: 'B2' }, true), makeBarRow({ id: 'B3' }, true)];
 
 function convertRows(rows: BarRow[], from: Unit, to: Unit): BarRow[] {
   const conv = (t: string) => {
@@ -40,7 +39,7 @@ function convertRows(rows: BarRow[], from: Unit, to: Unit): BarRow[] {
 export function StockCheckScreen({ components }: { components: readonly Component[] }) {
   const rails = components.filter(hasClamp);
   const form = useForm<SetupFormText, unknown, SetupFormValues>({ resolver: zodResolver(SetupFormSchema), defaultValues: defaultSetupText('in') });
-  const [rows, setRows] = useState<BarRow[]>(firstRows);
+  const [rows, setRows] = useState<BarRow[]>(firstBarRows);
   const [barProblems, setBarProblems] = useState<TableProblem[]>([]);
   const [otherProblems, setOtherProblems] = useState<string[]>([]);
   const [converted, setConverted] = useState<string | null>(null);
@@ -143,17 +142,11 @@ export function StockCheckScreen({ components }: { components: readonly Componen
   };
 
   const applyPaste = (pasted: PastedRow[], mode: 'replace' | 'append') => {
-    const fresh = pasted.map((p) => makeBarRow(p.cells));
-    setRows((rs) => (mode === 'replace' ? fresh : [...rs.filter((r) => !(r.autoId && !r.cells.width.trim() && !r.cells.thickness.trim() && !r.cells.cornerRadius.trim())), ...fresh]));
+    setRows((rs) => withPastedRows(rs, pasted, mode));
     setBarProblems([]);
   };
 
-  const tableIds = new Map<string, number>();
-  rows.forEach((r, i) => {
-    const id = r.cells.id.trim();
-    const blank = !r.cells.width.trim() && !r.cells.thickness.trim() && !r.cells.cornerRadius.trim();
-    if (id && !(blank && r.autoId) && !tableIds.has(id)) tableIds.set(id, i + 1);
-  });
+  const tableIds = tableIdRows(rows);
 
   return (
     <div className="flex flex-col gap-8">
