@@ -7,7 +7,7 @@ import { HttpError } from './errors';
 
 /**
  * One uploaded file in the multipart field `file`, streamed to a temporary file under the data
- * dir (never held in memory twice); the route reads it, and `discardUpload` removes it whatever
+ * dir (never held in memory twice); the route reads it inside `usingUpload`, which removes it whatever
  * happens, so a refused file leaves nothing behind.
  */
 export function singleFileUpload(dataDir: string, limitBytes: number): RequestHandler[] {
@@ -34,6 +34,15 @@ export function singleFileUpload(dataDir: string, limitBytes: number): RequestHa
   return [(req, res, next) => upload(req, res, (err: unknown) => (err ? mapErrors(err, req, res, next) : next())), requireFile];
 }
 
-export function discardUpload(file: Express.Multer.File | undefined) {
+function discardUpload(file: Express.Multer.File | undefined) {
   if (file?.path) rmSync(file.path, { force: true });
+}
+
+/** Runs fn on the uploaded file and removes the temporary file afterwards, whatever fn does. */
+export async function usingUpload<T>(file: Express.Multer.File | undefined, fn: (file: Express.Multer.File) => T | Promise<T>): Promise<T> {
+  try {
+    return await fn(file!);
+  } finally {
+    discardUpload(file);
+  }
 }

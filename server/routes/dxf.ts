@@ -6,7 +6,7 @@ import { proposeName } from '../../shared/naming/propose-name';
 import type { Outline } from '../../shared/schemas/geometry';
 import { currentUser } from '../middleware/auth';
 import { HttpError } from '../middleware/errors';
-import { discardUpload, singleFileUpload } from '../middleware/upload';
+import { singleFileUpload, usingUpload } from '../middleware/upload';
 import { inspectUploadedDxf, keepOriginal, normalizeOutline } from '../services/dxf-uploads';
 import type { CatalogService } from '../services/catalog';
 import type { JobsService } from '../services/jobs';
@@ -61,44 +61,31 @@ export function dxfRoutes(deps: { dataDir: string; uploadLimitBytes: number; cat
   }
 
   return [
-    { method: 'post', path: '/dxf/inspect', access: CAN.editCatalog, before: upload, handler: async (req, res) => {
-      try {
-        const { inspection } = inspectUploadedDxf(req.file!.path);
-        const { unit, layers, entities, entityTypes, bbox, circles, unsupported, outline, notes, points, approximations, warnings, version, insunits } = inspection;
-        res.json({ unit, insunits, version, layers: await layerReport(layers), entities, entityTypes, bbox, circles, unsupported, outline, notes, points, approximations, warnings });
-      } finally {
-        discardUpload(req.file);
-      }
-    } },
-    { method: 'post', path: '/components/:id/outline', access: CAN.editCatalog, before: upload, handler: async (req, res) => {
-      try {
-        const { id } = parseOr400(IdParamSchema, req.params, 'address');
-        const f = parseOr400(OutlineFieldsSchema, req.body, 'outline upload');
-        const component = await catalog.getComponent(id);
-        const { inspection, sha256 } = inspectUploadedDxf(req.file!.path);
-        const { outline, unit } = normalizeOutline(inspection, f.unit ?? null, component.unit, { x: f.datumX ?? 0, y: f.datumY ?? 0 });
-        const mapped = await mapLayers(outline, f.layerMap);
-        keepOriginal(dataDir, req.file!.path, sha256);
-        const file = { name: req.file!.originalname, size: req.file!.size, sha256, unit };
-        res.json(await catalog.setOutline(currentUser(req).id, id, mapped, file));
-      } finally {
-        discardUpload(req.file);
-      }
-    } },
-    { method: 'post', path: '/jobs/:id/outline', access: CAN.editTemplates, before: upload, handler: async (req, res) => {
-      try {
-        const { id } = parseOr400(IdParamSchema, req.params, 'address');
-        const f = parseOr400(OutlineFieldsSchema, req.body, 'part outline upload');
-        const job = await jobs.detail(id);
-        const { inspection, sha256 } = inspectUploadedDxf(req.file!.path);
-        // The part's datum corner defaults to the lower-left corner of its extents: the corner that sits against the stop.
-        const datum = { x: f.datumX ?? inspection.bbox?.minX ?? 0, y: f.datumY ?? inspection.bbox?.minY ?? 0 };
-        const { outline, unit } = normalizeOutline(inspection, f.unit ?? null, job.unit, datum);
-        keepOriginal(dataDir, req.file!.path, sha256);
-        res.json(await jobs.setPartOutline(currentUser(req), id, outline, { name: req.file!.originalname, size: req.file!.size, sha256, unit, datum }));
-      } finally {
-        discardUpload(req.file);
-      }
-    } },
+    { method: 'post', path: '/dxf/inspect', access: CAN.editCatalog, before: upload, handler: (req, res) => usingUpload(req.file, async (file) => {
+      const { inspection } = inspectUploadedDxf(file.path);
+      const { unit, layers, entities, entityTypes, bbox, circles, unsupported, outline, notes, points, approximations, warnings, version, insunits } = inspection;
+      res.json({ unit, insunits, version, layers: await layerReport(layers), entities, entityTypes, bbox, circles, unsupported, outline, notes, points, approximations, warnings });
+    }) },
+    { method: 'post', path: '/components/:id/outline', access: CAN.editCatalog, before: upload, handler: (req, res) => usingUpload(req.file, async (file) => {
+      const { id } = parseOr400(IdParamSchema, req.params, 'address');
+      const f = parseOr400(OutlineFieldsSchema, req.body, 'outline upload');
+      const component = await catalog.getComponent(id);
+      const { inspection, sha256 } = inspectUploadedDxf(file.path);
+      const { outline, unit } = normalizeOutline(inspection, f.unit ?? null, component.unit, { x: f.datumX ?? 0, y: f.datumY ?? 0 });
+      const mapped = await mapLayers(outline, f.layerMap);
+      keepOriginal(dataDir, file.path, sha256);
+      res.json(await catalog.setOutline(currentUser(req).id, id, mapped, { name: file.originalname, size: file.size, sha256, unit }));
+    }) },
+    { method: 'post', path: '/jobs/:id/outline', access: CAN.editTemplates, before: upload, handler: (req, res) => usingUpload(req.file, async (file) => {
+      const { id } = parseOr400(IdParamSchema, req.params, 'address');
+      const f = parseOr400(OutlineFieldsSchema, req.body, 'part outline upload');
+      const job = await jobs.detail(id);
+      const { inspection, sha256 } = inspectUploadedDxf(file.path);
+      // The part's datum corner defaults to the lower-left corner of its extents: the corner that sits against the stop.
+      const datum = { x: f.datumX ?? inspection.bbox?.minX ?? 0, y: f.datumY ?? inspection.bbox?.minY ?? 0 };
+      const { outline, unit } = normalizeOutline(inspection, f.unit ?? null, job.unit, datum);
+      keepOriginal(dataDir, file.path, sha256);
+      res.json(await jobs.setPartOutline(currentUser(req), id, outline, { name: file.originalname, size: file.size, sha256, unit, datum }));
+    }) },
   ];
 }

@@ -3,7 +3,7 @@ import { CAN } from '../../shared/schemas/auth';
 import { IdParamSchema } from '../../shared/schemas/common';
 import { z } from 'zod';
 import { currentUser } from '../middleware/auth';
-import { discardUpload, singleFileUpload } from '../middleware/upload';
+import { singleFileUpload, usingUpload } from '../middleware/upload';
 import type { ManifestService } from '../services/manifest';
 import type { TemplatesService } from '../services/templates';
 import { parseOr400 } from './parse';
@@ -14,13 +14,7 @@ const XLSX = 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet'
 export function manifestRoutes(deps: { manifest: ManifestService; templates: TemplatesService; dataDir: string; uploadLimitBytes: number }): RouteDef[] {
   const { manifest, templates } = deps;
   const upload = singleFileUpload(deps.dataDir, deps.uploadLimitBytes);
-  const withFile = async <T>(file: Express.Multer.File | undefined, fn: (buf: Buffer) => Promise<T>) => {
-    try {
-      return await fn(readFileSync(file!.path));
-    } finally {
-      discardUpload(file);
-    }
-  };
+  const withFile = <T>(file: Express.Multer.File | undefined, fn: (buf: Buffer) => Promise<T>) => usingUpload(file, (f) => fn(readFileSync(f.path)));
   return [
     { method: 'get', path: '/manifest.xlsx', access: 'signed-in', handler: async (_req, res) => {
       const xlsx = await manifest.exportCatalog();

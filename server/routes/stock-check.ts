@@ -2,7 +2,7 @@ import { readFileSync } from 'node:fs';
 import ExcelJS from 'exceljs';
 import { checkStock } from '../../shared/clamps/stock-check';
 import { HttpError } from '../middleware/errors';
-import { discardUpload, singleFileUpload } from '../middleware/upload';
+import { singleFileUpload, usingUpload } from '../middleware/upload';
 import { StockCheckRequestSchema } from '../../shared/schemas/stock-check';
 import { parseOr400 } from './parse';
 import type { RouteDef } from './route-table';
@@ -47,11 +47,7 @@ export function stockCheckRoutes(deps: { dataDir: string; uploadLimitBytes: numb
   const upload = singleFileUpload(deps.dataDir, deps.uploadLimitBytes);
   return [
     { method: 'post', path: '/stock-check/bars-file', access: 'signed-in', before: upload, handler: async (req, res) => {
-      try {
-        res.json(await barsFileText(readFileSync(req.file!.path)));
-      } finally {
-        discardUpload(req.file);
-      }
+      res.json(await usingUpload(req.file, (f) => barsFileText(readFileSync(f.path))));
     } },
     { method: 'post', path: '/stock-check', access: 'signed-in', handler: (req, res) => {
       res.json(checkStock(parseOr400(StockCheckRequestSchema, req.body, 'stock check')));
