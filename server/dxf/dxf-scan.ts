@@ -1,4 +1,5 @@
 import { DxfError } from './dxf-error';
+import { LIMITS } from '../../shared/schemas/limits';
 
 /**
  * One pass over the group code / value pairs of an ASCII DXF file, before dxf-parser sees it.
@@ -151,12 +152,20 @@ export function scanDxf(text: string, maxEntities: number): DxfScan {
   let curPaper = false;
   let curReread = false;
   let lwCount = 0;
+  let lwListed = 0;
   let polylineOpen = 0; // line of a POLYLINE waiting for its SEQEND
   let attribsOpen = false; // an INSERT may be followed by ATTRIBs and a SEQEND
   let attribsPaper = false;
 
   const finishEntity = (): void => {
     if (curType === null || container === null) return;
+    if (curType === 'LWPOLYLINE' && lwCount > lwListed) {
+      throw new DxfError(
+        'malformed',
+        `The LWPOLYLINE at line ${curLine} in ${where(container)} declares ${lwCount.toLocaleString('en-US')} vertices (group 90) but lists ${lwListed}; the file is damaged.`,
+        { line: curLine, block: container.block ?? undefined },
+      );
+    }
     if (curPaper) container.paperSpace++;
     else if (!READ_ENTITY_TYPES.has(curType)) bump(container.unsupported, curType);
     if (curReread && curParsed >= 0) {
@@ -195,6 +204,7 @@ export function scanDxf(text: string, maxEntities: number): DxfScan {
     curPaper = false;
     curReread = false;
     lwCount = 0;
+    lwListed = 0;
     if (type === 'INSERT') c.lines.set(curParsed, line);
   };
 
@@ -442,9 +452,19 @@ export function scanDxf(text: string, maxEntities: number): DxfScan {
     } else if (curType === 'SPLINE') {
       if (code === 41) curReread = true; // weights of a rational spline
     } else if (curType === 'LWPOLYLINE') {
-      if (code === 90) lwCount = Number(text.slice(valueStart, valueEnd));
+      if (code === 90) {
+        lwCount = Number(text.slice(valueStart, valueEnd));
+        // dxf-parser makes as many vertices as group 90 declares, listed or not: bound it first.
+        if (lwCount > LIMITS.dxfPolylineVertices) {
+          throw new DxfError(
+            'too-large',
+            `The LWPOLYLINE at line ${curLine} in ${where(container!)} declares ${lwCount.toLocaleString('en-US')} vertices (group 90); Gridset reads polylines of up to ${LIMITS.dxfPolylineVertices.toLocaleString('en-US')}. Simplify it or split it.`,
+            { line: curLine, block: container!.block ?? undefined },
+          );
+        }
+      } else if (code === 10) lwListed++;
       else if (code === 91) curReread = true; // vertex identifier, R2010+
-      else if (code === 10 && !(lwCount > 0)) {
+      if (code === 10 && !(lwCount > 0)) {
         throw new DxfError(
           'malformed',
           `The LWPOLYLINE at line ${curLine} in ${where(container!)} lists vertices, but its vertex count (group 90) is missing or zero.`,

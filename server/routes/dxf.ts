@@ -7,7 +7,7 @@ import type { Outline } from '../../shared/schemas/geometry';
 import { currentUser } from '../middleware/auth';
 import { HttpError } from '../middleware/errors';
 import { singleFileUpload, usingUpload } from '../middleware/upload';
-import { inspectUploadedDxf, keepOriginal, normalizeOutline } from '../services/dxf-uploads';
+import { boundedJson, inspectUploadedDxf, keepOriginal, normalizeOutline } from '../services/dxf-uploads';
 import type { CatalogService } from '../services/catalog';
 import type { JobsService } from '../services/jobs';
 import type { NamingService } from '../services/naming';
@@ -64,7 +64,8 @@ export function dxfRoutes(deps: { dataDir: string; uploadLimitBytes: number; cat
     { method: 'post', path: '/dxf/inspect', access: CAN.editCatalog, before: upload, handler: (req, res) => usingUpload(req.file, async (file) => {
       const { inspection } = inspectUploadedDxf(file.path);
       const { unit, layers, entities, entityTypes, bbox, circles, unsupported, outline, notes, points, approximations, warnings, version, insunits } = inspection;
-      res.json({ unit, insunits, version, layers: await layerReport(layers), entities, entityTypes, bbox, circles, unsupported, outline, notes, points, approximations, warnings });
+      const answer = { unit, insunits, version, layers: await layerReport(layers), entities, entityTypes, bbox, circles, unsupported, outline, notes, points, approximations, warnings };
+      res.type('application/json').send(boundedJson(answer, file.size));
     }) },
     { method: 'post', path: '/components/:id/outline', access: CAN.editCatalog, before: upload, handler: (req, res) => usingUpload(req.file, async (file) => {
       const { id } = parseOr400(IdParamSchema, req.params, 'address');
