@@ -165,12 +165,12 @@ export const xlsxFixtures = () => ['xlsx/components-openpyxl.xlsx', 'xlsx/compon
 
 type Json = null | boolean | number | string | Json[] | { [k: string]: Json };
 
-const HOSTILE_VALUES: Json[] = [null, true, '', [], {}, ...HOSTILE_NUMBERS, ...HOSTILE_TEXT.slice(0, 12), { __proto__: { x: 1 } } as unknown as Json, [[[[[[]]]]]]];
+const HOSTILE_VALUES: Json[] = [null, true, '', [], {}, ...HOSTILE_NUMBERS, ...HOSTILE_TEXT.slice(0, 12), JSON.parse('{"__proto__": {"x": 1}}') as Json, [[[[[[]]]]]]];
 
 /** Every path into a JSON value. */
 function paths(v: Json, at: (string | number)[] = [], out: (string | number)[][] = []): (string | number)[][] {
   out.push(at);
-  if (out.length > 4000) return out;
+  if (out.length > 4000 || at.length > 40) return out;
   if (Array.isArray(v)) v.slice(0, 50).forEach((x, i) => paths(x, [...at, i], out));
   else if (v && typeof v === 'object') for (const k of Object.keys(v)) paths(v[k]!, [...at, k], out);
   return out;
@@ -183,19 +183,21 @@ export function mutateJson(rng: Rng, body: Json): Json {
   for (let k = 0; k < n; k++) {
     const all = paths(root);
     const p = rng.pick(all);
-    if (p.length === 0) { root = rng.pick(HOSTILE_VALUES); continue; }
+    // Hostile values are cloned: a later edit must never reach the shared list (or make a cycle).
+    const hostile = () => structuredClone(rng.pick(HOSTILE_VALUES));
+    if (p.length === 0) { root = hostile(); continue; }
     let parent = root as Record<string | number, Json>;
     for (const key of p.slice(0, -1)) parent = parent[key] as Record<string | number, Json>;
     const key = p[p.length - 1]!;
     const cur = parent[key]!;
     const op = rng.int(6);
-    if (op <= 2) parent[key] = typeof cur === 'number' && rng.next() < 0.6 ? rng.pick(HOSTILE_NUMBERS) * (rng.next() < 0.5 ? -1 : 1) : rng.pick(HOSTILE_VALUES);
+    if (op <= 2) parent[key] = typeof cur === 'number' && rng.next() < 0.6 ? rng.pick(HOSTILE_NUMBERS) * (rng.next() < 0.5 ? -1 : 1) : hostile();
     else if (op === 3) { if (Array.isArray(parent)) parent.splice(Number(key), 1); else delete parent[key]; }
     else if (op === 4 && Array.isArray(cur) && cur.length) {
       const len = rng.pick([201, 1_001, 5_001, 20_001]);
       parent[key] = Array.from({ length: len }, (_, i) => structuredClone(cur[i % cur.length]!));
     } else if (typeof cur === 'string') parent[key] = cur + rng.pick(HOSTILE_TEXT).slice(0, 200);
-    else parent[key] = rng.pick(HOSTILE_VALUES);
+    else parent[key] = hostile();
   }
   return root;
 }
