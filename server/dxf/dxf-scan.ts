@@ -117,6 +117,9 @@ function quote(s: string): string {
  * Check the structure of `text` and collect what the reader needs besides dxf-parser's output.
  * Throws DxfError for a file that is not an ASCII DXF, is cut off, or is built wrong.
  */
+/** Group codes dxf-parser 1.1.2 reads inside an LWPOLYLINE vertex (x, y, z, widths, bulge). */
+const LW_VERTEX_CODES: ReadonlySet<number> = new Set([10, 20, 30, 40, 41, 42]);
+
 export function scanDxf(text: string, maxEntities: number): DxfScan {
   const len = text.length;
   // dxf-parser splits lines on \r\n, \r and \n; follow the same rule so pair counts agree.
@@ -153,6 +156,7 @@ export function scanDxf(text: string, maxEntities: number): DxfScan {
   let curReread = false;
   let lwCount = 0;
   let lwListed = 0;
+  let lwPrev = -1;
   let polylineOpen = 0; // line of a POLYLINE waiting for its SEQEND
   let attribsOpen = false; // an INSERT may be followed by ATTRIBs and a SEQEND
   let attribsPaper = false;
@@ -205,6 +209,7 @@ export function scanDxf(text: string, maxEntities: number): DxfScan {
     curReread = false;
     lwCount = 0;
     lwListed = 0;
+    lwPrev = -1;
     if (type === 'INSERT') c.lines.set(curParsed, line);
   };
 
@@ -439,6 +444,19 @@ export function scanDxf(text: string, maxEntities: number): DxfScan {
       continue;
     }
     if (curType === null) continue;
+
+    // dxf-parser 1.1.2 reads an LWPOLYLINE vertex until a code it does not know, then steps back
+    // two groups: right after a group 10 that lands on the 10 again, and it loops for ever.
+    if (curType === 'LWPOLYLINE') {
+      if (lwPrev === 10 && !LW_VERTEX_CODES.has(code)) {
+        throw new DxfError(
+          'malformed',
+          `The LWPOLYLINE at line ${curLine} in ${where(container!)} has a vertex x (group 10) at line ${codeLine - 2} followed by group ${code} instead of its y (group 20); the file is damaged.`,
+          { line: curLine, block: container!.block ?? undefined },
+        );
+      }
+      lwPrev = code;
+    }
 
     // Group codes inside an entity that dxf-parser 1.1.2 does not keep or mishandles.
     if (code === 67) {

@@ -11,13 +11,15 @@ import {
 
 type Json = Parameters<typeof mutateJson>[1];
 
-export interface FuzzCase { route: string; label: string; send: (a: Agent) => request.Test }
+export interface FuzzCase { route: string; label: string; send: (a: Agent) => request.Test; /** What is sent, for replaying a failure. */ payload?: Buffer | Json }
 
 export interface FuzzReport {
   /** route → status → count */
   counts: Map<string, Map<number, number>>;
   /** Requests answered 5xx, refused writes that changed a table, or errors the app logged. */
   failures: string[];
+  /** Requests that took longer than slowMs: reported, never asserted (speed belongs in tests/bench). */
+  slow: string[];
   requests: number;
 }
 
@@ -35,7 +37,7 @@ async function tableCounts(t: TestApp): Promise<string> {
 }
 
 const file = (route: string, url: string, fields: Record<string, string> = {}) => (label: string, body: Buffer, name = 'upload.bin'): FuzzCase => ({
-  route, label,
+  route, label, payload: body,
   send: (a) => {
     let r = a.http.post(url).set('X-CSRF-Token', a.token);
     for (const [k, v] of Object.entries(fields)) r = r.field(k, v);
@@ -44,7 +46,7 @@ const file = (route: string, url: string, fields: Record<string, string> = {}) =
 });
 
 const json = (route: string, method: 'post' | 'put', url: () => string) => (label: string, body: Json): FuzzCase => ({
-  route, label,
+  route, label, payload: body,
   send: (a) => a.http[method](url()).set('X-CSRF-Token', a.token).set('Content-Type', 'application/json').send(JSON.stringify(body) ?? 'null'),
 });
 
@@ -66,7 +68,7 @@ function rawCase(route: string, method: 'post' | 'put', url: string, rng: Rng): 
 }
 
 /** Builds perRoute cases for each route from the demo shop's own records; named hostile inputs come first. */
-export async function buildCases(t: TestApp, a: Agent, perRoute: number, seed: number): Promise<FuzzCase[]> {
+export async function buildCases(t: TestApp, a: Agent, perRoute: number, seed: number): Promise<AsyncIterable<FuzzCase>> {
   const rng = makeRng(seed);
   const get = async (url: string) => (await a.get(url).expect(200)).body;
   const component = (await get('/api/components?limit=1')).items[0];
@@ -132,30 +134,45 @@ export async function buildCases(t: TestApp, a: Agent, perRoute: number, seed: n
   jsonRoute('POST /api/naming/check', 'post', () => '/api/naming/check', () => ({ target: 'layer', name: 'FX-CR-8' }));
   jsonRoute('PUT /api/naming/convention', 'put', () => '/api/naming/convention', () => ({ layer: convention.layer, component: convention.component }));
 
-  const cases: FuzzCase[] = [];
-  for (const r of routes) {
-    const own: FuzzCase[] = [...r.named];
-    while (own.length < perRoute) own.push(own.length % 20 === 19 && r.raw ? rawCase(r.name, r.raw[0], r.raw[1], rng) : await r.make());
-    cases.push(...own);
-  }
   // Keep the draft's revision current so saves are judged on their content, not refused as stale.
   const trackRevision = (c: FuzzCase): FuzzCase => (c.route.startsWith('PUT /api/templates/') ? {
     ...c,
     send: (ag) => c.send(ag).on('response', (res: { status: number; body?: { revision?: number } }) => { if (res.status === 200 && typeof res.body?.revision === 'number') revision = res.body.revision; }),
   } : c);
-  return cases.map(trackRevision);
+  // Made one at a time as they are sent, so a long run holds one case in memory, not all of them.
+  async function* cases(): AsyncGenerator<FuzzCase> {
+    for (const r of routes) {
+      for (let i = 0; i < perRoute; i++) {
+        const c = i < r.named.length ? r.named[i]! : i % 20 === 19 && r.raw ? rawCase(r.name, r.raw[0], r.raw[1], rng) : await r.make();
+        yield trackRevision(c);
+      }
+    }
+  }
+  return cases();
 }
 
 /** Sends every case; after each refusal (4xx) the row count of every table must be unchanged. */
-export async function runCases(t: TestApp, a: Agent, cases: FuzzCase[]): Promise<FuzzReport> {
+export async function runCases(t: TestApp, a: Agent, cases: AsyncIterable<FuzzCase>, progress?: (line: string) => void, slowMs = 2000, onStuck?: (index: number, c: FuzzCase) => void): Promise<FuzzReport> {
   const counts = new Map<string, Map<number, number>>();
   const failures: string[] = [];
+  const slow: string[] = [];
   let before = await tableCounts(t);
-  for (const [i, c] of cases.entries()) {
+  let i = -1;
+  for await (const c of cases) {
+    i++;
     const logged = t.errors.length;
     let status: number;
+    const started = Date.now();
+    // A synchronous freeze blocks every timer: onStuck is also called before each send, so the
+    // last case it saw is the one that froze.
+    onStuck?.(i, c);
+    const watchdog = setTimeout(() => onStuck?.(i, c), 10_000);
     try {
       status = (await c.send(a)).status;
+      const ms = Date.now() - started;
+      if (ms > slowMs) slow.push(`#${i} ${c.route} (${c.label}): ${status} after ${ms} ms`);
+      if (progress && (i + 1) % 1000 === 0) progress(`${i + 1} requests`);
+      clearTimeout(watchdog);
     } catch (err) {
       status = 599;
       failures.push(`#${i} ${c.route} (${c.label}): the request failed: ${(err as Error).message}`);
@@ -169,7 +186,7 @@ export async function runCases(t: TestApp, a: Agent, cases: FuzzCase[]): Promise
     if (status >= 400 && after !== before) failures.push(`#${i} ${c.route} (${c.label}): refused with ${status} but row counts changed: ${before} → ${after}`);
     before = after;
   }
-  return { counts, failures, requests: cases.length };
+  return { counts, failures, slow, requests: i + 1 };
 }
 
 export function formatReport(r: FuzzReport): string {

@@ -58,6 +58,8 @@ export function namedHostileDxf(): { name: string; file: Buffer }[] {
     { name: 'lwpolyline with bulges of 1e12', file: doc([lwpolyline('0', true, [[0, 0, 1e12], [1, 0, -1e12], [1, 1, 1e12]])]) },
     { name: 'insert scaled 1e12', file: Buffer.from(dxfDocument({ insunits: 4, blocks: [{ name: 'B', entities: [circle('0', 0, 0, 1)] }], entities: [entity('INSERT', '0', [2, 'B'], [10, 0], [20, 0], [30, 0], [41, 1e12], [42, 1e12])] })) },
     { name: 'minsert 10,000 × 10,000', file: Buffer.from(dxfDocument({ insunits: 4, blocks: [{ name: 'B', entities: [circle('0', 0, 0, 1)] }], entities: [entity('INSERT', '0', [2, 'B'], [10, 0], [20, 0], [30, 0], [70, 10_000], [71, 10_000], [44, 1], [45, 1])] })) },
+    // dxf-parser 1.1.2 steps back two groups at an unknown code inside a vertex: after a 10 it loops for ever.
+    { name: 'lwpolyline vertex x followed by group 330', file: doc([entity('LWPOLYLINE', '0', [90, 2], [70, 0], [10, 0], [20, 0], [10, 1], [330, 'AB'], [20, 1])]) },
     { name: 'layer with control characters', file: doc([circle('FX\u0001ST\u007f', 0, 0, 5)]) },
     { name: 'only a header', file: Buffer.from('  0\nSECTION\n  2\nHEADER\n  0\nENDSEC\n  0\nEOF\n') },
     { name: 'binary noise', file: Buffer.from(Array.from({ length: 4096 }, (_, i) => (i * 7919) % 256)) },

@@ -42,6 +42,12 @@ describe('DXF files', () => {
     expect(fewer.body.error.message).toMatch(/declares 5 vertices \(group 90\) but lists 2/);
   });
 
+  it('an LWPOLYLINE vertex whose x (group 10) is followed by another group than its y is refused before dxf-parser loops on it', async () => {
+    const res = await send('/api/dxf/inspect', doc(entity('LWPOLYLINE', '0', [90, 2], [70, 0], [10, 0], [20, 0], [10, 1], [330, 'AB'], [20, 1])));
+    expect(res.status).toBe(400);
+    expect(res.body.error.message).toMatch(/has a vertex x \(group 10\) at line \d+ followed by group 330 instead of its y \(group 20\)/);
+  });
+
   it('a component outline circle of radius 1e12 is refused, from a DXF or as JSON, and the component keeps its outline', async () => {
     const before = (await lead.get('/api/components/1').expect(200)).body.outline;
     const counts = await tableCounts(t.db, TABLES);
