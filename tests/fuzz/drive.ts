@@ -80,6 +80,7 @@ export async function buildCases(t: TestApp, a: Agent, perRoute: number, seed: n
   let revision: number = draft.revision;
   const templateFile = JSON.parse((await a.get('/api/templates/1/versions/1/template.json').expect(200)).text);
   const convention = await get('/api/naming/convention');
+  const settings = await get('/api/settings');
   const manifestXlsx = (await a.get('/api/manifest.xlsx').buffer(true).parse((res, cb) => { const c: Buffer[] = []; res.on('data', (d: Buffer) => c.push(d)); res.on('end', () => cb(null, Buffer.concat(c))); }).expect(200)).body as Buffer;
   const clampComponent = (await get('/api/components?limit=50')).items.find((c: { clamp: unknown }) => c.clamp);
 
@@ -133,6 +134,9 @@ export async function buildCases(t: TestApp, a: Agent, perRoute: number, seed: n
   jsonRoute('POST /api/stock-check', 'post', () => '/api/stock-check', () => stockBody);
   jsonRoute('POST /api/naming/check', 'post', () => '/api/naming/check', () => ({ target: 'layer', name: 'FX-CR-8' }));
   jsonRoute('PUT /api/naming/convention', 'put', () => '/api/naming/convention', () => ({ layer: convention.layer, component: convention.component }));
+  jsonRoute('PUT /api/settings', 'put', () => '/api/settings', () => settings);
+  jsonRoute('POST /api/templates/:id/versions', 'post', () => '/api/templates/1/versions', () => ({ from: 1 }));
+  jsonRoute('POST /api/templates/:id/versions/:n/release', 'post', () => `/api/templates/${draftId}/versions/1/release`, () => ({ waiver: 'Checked on the machine by the lead.' }));
 
   // Keep the draft's revision current so saves are judged on their content, not refused as stale.
   const trackRevision = (c: FuzzCase): FuzzCase => (c.route.startsWith('PUT /api/templates/') ? {
