@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { CAN } from '../../shared/schemas/auth';
 import { IdParamSchema, UnitSchema } from '../../shared/schemas/common';
+import { LIMITS } from '../../shared/schemas/limits';
 import { checkName } from '../../shared/naming/check-name';
 import { proposeName } from '../../shared/naming/propose-name';
 import type { Outline } from '../../shared/schemas/geometry';
@@ -14,7 +15,8 @@ import type { NamingService } from '../services/naming';
 import { parseOr400 } from './parse';
 import type { RouteDef } from './route-table';
 
-const num = (label: string) => z.coerce.number({ message: `${label} must be a number.` }).refine(Number.isFinite, `${label} must be a number.`);
+const num = (label: string) => z.coerce.number({ message: `${label} must be a number.` }).refine(Number.isFinite, `${label} must be a number.`)
+  .refine((v) => Math.abs(v) <= LIMITS.coordinate, `${label} must lie between -${LIMITS.coordinate.toLocaleString('en-US')} and ${LIMITS.coordinate.toLocaleString('en-US')}.`);
 const OutlineFieldsSchema = z.object({
   unit: UnitSchema.optional(),
   /** The point of the drawing that becomes the local origin (primary dowel or part datum), in the drawing's unit. */
