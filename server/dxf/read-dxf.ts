@@ -431,12 +431,12 @@ class Reader {
     return `${/^[AEIOU]/.test(this.curType) ? 'An' : 'A'} ${this.curType} entity`;
   }
 
-  /** Counts n points against the drawing's budget before they are made. */
-  private spend(n: number): void {
-    if (n > LIMITS.dxfCurvePoints && this.curType !== 'LWPOLYLINE' && this.curType !== 'POLYLINE') {
+  /** Counts n points against the drawing's budget before they are made; one curve has a limit of its own. */
+  private spend(n: number, curve: boolean): void {
+    if (curve && n > LIMITS.dxfCurvePoints) {
       throw new DxfError(
         'too-large',
-        `${this.entityName} on layer "${this.curLayer}" would become ${Math.round(n).toLocaleString('en-US')} points, more than the ${LIMITS.dxfCurvePoints.toLocaleString('en-US')} Gridset makes of one curve; check its size and scale.`,
+        `${this.entityName} on layer "${this.curLayer}" would become at least ${Math.round(n).toLocaleString('en-US')} points, more than the ${LIMITS.dxfCurvePoints.toLocaleString('en-US')} Gridset makes of one curve; check its size and scale.`,
       );
     }
     this.pointBudget -= n;
@@ -680,7 +680,7 @@ class Reader {
       return;
     }
     const vs = verts!;
-    this.spend(n);
+    this.spend(n, false);
     const segments = closed ? n : n - 1;
     if (m.kind !== 2) {
       const flip = m.mirror ? -1 : 1;
@@ -726,7 +726,7 @@ class Reader {
       const cx = m.a * a.cx + m.c * a.cy + m.e;
       const cy = m.b * a.cx + m.d * a.cy + m.f;
       this.inRange(cx, cy, m.a * r, m.b * r, m.c * r, m.d * r);
-      this.spend(conicSteps(m.a * r, m.b * r, m.c * r, m.d * r, a.sweep, this.tol));
+      this.spend(conicSteps(m.a * r, m.b * r, m.c * r, m.d * r, a.sweep, this.tol), true);
       const arc = flattenConic(cx, cy, m.a * r, m.b * r, m.c * r, m.d * r, a.a0, a.sweep, this.tol);
       for (let k = 1; k < arc.length - 1; k++) pts.push(arc[k]!);
       addArcExtents(this.ext, cx, cy, m.a * r, m.b * r, m.c * r, m.d * r, a.a0, a.sweep);
@@ -780,7 +780,7 @@ class Reader {
     for (const v of [cx, cy, ux, uy, vx, vy, t0, sweep]) if (!Number.isFinite(v)) this.bad();
     this.inRange(cx, cy, ux, uy, vx, vy);
     const full = sweep >= TAU - 1e-12;
-    this.spend(conicSteps(ux, uy, vx, vy, full ? TAU : sweep, this.tol));
+    this.spend(conicSteps(ux, uy, vx, vy, full ? TAU : sweep, this.tol), true);
     const pts = flattenConic(cx, cy, ux, uy, vx, vy, t0, full ? TAU : sweep, this.tol);
     if (full) pts.pop();
     addArcExtents(this.ext, cx, cy, ux, uy, vx, vy, t0, full ? TAU : sweep);
@@ -934,9 +934,10 @@ class Reader {
     // P&T §3.2; §4.2 for positive weights), so bounding them bounds the curve.
     this.inRange(...spline.points);
     const ev = new SplineEvaluator(spline);
-    const flat = flattenSpline(ev, this.tol, Math.min(LIMITS.dxfCurvePoints, Math.max(0, this.pointBudget)) + 1);
-    // null: past the limit; spend() then refuses it with the limit's sentence.
-    this.spend(flat === null ? Math.max(LIMITS.dxfCurvePoints, this.pointBudget) + 1 : flat.points.length);
+    const cap = Math.min(LIMITS.dxfCurvePoints, Math.max(0, this.pointBudget));
+    const flat = flattenSpline(ev, this.tol, cap + 1);
+    // null: past the cap; spend() then refuses it with the limit's sentence.
+    this.spend(flat === null ? cap + 1 : flat.points.length, true);
     if (flat === null) return;
     addCurveExtents(this.ext, ev, flat);
     const pts: Vec2[] = flat.points;

@@ -78,15 +78,23 @@ describe('DXF files', () => {
     expect(res.body.error.details.problems.map((p: { code: string }) => p.code)).toContain('overlap');
   });
 
-  it('a SPLINE that would flatten to megabytes is refused, and any inspect answer stays within 20× the file or 4 MB', async () => {
+  it('a short SPLINE answers within 20× the file or 4 MB, and one that would flatten past 20,000 points is refused', async () => {
     // Control points inside the limit, knots packed so one span is 1e-12 long: the refinement would halve it 2^18 times.
     const pts = [[0, 0], [99_000, 99_000], [-99_000, 99_000], [99_000, -99_000], [1, 0]];
     const knots = [0, 0, 0, 0, 1e-12, 1, 1, 1, 1];
     const spline = entity('SPLINE', '0', [70, 8], [71, 3], [72, knots.length], [73, pts.length], ...knots.map((k) => [40, k] as const), ...pts.flatMap(([x, y]) => [[10, x!], [20, y!], [30, 0]] as const));
     const file = doc(spline);
-    const res = await send('/api/dxf/inspect', file);
-    if (res.status === 200) expect(res.text.length).toBeLessThanOrEqual(Math.max(20 * file.length, 4 * 1024 * 1024));
-    else expect(res.body.error.message).toMatch(/more than the 20,000 Gridset makes of one curve|more than 500,000 points/);
+    const res = await send('/api/dxf/inspect', file).expect(200);
+    expect(res.text.length).toBeLessThanOrEqual(Math.max(20 * file.length, 4 * 1024 * 1024));
+    // 2,000 control points zigzagging ±99,000 mm, 45 mm apart: each of the 1,997 knot spans is cut
+    // into 4 pieces and refined, so the polyline needs more than the 20,000 points one curve may have.
+    const n = 2000;
+    const zig = Array.from({ length: n }, (_, i) => [i * 45, i % 2 ? 99_000 : -99_000]);
+    const uniform = [0, 0, 0, ...Array.from({ length: n - 2 }, (_, i) => i), n - 3, n - 3, n - 3];
+    const big = doc(entity('SPLINE', '0', [70, 8], [71, 3], [72, uniform.length], [73, n], ...uniform.map((k) => [40, k] as const), ...zig.flatMap(([x, y]) => [[10, x!], [20, y!], [30, 0]] as const)));
+    const refused = await send('/api/dxf/inspect', big);
+    expect(refused.status).toBe(400);
+    expect(refused.body.error.message).toMatch(/^A SPLINE entity on layer "0" would become at least 20,001 points, more than the 20,000 Gridset makes of one curve/);
   });
 });
 
