@@ -101,7 +101,7 @@ export function mutateBytes(rng: Rng, seed: Buffer, tailBias = false): Buffer {
       case 1: b[at] = rng.pick([0, 0xff, 0x7f, 0x80]); break;
       case 2: b = b.subarray(0, Math.max(0, at)); break;
       case 3: b = Buffer.concat([b.subarray(0, at), b.subarray(at, at + 1 + rng.int(512)), b.subarray(at)]); break;
-      default: b.writeUInt32LE(rng.pick([0xffffffff, 0, 0x7fffffff, b.length * 2]) >>> 0, Math.min(at, Math.max(0, b.length - 4))); break;
+      default: if (b.length >= 4) b.writeUInt32LE(rng.pick([0xffffffff, 0, 0x7fffffff, b.length * 2]) >>> 0, Math.min(at, b.length - 4)); break;
     }
     if (b.length === 0) break;
   }
