@@ -121,11 +121,14 @@ function countSheet(xml: Buffer, maxRows: number, maxCells: number): { rows: num
 /**
  * Parts exceljs 4.4 cannot read as other programs write them: legacy cell comments and the VML
  * drawing that shows them (ECMA-376 Part 1, §18.7 Comments and §18.3.1.48 legacyDrawing; VML per
- * Part 4), and threaded comments with their persons. exceljs throws on the comment parts
- * openpyxl writes (open upstream bug); none of them holds a cell value, so they are left out.
+ * Part 4), threaded comments with their persons, and drawings with their charts (§18.3.1.36
+ * drawing; DrawingML, Part 1 §20). exceljs throws on the comment parts openpyxl writes
+ * (exceljs issue #2797, "Cannot read properties of undefined (reading 'comments')") and on some
+ * drawings (#2591, "… (reading 'anchors')"), both open; none of them holds a cell value, so they
+ * are left out, with their relationships, elements and content types.
  */
-const DROPPED_PART = /^xl\/(?:comments[^/]*\.xml|comments\/.*|threadedComments\/.*|persons\/.*|drawings\/[^/]*\.vml)$/i;
-const DROPPED_REL = /\/(?:comments|vmlDrawing|threadedComment|person)$/;
+const DROPPED_PART = /^xl\/(?:comments[^/]*\.xml|comments\/.*|threadedComments\/.*|persons\/.*|drawings\/.*|charts\/.*)$/i;
+const DROPPED_REL = /\/(?:comments|vmlDrawing|threadedComment|person|drawing|chart)$/;
 
 /** Merged ranges of a worksheet (<mergeCell ref>, ECMA-376 Part 1, §18.3.1.55): count and cells covered. */
 function mergedArea(text: string, maxRanges: number): { ranges: number; cells: number } {
@@ -154,7 +157,7 @@ function withoutDropped(name: string, data: Buffer, dropped: ReadonlySet<string>
   }
   if (/^xl\/worksheets\/[^/]+\.xml$/.test(name)) {
     const text = data.toString('utf8');
-    const kept = text.replace(/<(?:[\w.-]+:)?legacyDrawing(?:HF)?\b[^>]*?\/>/g, '');
+    const kept = text.replace(/<(?:[\w.-]+:)?(?:legacyDrawing(?:HF)?|drawing)\b[^>]*?\/>/g, '');
     return kept === text ? data : Buffer.from(kept, 'utf8');
   }
   if (name === '[Content_Types].xml') {

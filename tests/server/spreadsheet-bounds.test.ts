@@ -62,7 +62,7 @@ describe('workbooks other programs wrote', () => {
     expect(read.rows.map((r) => [r.bar.id, r.bar.width, r.bar.thickness, r.bar.cornerRadius])).toEqual(facts[file]!.rows.slice(1));
   });
 
-  it('LibreOffice Calc 7.4 and exceljs (with a note, which exceljs writes as a legacy comment) both read', async () => {
+  it('LibreOffice Calc 7.4 and exceljs (with a note, written as a legacy comment, and a picture) both read', async () => {
     const lo = await upload('/api/manifest/preview', fixture('xlsx/components-libreoffice.xlsx'));
     expect(lo.status).toBe(200);
     const wb = new ExcelJS.Workbook();
@@ -70,8 +70,13 @@ describe('workbooks other programs wrote', () => {
     ws.addRow(['id', 'width', 'thickness', 'corner radius']);
     ws.addRow(['B7', 0.75, 0.5, 0.01]);
     ws.getCell('A2').note = 'from the saw';
+    // A 1 × 1 PNG (PNG spec, ISO/IEC 15948: signature, IHDR, IDAT, IEND), placed as a picture.
+    const png = Buffer.from('iVBORw0KGgoAAAANSUhEUgAAAAEAAAABCAYAAAAfFcSJAAAADUlEQVR42mP8z8BQDwAEhQGAhKmMIQAAAABJRU5ErkJggg==', 'base64');
+    ws.addImage(wb.addImage({ buffer: png as never, extension: 'png' }), 'F2:G4');
     const buf = Buffer.from(await wb.xlsx.writeBuffer());
-    expect(Object.keys((await JSZip.loadAsync(buf)).files).some((n) => /comments/.test(n))).toBe(true);
+    const parts = Object.keys((await JSZip.loadAsync(buf)).files);
+    expect(parts.some((n) => /comments/.test(n))).toBe(true);
+    expect(parts.some((n) => /^xl\/drawings\/drawing\d+\.xml$/.test(n))).toBe(true);
     const res = await upload('/api/stock-check/bars-file', buf).expect(200);
     expect(res.body.text.split('\n')[1]).toBe('B7\t0.75\t0.5\t0.01');
   });
