@@ -5,11 +5,13 @@ import { openDb, migrate } from './db/knex';
 import { seedDemoDataIfEmpty } from './db/seed-demo';
 import { createApp } from './app';
 import { createMailer } from './mail/mailer';
+import { sweepUploadTemp } from './middleware/upload';
 
 const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..');
 
 async function main() {
   const config = readConfig();
+  sweepUploadTemp(config.dataDir);
   const db = openDb(config.databaseFile);
   await migrate(db);
   const seeded = await seedDemoDataIfEmpty(db);

@@ -259,13 +259,15 @@ export interface Flattened {
  * Approximates a B-spline by a polyline whose chord error stays within `tol`: each non-empty knot
  * span is cut into a few pieces, and a piece is halved while the curve at its quarter, half or
  * three-quarter parameter lies farther than tol from its chord (at most 2^18 pieces per span).
+ * Returns null once the polyline would pass maxPoints.
  */
-export function flattenSpline(ev: SplineEvaluator, tol: number): Flattened {
+export function flattenSpline(ev: SplineEvaluator, tol: number, maxPoints = Infinity): Flattened | null {
   const { knots: U, degree: p } = ev.spline;
   const n = ev.spline.points.length / 2 - 1;
   const points: Vec2[] = [];
   const params: number[] = [];
   const tmp: Vec2 = { x: 0, y: 0 };
+  let over = false;
   const push = (t: number): Vec2 => {
     const v = ev.at(t, { x: 0, y: 0 });
     points.push(v);
@@ -273,6 +275,11 @@ export function flattenSpline(ev: SplineEvaluator, tol: number): Flattened {
     return v;
   };
   const refine = (ta: number, a: Vec2, tb: number, b: Vec2, depth: number): void => {
+    // Past maxPoints the curve is given up (null): the caller refuses it rather than keep halving.
+    if (over || points.length >= maxPoints) {
+      over = true;
+      return;
+    }
     let worst = 0;
     for (const f of [0.25, 0.5, 0.75]) {
       ev.at(ta + (tb - ta) * f, tmp);
@@ -300,6 +307,7 @@ export function flattenSpline(ev: SplineEvaluator, tol: number): Flattened {
       const t = j === pieces ? ub : ua + ((ub - ua) * j) / pieces;
       const v = ev.at(t, { x: 0, y: 0 });
       refine(prevT, prev, t, v, 0);
+      if (over) return null;
       prev = v;
       prevT = t;
     }

@@ -113,6 +113,9 @@ function drawingExtents(d: Drawing): Extents {
   return ext;
 }
 
+/** C0 controls other than tab and line breaks, U+FFFE/U+FFFF and lone surrogates: not XML 1.0 characters. */
+const NOT_XML_CHAR = /[\u0000-\u0008\u000b\u000c\u000e-\u001f\ufffe\uffff]|[\ud800-\udbff](?![\udc00-\udfff])|(?<![\ud800-\udbff])[\udc00-\udfff]/g;
+
 /** Counter-clockwise sweep from start to end, in degrees, in (0, 360]. */
 function arcSweepDeg(start: number, end: number): number {
   const s = (((end - start) % 360) + 360) % 360;
@@ -249,5 +252,7 @@ export function drawingToSvg(drawing: Drawing, options: DrawingSvgOptions = {}):
     },
     children,
   );
-  return stringify(svg);
+  // Input refuses control characters; names stored before that was so are cleaned here, since
+  // XML 1.0 (§2.2 Char) has no place for them and a browser refuses the whole picture.
+  return stringify(svg).replace(NOT_XML_CHAR, '');
 }

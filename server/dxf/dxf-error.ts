@@ -8,7 +8,8 @@ export type DxfErrorCode =
   | 'no-entities'
   | 'missing-block'
   | 'recursive-block'
-  | 'too-many-entities';
+  | 'too-many-entities'
+  | 'too-large';
 
 export interface DxfErrorDetails {
   /** 1-based line of the file where the problem was found, when known. */

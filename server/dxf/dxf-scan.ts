@@ -1,4 +1,5 @@
 import { DxfError } from './dxf-error';
+import { LIMITS } from '../../shared/schemas/limits';
 
 /**
  * One pass over the group code / value pairs of an ASCII DXF file, before dxf-parser sees it.
@@ -116,6 +117,9 @@ function quote(s: string): string {
  * Check the structure of `text` and collect what the reader needs besides dxf-parser's output.
  * Throws DxfError for a file that is not an ASCII DXF, is cut off, or is built wrong.
  */
+/** Group codes dxf-parser 1.1.2 reads inside an LWPOLYLINE vertex (x, y, z, widths, bulge). */
+const LW_VERTEX_CODES: ReadonlySet<number> = new Set([10, 20, 30, 40, 41, 42]);
+
 export function scanDxf(text: string, maxEntities: number): DxfScan {
   const len = text.length;
   // dxf-parser splits lines on \r\n, \r and \n; follow the same rule so pair counts agree.
@@ -151,12 +155,21 @@ export function scanDxf(text: string, maxEntities: number): DxfScan {
   let curPaper = false;
   let curReread = false;
   let lwCount = 0;
+  let lwListed = 0;
+  let lwPrev = -1;
   let polylineOpen = 0; // line of a POLYLINE waiting for its SEQEND
   let attribsOpen = false; // an INSERT may be followed by ATTRIBs and a SEQEND
   let attribsPaper = false;
 
   const finishEntity = (): void => {
     if (curType === null || container === null) return;
+    if (curType === 'LWPOLYLINE' && lwCount > lwListed) {
+      throw new DxfError(
+        'malformed',
+        `The LWPOLYLINE at line ${curLine} in ${where(container)} declares ${lwCount.toLocaleString('en-US')} vertices (group 90) but lists ${lwListed}; the file is damaged.`,
+        { line: curLine, block: container.block ?? undefined },
+      );
+    }
     if (curPaper) container.paperSpace++;
     else if (!READ_ENTITY_TYPES.has(curType)) bump(container.unsupported, curType);
     if (curReread && curParsed >= 0) {
@@ -195,6 +208,8 @@ export function scanDxf(text: string, maxEntities: number): DxfScan {
     curPaper = false;
     curReread = false;
     lwCount = 0;
+    lwListed = 0;
+    lwPrev = -1;
     if (type === 'INSERT') c.lines.set(curParsed, line);
   };
 
@@ -430,6 +445,19 @@ export function scanDxf(text: string, maxEntities: number): DxfScan {
     }
     if (curType === null) continue;
 
+    // dxf-parser 1.1.2 reads an LWPOLYLINE vertex until a code it does not know, then steps back
+    // two groups: right after a group 10 that lands on the 10 again, and it loops for ever.
+    if (curType === 'LWPOLYLINE') {
+      if (lwPrev === 10 && !LW_VERTEX_CODES.has(code)) {
+        throw new DxfError(
+          'malformed',
+          `The LWPOLYLINE at line ${curLine} in ${where(container!)} has a vertex x (group 10) at line ${codeLine - 2} followed by group ${code} instead of its y (group 20); the file is damaged.`,
+          { line: curLine, block: container!.block ?? undefined },
+        );
+      }
+      lwPrev = code;
+    }
+
     // Group codes inside an entity that dxf-parser 1.1.2 does not keep or mishandles.
     if (code === 67) {
       if (container === entitiesScan) curPaper = text.slice(valueStart, valueEnd).trim() === '1';
@@ -442,9 +470,19 @@ export function scanDxf(text: string, maxEntities: number): DxfScan {
     } else if (curType === 'SPLINE') {
       if (code === 41) curReread = true; // weights of a rational spline
     } else if (curType === 'LWPOLYLINE') {
-      if (code === 90) lwCount = Number(text.slice(valueStart, valueEnd));
+      if (code === 90) {
+        lwCount = Number(text.slice(valueStart, valueEnd));
+        // dxf-parser makes as many vertices as group 90 declares, listed or not: bound it first.
+        if (lwCount > LIMITS.dxfPolylineVertices) {
+          throw new DxfError(
+            'too-large',
+            `The LWPOLYLINE at line ${curLine} in ${where(container!)} declares ${lwCount.toLocaleString('en-US')} vertices (group 90); Gridset reads polylines of up to ${LIMITS.dxfPolylineVertices.toLocaleString('en-US')}. Simplify it or split it.`,
+            { line: curLine, block: container!.block ?? undefined },
+          );
+        }
+      } else if (code === 10) lwListed++;
       else if (code === 91) curReread = true; // vertex identifier, R2010+
-      else if (code === 10 && !(lwCount > 0)) {
+      if (code === 10 && !(lwCount > 0)) {
         throw new DxfError(
           'malformed',
           `The LWPOLYLINE at line ${curLine} in ${where(container!)} lists vertices, but its vertex count (group 90) is missing or zero.`,

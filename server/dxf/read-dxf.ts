@@ -18,8 +18,10 @@ import type {
 } from 'dxf-parser';
 import type { Unit } from '../../shared/schemas/common';
 import type { Outline, OutlinePath, OutlineVertex } from '../../shared/schemas/geometry';
+import { LIMITS } from '../../shared/schemas/limits';
 import {
   addArcExtents,
+  conicSteps,
   addBulgeExtents,
   addCurveExtents,
   bulgeArc,
@@ -412,12 +414,52 @@ class Reader {
   private curType = '';
   private curLayer = '';
 
+  /** Points left for curves and polylines of the whole drawing (LIMITS.dxfPoints). */
+  private pointBudget: number = LIMITS.dxfPoints;
+
   constructor(
     private readonly text: string,
     private readonly scan: DxfScan,
     private readonly blocks: Record<string, IBlock>,
     private readonly tol: number,
+    /** Largest |coordinate| and radius accepted, in the drawing's unit. */
+    private readonly maxCoord: number,
+    private readonly unitLabel: string,
   ) {}
+
+  private get entityName(): string {
+    return `${/^[AEIOU]/.test(this.curType) ? 'An' : 'A'} ${this.curType} entity`;
+  }
+
+  /** Counts n points against the drawing's budget before they are made; one curve has a limit of its own. */
+  private spend(n: number, curve: boolean): void {
+    if (curve && n > LIMITS.dxfCurvePoints) {
+      throw new DxfError(
+        'too-large',
+        `${this.entityName} on layer "${this.curLayer}" would become at least ${Math.round(n).toLocaleString('en-US')} points, more than the ${LIMITS.dxfCurvePoints.toLocaleString('en-US')} Gridset makes of one curve; check its size and scale.`,
+      );
+    }
+    this.pointBudget -= n;
+    if (!(this.pointBudget >= 0)) {
+      throw new DxfError(
+        'too-large',
+        `The drawing's lines and curves make more than ${LIMITS.dxfPoints.toLocaleString('en-US')} points, more than Gridset reads from one file; the limit was passed at a ${this.curType} on layer "${this.curLayer}". Simplify the drawing or send only the outline.`,
+      );
+    }
+  }
+
+  /** Refuses a coordinate or length beyond maxCoord (LIMITS.coordinateMm). */
+  private inRange(...values: number[]): void {
+    for (const v of values) {
+      if (!(Math.abs(v) <= this.maxCoord)) {
+        if (!Number.isFinite(v)) this.bad();
+        throw new DxfError(
+          'too-large',
+          `${this.entityName} on layer "${this.curLayer}" reaches ${v.toExponential(3)} ${this.unitLabel}; Gridset reads coordinates and radii up to ${this.maxCoord.toLocaleString('en-US', { maximumFractionDigits: 3 })} ${this.unitLabel} (100 m). Check the drawing's unit and scale.`,
+        );
+      }
+    }
+  }
 
   warn(message: string): void {
     this.warned.set(message, (this.warned.get(message) ?? 0) + 1);
@@ -447,7 +489,7 @@ class Reader {
   private bad(): never {
     throw new DxfError(
       'malformed',
-      `A ${this.curType} entity on layer "${this.curLayer}" has a coordinate that is not a finite number.`,
+      `${this.entityName} on layer "${this.curLayer}" has a coordinate that is not a finite number.`,
     );
   }
 
@@ -456,6 +498,7 @@ class Reader {
     const v =
       m.kind === 0 ? { x, y } : { x: m.a * x + m.c * y + m.e, y: m.b * x + m.d * y + m.f };
     if (!(v.x - v.x === 0 && v.y - v.y === 0)) this.bad();
+    this.inRange(v.x, v.y);
     return v;
   }
 
@@ -637,6 +680,7 @@ class Reader {
       return;
     }
     const vs = verts!;
+    this.spend(n, false);
     const segments = closed ? n : n - 1;
     if (m.kind !== 2) {
       const flip = m.mirror ? -1 : 1;
@@ -681,6 +725,8 @@ class Reader {
       const r = Math.abs(a.r);
       const cx = m.a * a.cx + m.c * a.cy + m.e;
       const cy = m.b * a.cx + m.d * a.cy + m.f;
+      this.inRange(cx, cy, m.a * r, m.b * r, m.c * r, m.d * r);
+      this.spend(conicSteps(m.a * r, m.b * r, m.c * r, m.d * r, a.sweep, this.tol), true);
       const arc = flattenConic(cx, cy, m.a * r, m.b * r, m.c * r, m.d * r, a.a0, a.sweep, this.tol);
       for (let k = 1; k < arc.length - 1; k++) pts.push(arc[k]!);
       addArcExtents(this.ext, cx, cy, m.a * r, m.b * r, m.c * r, m.d * r, a.a0, a.sweep);
@@ -696,6 +742,7 @@ class Reader {
     const full = sweep >= TAU - 1e-12;
     if (m.kind !== 2) {
       const flip = m.mirror ? -1 : 1;
+      this.inRange(r * m.scale);
       if (full) {
         const p0 = this.vertex(m, cx + r * Math.cos(a0), cy + r * Math.sin(a0));
         const p1 = this.vertex(m, cx - r * Math.cos(a0), cy - r * Math.sin(a0));
@@ -731,7 +778,9 @@ class Reader {
   /** p(t) = C + U cos t + V sin t as a polyline, whole when sweep is 2π. */
   private conic(cx: number, cy: number, ux: number, uy: number, vx: number, vy: number, t0: number, sweep: number, layer: string, type: string, how: string): void {
     for (const v of [cx, cy, ux, uy, vx, vy, t0, sweep]) if (!Number.isFinite(v)) this.bad();
+    this.inRange(cx, cy, ux, uy, vx, vy);
     const full = sweep >= TAU - 1e-12;
+    this.spend(conicSteps(ux, uy, vx, vy, full ? TAU : sweep, this.tol), true);
     const pts = flattenConic(cx, cy, ux, uy, vx, vy, t0, full ? TAU : sweep, this.tol);
     if (full) pts.pop();
     addArcExtents(this.ext, cx, cy, ux, uy, vx, vy, t0, full ? TAU : sweep);
@@ -773,6 +822,7 @@ class Reader {
     const y = mm.kind === 0 ? c.y : mm.b * c.x + mm.d * c.y + mm.f;
     if (!(x - x === 0 && y - y === 0 && Number.isFinite(r))) this.bad();
     const rr = r * mm.scale;
+    this.inRange(x, y, rr);
     this.ext.add(x - rr, y - rr);
     this.ext.add(x + rr, y + rr);
     this.circles.push({ x, y, r: rr, layer });
@@ -812,6 +862,7 @@ class Reader {
     if (sweep >= TAU - 1e-9 && Math.abs(uu - (vx * vx + vy * vy)) <= 1e-12 * uu && Math.abs(ux * vx + uy * vy) <= 1e-12 * uu) {
       // A whole ellipse with equal axes is a circle: keep it as one, holes are circles.
       const r = Math.sqrt(uu);
+      this.inRange(r);
       this.ext.add(C.x - r, C.y - r);
       this.ext.add(C.x + r, C.y + r);
       this.circles.push({ x: C.x, y: C.y, r, layer });
@@ -826,6 +877,17 @@ class Reader {
     let how = '';
     const degree = e.degreeOfSplineCurve ?? 3;
     const cps = e.controlPoints ?? [];
+    const fitCount = e.fitPoints?.length ?? 0;
+    if (cps.length > LIMITS.splineControlPoints || fitCount > LIMITS.splineControlPoints || (e.knotValues?.length ?? 0) > LIMITS.splineControlPoints + LIMITS.splineDegree + 1) {
+      throw new DxfError(
+        'too-large',
+        `A SPLINE on layer "${layer}" has ${Math.max(cps.length, fitCount).toLocaleString('en-US')} control or fit points; Gridset reads splines of up to ${LIMITS.splineControlPoints.toLocaleString('en-US')}. Split it, or save it as a polyline.`,
+      );
+    }
+    if (!(degree >= 1 && degree <= LIMITS.splineDegree)) {
+      this.warn(`SPLINE entities of a degree other than 1 to ${LIMITS.splineDegree} were skipped.`);
+      return;
+    }
     if (cps.length > 0) {
       let weights: number[] | null = null;
       if (offset !== undefined) {
@@ -868,8 +930,15 @@ class Reader {
       }
     }
     for (const v of spline.points) if (!Number.isFinite(v)) this.bad();
+    // A B-spline lies in the convex hull of its control points (strong convex hull property,
+    // P&T §3.2; §4.2 for positive weights), so bounding them bounds the curve.
+    this.inRange(...spline.points);
     const ev = new SplineEvaluator(spline);
-    const flat = flattenSpline(ev, this.tol);
+    const cap = Math.min(LIMITS.dxfCurvePoints, Math.max(0, this.pointBudget));
+    const flat = flattenSpline(ev, this.tol, cap + 1);
+    // null: past the cap; spend() then refuses it with the limit's sentence.
+    this.spend(flat === null ? cap + 1 : flat.points.length, true);
+    if (flat === null) return;
     addCurveExtents(this.ext, ev, flat);
     const pts: Vec2[] = flat.points;
     let closed = !!e.closed;
@@ -1036,7 +1105,8 @@ export function inspectDxf(text: string, options: InspectDxfOptions = {}): DxfIn
   const tol = CHORD_TOLERANCE[unit ?? 'in'];
   const unitLabel = unit ?? 'drawing units';
 
-  const reader = new Reader(source, scan, parsed.blocks ?? {}, tol);
+  const maxCoord = unit === 'in' ? LIMITS.coordinateMm / 25.4 : LIMITS.coordinateMm;
+  const reader = new Reader(source, scan, parsed.blocks ?? {}, tol, maxCoord, unitLabel);
   reader.readList(parsed.entities, scan.entities, IDENTITY, null, 0);
 
   const unsupported = new Map(plan.unsupported);

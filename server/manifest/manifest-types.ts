@@ -1,3 +1,4 @@
+import { LIMITS } from '../../shared/schemas/limits';
 import type { ComponentFields } from '../../shared/schemas/catalog';
 import type { ComponentColumnKey, LayerColumnKey, ManifestLayer } from './manifest-columns';
 
@@ -21,6 +22,13 @@ export interface ManifestLimits {
   maxDataRows: number;
   /** Cells on all sheets together. */
   maxCells: number;
+  /** Entries in the ZIP archive. */
+  maxEntries: number;
+  /** Merged ranges on one sheet, and the cells all merged ranges cover together (exceljs fills each one). */
+  maxMergedRanges: number;
+  maxMergedCells: number;
+  /** What the upload is, for messages: "a manifest", "a bars file". */
+  label: string;
 }
 
 export const DEFAULT_MANIFEST_LIMITS: Readonly<ManifestLimits> = {
@@ -29,6 +37,10 @@ export const DEFAULT_MANIFEST_LIMITS: Readonly<ManifestLimits> = {
   maxCompressionRatio: 200,
   maxDataRows: 20_000,
   maxCells: 1_000_000,
+  maxEntries: LIMITS.zipEntries,
+  maxMergedRanges: LIMITS.mergedRanges,
+  maxMergedCells: LIMITS.mergedCells,
+  label: 'a manifest',
 };
 
 export type ManifestErrorCode =
@@ -38,6 +50,7 @@ export type ManifestErrorCode =
   | 'zip-bomb'
   | 'too-many-rows'
   | 'too-many-cells'
+  | 'too-many-merged'
   | 'missing-sheet'
   | 'empty-sheet'
   | 'header'

@@ -516,21 +516,31 @@ const IGNORED_NODES = ['dataValidations', 'conditionalFormatting', 'extLst', 'hy
  * compare the cell values read with an outside reader's.
  */
 export async function readWorkbookGrids(input: Buffer | Uint8Array, limits: Partial<ManifestLimits> = {}): Promise<{ ok: true; grids: Grid[] } | { ok: false; error: ManifestError }> {
+  const r = await loadGuardedWorkbook(input, { ...DEFAULT_MANIFEST_LIMITS, ...limits });
+  return r.ok ? { ok: true, grids: r.workbook.worksheets.map(gridFromWorksheet) } : r;
+}
+
+/**
+ * Every spreadsheet upload goes through here: the size, part and merge checks of xlsx-guard.ts,
+ * then exceljs on what the guard lets through (comment parts left out).
+ */
+export async function loadGuardedWorkbook(input: Buffer | Uint8Array, limits: ManifestLimits): Promise<{ ok: true; workbook: ExcelJS.Workbook } | { ok: false; error: ManifestError }> {
   const buf = Buffer.isBuffer(input) ? input : Buffer.from(input.buffer, input.byteOffset, input.byteLength);
-  const guard = guardXlsx(buf, { ...DEFAULT_MANIFEST_LIMITS, ...limits });
+  const guard = await guardXlsx(buf, limits);
   if (!guard.ok) {
     return { ok: false, error: { sheet: guard.problem.sheet ?? null, row: null, column: null, code: guard.problem.code, message: guard.problem.message } };
   }
   const wb = new ExcelJS.Workbook();
   try {
-    await wb.xlsx.load(buf as unknown as Parameters<typeof wb.xlsx.load>[0], { ignoreNodes: IGNORED_NODES });
-  } catch (err) {
+    await wb.xlsx.load(guard.workbook as unknown as Parameters<typeof wb.xlsx.load>[0], { ignoreNodes: IGNORED_NODES });
+  } catch {
+    // exceljs's own messages name its internals ("reading 'comments'"), not what to fix.
     return {
       ok: false,
-      error: { sheet: null, row: null, column: null, code: 'damaged', message: `The workbook could not be read (${(err as Error).message}); open it in a spreadsheet program and save it again as .xlsx.` },
+      error: { sheet: null, row: null, column: null, code: 'damaged', message: 'The workbook could not be read as a spreadsheet; open it in a spreadsheet program and save it again as .xlsx.' },
     };
   }
-  return { ok: true, grids: wb.worksheets.map(gridFromWorksheet) };
+  return { ok: true, workbook: wb };
 }
 
 /** Reads an XLSX manifest: the Components sheet, and the Layers sheet when there is one. */

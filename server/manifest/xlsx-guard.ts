@@ -4,17 +4,19 @@
  * An XLSX file is an OPC package, i.e. a ZIP archive (ECMA-376 Part 2, §8 and Annex C; the ZIP
  * format per PKWARE's APPNOTE.TXT 6.3.x). The central directory at the end of the archive lists
  * every entry with its compressed and uncompressed size (APPNOTE §4.3.12), so a file whose entries
- * declare too much is refused without inflating anything. Declared sizes can lie, so each entry
- * is then inflated with its declared size as a hard output cap (node:zlib maxOutputLength): an
- * entry that inflates past what it declares is refused as crafted or damaged. Worksheets are
- * counted on the way (rows and cells), so a sheet of a million rows is refused before exceljs
- * builds a model of it.
+ * declare too much is refused without inflating anything. The directory is read by yauzl 3
+ * (README: "validateEntrySizes … allows clients to trust the uncompressedSize field"; every offset
+ * is bounds-checked), so a lying or truncated archive is a refusal, never an out-of-range read.
+ * Worksheets are counted on the way (rows, cells, merged ranges), so a sheet of a million rows or
+ * a merge of A1:XFD1048576 is refused before exceljs builds a model of it.
  */
-import { inflateRawSync } from 'node:zlib';
+import JSZip from 'jszip';
+import yauzl from 'yauzl';
+import { columnNumber } from '../../shared/naming/cell-address';
 import type { ManifestLimits } from './manifest-types';
 
 export interface GuardProblem {
-  code: 'not-xlsx' | 'damaged' | 'too-large' | 'zip-bomb' | 'too-many-rows' | 'too-many-cells';
+  code: 'not-xlsx' | 'damaged' | 'too-large' | 'zip-bomb' | 'too-many-rows' | 'too-many-cells' | 'too-many-merged';
   message: string;
   sheet?: string;
 }
@@ -28,24 +30,11 @@ export interface SheetCount {
   cells: number;
 }
 
-export type GuardResult = { ok: true; sheets: SheetCount[] } | { ok: false; problem: GuardProblem };
+export type GuardResult = { ok: true; sheets: SheetCount[]; workbook: Buffer } | { ok: false; problem: GuardProblem };
 
-interface Entry {
-  name: string;
-  method: number;
-  flags: number;
-  compressedSize: number;
-  uncompressedSize: number;
-  localHeaderOffset: number;
-}
-
-const SIG_LOCAL = 0x04034b50;
-const SIG_CENTRAL = 0x02014b50;
-const SIG_EOCD = 0x06054b50;
-const SIG_ZIP64_EOCD = 0x06064b50;
-const SIG_ZIP64_LOCATOR = 0x07064b50;
 const MB = 1024 * 1024;
 const mb = (n: number) => `${Math.round((n / MB) * 10) / 10} MB`;
+const SIG_LOCAL = 0x04034b50;
 
 const fail = (code: GuardProblem['code'], message: string, sheet?: string): GuardResult => ({ ok: false, problem: { code, message, ...(sheet ? { sheet } : {}) } });
 
@@ -62,84 +51,12 @@ function notZipMessage(buf: Buffer): string {
   return 'This file is not an XLSX workbook (an XLSX file is a ZIP archive starting with "PK"); open it in a spreadsheet program and save it as "Excel Workbook (.xlsx)".';
 }
 
-function findEocd(buf: Buffer): number {
-  // The end-of-central-directory record is 22 bytes plus a comment of at most 65,535 (APPNOTE §4.3.16).
-  const stop = Math.max(0, buf.length - 22 - 0xffff);
-  for (let i = buf.length - 22; i >= stop; i--) if (buf.readUInt32LE(i) === SIG_EOCD) return i;
-  return -1;
-}
-
-function readEntries(buf: Buffer): Entry[] | string {
-  const eocd = findEocd(buf);
-  if (eocd < 0) return 'the ZIP archive has no central directory (the file is cut short or damaged)';
-  let count = buf.readUInt16LE(eocd + 10);
-  let cdSize = buf.readUInt32LE(eocd + 12);
-  let cdOffset = buf.readUInt32LE(eocd + 16);
-  if (count === 0xffff || cdSize === 0xffffffff || cdOffset === 0xffffffff) {
-    // ZIP64 end of central directory, found through its locator just before the EOCD (APPNOTE §4.3.14–15).
-    const loc = eocd - 20;
-    if (loc < 0 || buf.readUInt32LE(loc) !== SIG_ZIP64_LOCATOR) return 'the ZIP64 end record is missing';
-    const at = Number(buf.readBigUInt64LE(loc + 8));
-    if (at + 56 > buf.length || buf.readUInt32LE(at) !== SIG_ZIP64_EOCD) return 'the ZIP64 end record is damaged';
-    count = Number(buf.readBigUInt64LE(at + 32));
-    cdSize = Number(buf.readBigUInt64LE(at + 40));
-    cdOffset = Number(buf.readBigUInt64LE(at + 48));
-  }
-  if (cdOffset + cdSize > buf.length) return 'the central directory points past the end of the file';
-  const entries: Entry[] = [];
-  let p = cdOffset;
-  for (let i = 0; i < count; i++) {
-    if (p + 46 > buf.length || buf.readUInt32LE(p) !== SIG_CENTRAL) return 'a central directory entry is damaged';
-    const nameLen = buf.readUInt16LE(p + 28);
-    const extraLen = buf.readUInt16LE(p + 30);
-    const commentLen = buf.readUInt16LE(p + 32);
-    const e: Entry = {
-      name: buf.toString('utf8', p + 46, p + 46 + nameLen),
-      flags: buf.readUInt16LE(p + 8),
-      method: buf.readUInt16LE(p + 10),
-      compressedSize: buf.readUInt32LE(p + 20),
-      uncompressedSize: buf.readUInt32LE(p + 24),
-      localHeaderOffset: buf.readUInt32LE(p + 42),
-    };
-    // Fields at 0xFFFFFFFF continue in the ZIP64 extra field, in this order (APPNOTE §4.5.3).
-    let x = p + 46 + nameLen;
-    const end = x + extraLen;
-    while (x + 4 <= end) {
-      const id = buf.readUInt16LE(x);
-      const size = buf.readUInt16LE(x + 2);
-      if (id === 0x0001) {
-        let q = x + 4;
-        const next = () => { const v = q + 8 <= x + 4 + size ? Number(buf.readBigUInt64LE(q)) : NaN; q += 8; return v; };
-        if (e.uncompressedSize === 0xffffffff) e.uncompressedSize = next();
-        if (e.compressedSize === 0xffffffff) e.compressedSize = next();
-        if (e.localHeaderOffset === 0xffffffff) e.localHeaderOffset = next();
-      }
-      x += 4 + size;
-    }
-    if (![e.uncompressedSize, e.compressedSize, e.localHeaderOffset].every(Number.isFinite)) return `the ZIP64 sizes of ${e.name} are damaged`;
-    entries.push(e);
-    p += 46 + nameLen + extraLen + commentLen;
-  }
-  return entries;
-}
-
-function entryData(buf: Buffer, e: Entry): Buffer | string {
-  const h = e.localHeaderOffset;
-  if (h + 30 > buf.length || buf.readUInt32LE(h) !== SIG_LOCAL) return `the entry ${e.name} is damaged`;
-  const start = h + 30 + buf.readUInt16LE(h + 26) + buf.readUInt16LE(h + 28);
-  if (start + e.compressedSize > buf.length) return `the entry ${e.name} runs past the end of the file`;
-  const raw = buf.subarray(start, start + e.compressedSize);
-  if (e.method === 0) return raw; // stored
-  try {
-    // +1 so an entry that inflates past its declared size is caught rather than cut to fit.
-    const out = inflateRawSync(raw, { maxOutputLength: e.uncompressedSize + 1 });
-    if (out.length !== e.uncompressedSize) return `the entry ${e.name} inflates to ${out.length} bytes but declares ${e.uncompressedSize}`;
-    return out;
-  } catch (err) {
-    const code = (err as { code?: string }).code;
-    if (code === 'ERR_BUFFER_TOO_LARGE') return `the entry ${e.name} inflates past the ${e.uncompressedSize} bytes it declares`;
-    return `the entry ${e.name} does not inflate (${(err as Error).message})`;
-  }
+/** An entry's bytes, inflated by yauzl, which stops with an error past the size the directory declares. */
+async function entryBytes(zip: yauzl.ZipFile, entry: yauzl.Entry): Promise<Buffer> {
+  const stream = await zip.openReadStreamPromise(entry);
+  const chunks: Buffer[] = [];
+  for await (const chunk of stream) chunks.push(chunk as Buffer);
+  return Buffer.concat(chunks);
 }
 
 const decodeXml = (s: string) =>
@@ -201,61 +118,164 @@ function countSheet(xml: Buffer, maxRows: number, maxCells: number): { rows: num
   return { rows, cells, over: false };
 }
 
-export function guardXlsx(buf: Buffer, limits: ManifestLimits): GuardResult {
+/**
+ * Parts exceljs 4.4 cannot read as other programs write them: legacy cell comments and the VML
+ * drawing that shows them (ECMA-376 Part 1, §18.7 Comments and §18.3.1.48 legacyDrawing; VML per
+ * Part 4), threaded comments with their persons, and drawings with their charts (§18.3.1.36
+ * drawing; DrawingML, Part 1 §20). exceljs throws on the comment parts openpyxl writes
+ * (exceljs issue #2797, "Cannot read properties of undefined (reading 'comments')") and on some
+ * drawings (#2591, "… (reading 'anchors')"), both open; none of them holds a cell value, so they
+ * are left out, with their relationships, elements and content types.
+ */
+const DROPPED_PART = /^xl\/(?:comments[^/]*\.xml|comments\/.*|threadedComments\/.*|persons\/.*|drawings\/.*|charts\/.*)$/i;
+const DROPPED_REL = /\/(?:comments|vmlDrawing|threadedComment|person|drawing|chart)$/;
+
+/** Merged ranges of a worksheet (<mergeCell ref>, ECMA-376 Part 1, §18.3.1.55): count and cells covered. */
+function mergedArea(text: string, maxRanges: number): { ranges: number; cells: number } {
+  let ranges = 0;
+  let cells = 0;
+  for (const m of text.matchAll(/<(?:[\w.-]+:)?mergeCell\b[^>]*>/g)) {
+    if (++ranges > maxRanges) break;
+    const ref = attr(m[0], 'ref') ?? '';
+    const r = /^\$?([A-Z]{1,3})\$?(\d{1,7})(?::\$?([A-Z]{1,3})\$?(\d{1,7}))?$/i.exec(ref.trim());
+    if (!r) continue;
+    const c1 = columnNumber(r[1]!.toUpperCase());
+    const c2 = r[3] ? columnNumber(r[3].toUpperCase()) : c1;
+    const r1 = Number(r[2]);
+    const r2 = r[4] ? Number(r[4]) : r1;
+    cells += (Math.abs(c2 - c1) + 1) * (Math.abs(r2 - r1) + 1);
+  }
+  return { ranges, cells };
+}
+
+/** The part without the relationships, elements and content types of the dropped parts. */
+function withoutDropped(name: string, data: Buffer, dropped: ReadonlySet<string>): Buffer {
+  if (name.endsWith('.rels')) {
+    const text = data.toString('utf8');
+    const kept = text.replace(/<(?:[\w.-]+:)?Relationship\b[^>]*?(?:\/>|>\s*<\/(?:[\w.-]+:)?Relationship>)/g, (tag) => (DROPPED_REL.test(attr(tag, 'Type') ?? '') ? '' : tag));
+    return kept === text ? data : Buffer.from(kept, 'utf8');
+  }
+  if (/^xl\/worksheets\/[^/]+\.xml$/.test(name)) {
+    const text = data.toString('utf8');
+    const kept = text.replace(/<(?:[\w.-]+:)?(?:legacyDrawing(?:HF)?|drawing)\b[^>]*?\/>/g, '');
+    return kept === text ? data : Buffer.from(kept, 'utf8');
+  }
+  if (name === '[Content_Types].xml') {
+    const text = data.toString('utf8');
+    const kept = text
+      .replace(/<(?:[\w.-]+:)?Override\b[^>]*?\/>/g, (tag) => (dropped.has((attr(tag, 'PartName') ?? '').replace(/^\//, '')) ? '' : tag))
+      .replace(/<(?:[\w.-]+:)?Default\b[^>]*?Extension\s*=\s*["']vml["'][^>]*?\/>/gi, '');
+    return kept === text ? data : Buffer.from(kept, 'utf8');
+  }
+  return data;
+}
+
+/**
+ * Reads the archive's central directory with yauzl (which bounds-checks every offset and length,
+ * and refuses an entry that inflates to more or less than it declares), refuses what is too large
+ * or too many before inflating, then counts rows, cells and merged cells of every sheet. On
+ * success `workbook` is the file exceljs may load: the upload itself, or a copy without the
+ * comment parts exceljs cannot read.
+ */
+export async function guardXlsx(buf: Buffer, limits: ManifestLimits): Promise<GuardResult> {
+  const what = limits.label;
   if (buf.length > limits.maxFileBytes) {
-    return fail('too-large', `The file is ${mb(buf.length)}; a manifest may be at most ${mb(limits.maxFileBytes)}. Split the catalog into several files.`);
+    return fail('too-large', `The file is ${mb(buf.length)}; ${what} may be at most ${mb(limits.maxFileBytes)}. Split it into several files.`);
   }
   // Local file header signature "PK\x03\x04" (APPNOTE §4.3.7); an XLSX file always starts with one.
   if (buf.length < 4 || buf.readUInt32LE(0) !== SIG_LOCAL) return fail('not-xlsx', notZipMessage(buf));
-  const entries = readEntries(buf);
-  if (typeof entries === 'string') return fail('damaged', `The file is damaged: ${entries}. Open it in a spreadsheet program and save it again as .xlsx.`);
-  const byName = new Map(entries.map((e) => [e.name, e]));
-  if (!byName.has('xl/workbook.xml')) {
-    const mimetype = byName.get('mimetype');
-    const ods = mimetype ? entryData(buf, mimetype) : null;
-    if (Buffer.isBuffer(ods) && ods.toString('latin1').includes('opendocument.spreadsheet')) {
-      return fail('not-xlsx', 'This file is an OpenDocument spreadsheet (.ods), not an XLSX workbook; save it as "Excel 2007-365 (.xlsx)" and upload that.');
-    }
-    return fail('not-xlsx', 'This file is a ZIP archive without xl/workbook.xml, so it is not an XLSX workbook; open the manifest in a spreadsheet program and save it as .xlsx.');
+  let zip: yauzl.ZipFile;
+  try {
+    zip = await yauzl.fromBufferPromise(buf, { strictFileNames: true, validateEntrySizes: true });
+  } catch (err) {
+    return fail('damaged', `The file is damaged: its ZIP directory cannot be read (${(err as Error).message.replace(/\.$/, '')}). Open it in a spreadsheet program and save it again as .xlsx.`);
   }
-
-  const declared = entries.reduce((sum, e) => sum + e.uncompressedSize, 0);
-  if (declared > limits.maxUncompressedBytes) {
-    return fail('zip-bomb', `The workbook unpacks to ${mb(declared)}, more than the ${mb(limits.maxUncompressedBytes)} a manifest may take; remove unused sheets, pictures and formatting, or split the catalog.`);
+  try {
+    if (zip.entryCount > limits.maxEntries) {
+      return fail('zip-bomb', `The workbook holds ${zip.entryCount.toLocaleString('en-US')} parts; ${what} may hold at most ${limits.maxEntries.toLocaleString('en-US')}. Save it again from a spreadsheet program, without unused sheets and pictures.`);
+    }
+    const entries: yauzl.Entry[] = [];
+    let declared = 0;
+    try {
+      for await (const e of zip.eachEntry()) {
+        if (e.fileName.split('/').includes('..')) return fail('damaged', `The entry ${e.fileName} names a folder outside the archive; the file is refused as crafted or damaged.`);
+        if (e.isEncrypted()) return fail('not-xlsx', `The entry ${e.fileName} is encrypted; remove the password and save the workbook again.`);
+        if (e.compressionMethod !== 0 && e.compressionMethod !== 8) {
+          return fail('damaged', `The entry ${e.fileName} uses ZIP compression method ${e.compressionMethod}; XLSX files use deflate (8) or none (0). Save the workbook again from a spreadsheet program.`);
+        }
+        declared += e.uncompressedSize;
+        const ratio = e.uncompressedSize / Math.max(1, e.compressedSize);
+        if (e.uncompressedSize > MB && ratio > limits.maxCompressionRatio) {
+          return fail('zip-bomb', `The entry ${e.fileName} claims to unpack ${Math.round(ratio)} times its packed size (${mb(e.uncompressedSize)}), past the ${limits.maxCompressionRatio}× a spreadsheet reaches; the file is refused as a possible zip bomb.`);
+        }
+        entries.push(e);
+      }
+    } catch (err) {
+      return fail('damaged', `The file is damaged: ${(err as Error).message.replace(/\.$/, '')}. Open it in a spreadsheet program and save it again as .xlsx.`);
+    }
+    if (declared > limits.maxUncompressedBytes) {
+      return fail('zip-bomb', `The workbook unpacks to ${mb(declared)}, more than the ${mb(limits.maxUncompressedBytes)} ${what} may take; remove unused sheets, pictures and formatting, or split it.`);
+    }
+    const byName = new Map(entries.map((e) => [e.fileName, e]));
+    const data = new Map<string, Buffer>();
+    const read = async (e: yauzl.Entry): Promise<Buffer | string> => {
+      try {
+        const d = await entryBytes(zip, e);
+        data.set(e.fileName, d);
+        return d;
+      } catch (err) {
+        const why = (err as Error).message;
+        if (/too many bytes/.test(why)) return `the entry ${e.fileName} inflates past the ${e.uncompressedSize} bytes it declares`;
+        if (/too few bytes/.test(why)) return `the entry ${e.fileName} inflates to less than the ${e.uncompressedSize} bytes it declares`;
+        return `the entry ${e.fileName} does not inflate (${why.replace(/\.$/, '')})`;
+      }
+    };
+    if (!byName.has('xl/workbook.xml')) {
+      const mimetype = byName.get('mimetype');
+      const ods = mimetype && mimetype.uncompressedSize < 1024 ? await read(mimetype) : null;
+      if (Buffer.isBuffer(ods) && ods.toString('latin1').includes('opendocument.spreadsheet')) {
+        return fail('not-xlsx', 'This file is an OpenDocument spreadsheet (.ods), not an XLSX workbook; save it as "Excel 2007-365 (.xlsx)" and upload that.');
+      }
+      return fail('not-xlsx', 'This file is a ZIP archive without xl/workbook.xml, so it is not an XLSX workbook; open it in a spreadsheet program and save it as .xlsx.');
+    }
+    const dropped = new Set(entries.map((e) => e.fileName).filter((n) => DROPPED_PART.test(n)));
+    for (const e of entries) {
+      if (dropped.has(e.fileName) || e.fileName.endsWith('/')) continue;
+      const d = await read(e);
+      if (typeof d === 'string') return fail('zip-bomb', `The file is refused: ${d}, as a crafted or damaged file does.`);
+    }
+    const text = (name: string) => data.get(name)?.toString('utf8');
+    const names = sheetNames(text('xl/workbook.xml') ?? '', text('xl/_rels/workbook.xml.rels'));
+    const sheets: SheetCount[] = [];
+    let cells = 0;
+    let merged = 0;
+    for (const [part, xml] of data) {
+      if (!/^xl\/worksheets\/[^/]+\.xml$/.test(part)) continue;
+      const name = names.get(part) ?? part;
+      const count = countSheet(xml, limits.maxDataRows + 1, limits.maxCells - cells);
+      if (count.rows - 1 > limits.maxDataRows) {
+        return fail('too-many-rows', `The sheet "${name}" has more than ${limits.maxDataRows.toLocaleString('en-US')} rows below the header, the most ${what} takes. Split it into several files, or delete the empty rows that carry formatting.`, name);
+      }
+      cells += count.cells;
+      if (count.over) {
+        return fail('too-many-cells', `The workbook has more than ${limits.maxCells.toLocaleString('en-US')} cells, the most ${what} takes. Remove sheets and columns the import does not need.`);
+      }
+      // Merged ranges are counted here because exceljs fills in every cell a range covers.
+      const m = mergedArea(xml.toString('latin1'), limits.maxMergedRanges);
+      merged += m.cells;
+      if (m.ranges > limits.maxMergedRanges) {
+        return fail('too-many-merged', `The sheet "${name}" has more than ${limits.maxMergedRanges.toLocaleString('en-US')} merged ranges, the most ${what} takes; unmerge the cells and save again.`, name);
+      }
+      if (merged > limits.maxMergedCells) {
+        return fail('too-many-merged', `Merged ranges cover more than ${limits.maxMergedCells.toLocaleString('en-US')} cells (the sheet "${name}" passed the limit); unmerge large ranges (Format → Merge) and save again.`, name);
+      }
+      sheets.push({ name, part, rows: count.rows, cells: count.cells });
+    }
+    if (dropped.size === 0) return { ok: true, sheets, workbook: buf };
+    const out = new JSZip();
+    for (const [name, d] of data) out.file(name, withoutDropped(name, d, dropped));
+    return { ok: true, sheets, workbook: await out.generateAsync({ type: 'nodebuffer', compression: 'STORE' }) };
+  } finally {
+    zip.close();
   }
-  for (const e of entries) {
-    if (e.flags & 1) return fail('not-xlsx', `The entry ${e.name} is encrypted; remove the password and save the workbook again.`);
-    if (e.method !== 0 && e.method !== 8) {
-      return fail('damaged', `The entry ${e.name} uses ZIP compression method ${e.method}; XLSX files use deflate (8) or none (0). Save the workbook again from a spreadsheet program.`);
-    }
-    const ratio = e.uncompressedSize / Math.max(1, e.compressedSize);
-    if (e.uncompressedSize > MB && ratio > limits.maxCompressionRatio) {
-      return fail('zip-bomb', `The entry ${e.name} claims to unpack ${Math.round(ratio)} times its packed size (${mb(e.uncompressedSize)}), past the ${limits.maxCompressionRatio}× a spreadsheet reaches; the file is refused as a possible zip bomb.`);
-    }
-  }
-
-  const text = (name: string): string | undefined => {
-    const e = byName.get(name);
-    const d = e ? entryData(buf, e) : undefined;
-    return Buffer.isBuffer(d) ? d.toString('utf8') : undefined;
-  };
-  const names = sheetNames(text('xl/workbook.xml') ?? '', text('xl/_rels/workbook.xml.rels'));
-  const sheets: SheetCount[] = [];
-  let cells = 0;
-  for (const e of entries) {
-    const data = entryData(buf, e);
-    if (typeof data === 'string') return fail('zip-bomb', `The file is refused: ${data}, as a crafted or damaged file does.`);
-    if (!/^xl\/worksheets\/[^/]+\.xml$/.test(e.name)) continue;
-    const name = names.get(e.name) ?? e.name;
-    const count = countSheet(data, limits.maxDataRows + 1, limits.maxCells - cells);
-    if (count.rows - 1 > limits.maxDataRows) {
-      return fail('too-many-rows', `The sheet "${name}" has more than ${limits.maxDataRows.toLocaleString('en-US')} rows below the header, the most a manifest takes. Split it into several files, or delete the empty rows that carry formatting.`, name);
-    }
-    cells += count.cells;
-    if (count.over) {
-      return fail('too-many-cells', `The workbook has more than ${limits.maxCells.toLocaleString('en-US')} cells, the most a manifest takes. Remove sheets and columns the import does not need.`);
-    }
-    sheets.push({ name, part: e.name, rows: count.rows, cells: count.cells });
-  }
-  return { ok: true, sheets };
 }

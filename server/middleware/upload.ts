@@ -1,4 +1,4 @@
-import { mkdirSync, rmSync } from 'node:fs';
+import { mkdirSync, readdirSync, rmSync } from 'node:fs';
 import path from 'node:path';
 import { randomUUID } from 'node:crypto';
 import type { ErrorRequestHandler, RequestHandler } from 'express';
@@ -25,6 +25,11 @@ export function singleFileUpload(dataDir: string, limitBytes: number): RequestHa
         : `The upload was refused: ${err.message}.`;
       return next(new HttpError(err.code === 'LIMIT_FILE_SIZE' ? 413 : 400, 'upload', message));
     }
+    // busboy's parse errors ("Unexpected end of form", "Malformed part header", a missing
+    // boundary) are the sender's to fix; a disk error carries a syscall and stays a 500.
+    if (err instanceof Error && !('syscall' in err)) {
+      return next(new HttpError(400, 'upload', `The upload is not a well-formed multipart/form-data body (${err.message.replace(/\.$/, '')}); send the file in a form field named "file".`));
+    }
     next(err);
   };
   const requireFile: RequestHandler = (req, _res, next) => {
@@ -45,4 +50,21 @@ export async function usingUpload<T>(file: Express.Multer.File | undefined, fn: 
   } finally {
     discardUpload(file);
   }
+}
+
+/**
+ * Removes temporary upload files (`uploads/tmp/*.part`) left by a process that stopped while a
+ * request was reading them; called once at start-up, before the server listens. Returns how many.
+ */
+export function sweepUploadTemp(dataDir: string): number {
+  const tmp = path.join(dataDir, 'uploads', 'tmp');
+  let names: string[];
+  try {
+    names = readdirSync(tmp);
+  } catch {
+    return 0;
+  }
+  const parts = names.filter((n) => n.endsWith('.part'));
+  for (const n of parts) rmSync(path.join(tmp, n), { force: true });
+  return parts.length;
 }

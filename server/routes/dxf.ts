@@ -1,20 +1,22 @@
 import { z } from 'zod';
 import { CAN } from '../../shared/schemas/auth';
 import { IdParamSchema, UnitSchema } from '../../shared/schemas/common';
+import { LIMITS } from '../../shared/schemas/limits';
 import { checkName } from '../../shared/naming/check-name';
 import { proposeName } from '../../shared/naming/propose-name';
 import type { Outline } from '../../shared/schemas/geometry';
 import { currentUser } from '../middleware/auth';
 import { HttpError } from '../middleware/errors';
 import { singleFileUpload, usingUpload } from '../middleware/upload';
-import { inspectUploadedDxf, keepOriginal, normalizeOutline } from '../services/dxf-uploads';
+import { boundedJson, inspectUploadedDxf, keepOriginal, normalizeOutline } from '../services/dxf-uploads';
 import type { CatalogService } from '../services/catalog';
 import type { JobsService } from '../services/jobs';
 import type { NamingService } from '../services/naming';
 import { parseOr400 } from './parse';
 import type { RouteDef } from './route-table';
 
-const num = (label: string) => z.coerce.number({ message: `${label} must be a number.` }).refine(Number.isFinite, `${label} must be a number.`);
+const num = (label: string) => z.coerce.number({ message: `${label} must be a number.` }).refine(Number.isFinite, `${label} must be a number.`)
+  .refine((v) => Math.abs(v) <= LIMITS.coordinate, `${label} must lie between -${LIMITS.coordinate.toLocaleString('en-US')} and ${LIMITS.coordinate.toLocaleString('en-US')}.`);
 const OutlineFieldsSchema = z.object({
   unit: UnitSchema.optional(),
   /** The point of the drawing that becomes the local origin (primary dowel or part datum), in the drawing's unit. */
@@ -64,7 +66,8 @@ export function dxfRoutes(deps: { dataDir: string; uploadLimitBytes: number; cat
     { method: 'post', path: '/dxf/inspect', access: CAN.editCatalog, before: upload, handler: (req, res) => usingUpload(req.file, async (file) => {
       const { inspection } = inspectUploadedDxf(file.path);
       const { unit, layers, entities, entityTypes, bbox, circles, unsupported, outline, notes, points, approximations, warnings, version, insunits } = inspection;
-      res.json({ unit, insunits, version, layers: await layerReport(layers), entities, entityTypes, bbox, circles, unsupported, outline, notes, points, approximations, warnings });
+      const answer = { unit, insunits, version, layers: await layerReport(layers), entities, entityTypes, bbox, circles, unsupported, outline, notes, points, approximations, warnings };
+      res.type('application/json').send(boundedJson(answer, file.size));
     }) },
     { method: 'post', path: '/components/:id/outline', access: CAN.editCatalog, before: upload, handler: (req, res) => usingUpload(req.file, async (file) => {
       const { id } = parseOr400(IdParamSchema, req.params, 'address');

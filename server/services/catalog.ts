@@ -1,8 +1,8 @@
 import type { ComponentFields, PlateFields } from '../../shared/schemas/catalog';
-import type { Outline } from '../../shared/schemas/geometry';
+import { OutlineSchema, type Outline } from '../../shared/schemas/geometry';
 import type { ListQuery } from '../../shared/schemas/common';
 import type { CatalogRepo } from '../db/catalog-repo';
-import { conflict, notFound } from '../middleware/errors';
+import { conflict, notFound, validationError } from '../middleware/errors';
 import type { NamingService } from './naming';
 import type { AuditRepo } from '../db/audit-repo';
 
@@ -65,6 +65,9 @@ export function catalogService(repo: CatalogRepo, naming: NamingService, audit: 
     /** Stores an outline read from a DXF (already in the component's unit, origin at its primary dowel). */
     async setOutline(actorId: number, id: number, outline: Outline, file: { name: string; size: number; sha256: string; unit: string }) {
       const c = await this.getComponent(id);
+      // Layer names may have been mapped since the file was read: the outline is checked as stored.
+      const checked = OutlineSchema.safeParse(outline);
+      if (!checked.success) throw validationError(checked.error, 'outline');
       await repo.setOutline(id, outline, file);
       await audit.record({ userId: actorId, action: 'component.outline', objectType: 'component', objectId: id, summary: `Set the outline of ${c.code} from ${file.name} (${outline.paths.length} paths, ${outline.circles.length} circles)`, after: file });
       return repo.getComponent(id);

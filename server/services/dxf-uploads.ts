@@ -2,10 +2,11 @@ import { createHash } from 'node:crypto';
 import { copyFileSync, mkdirSync, readFileSync } from 'node:fs';
 import path from 'node:path';
 import type { Unit } from '../../shared/schemas/common';
-import type { Outline } from '../../shared/schemas/geometry';
+import { OutlineSchema, type Outline } from '../../shared/schemas/geometry';
+import { LIMITS } from '../../shared/schemas/limits';
 import { convert } from '../../shared/units/units';
 import { DxfError, inspectDxf, type DxfInspection } from '../dxf/read-dxf';
-import { HttpError, badRequest } from '../middleware/errors';
+import { HttpError, badRequest, validationError } from '../middleware/errors';
 
 /** Reads an uploaded DXF; a file Gridset cannot read is a 400 that names the problem (and line or block). */
 export function inspectUploadedDxf(filePath: string): { text: string; inspection: DxfInspection; sha256: string } {
@@ -42,5 +43,22 @@ export function normalizeOutline(inspection: DxfInspection, fileUnit: Unit | nul
     circles: inspection.outline.circles.map((c) => ({ ...c, x: f(c.x - datum.x), y: f(c.y - datum.y), r: f(c.r) })),
   };
   if (outline.paths.length === 0 && outline.circles.length === 0) throw badRequest('The file holds no lines, arcs, polylines or circles to use as an outline.', null, 'dxf-no-outline');
+  // The same bounds as an outline typed in (coordinates, radii, vertex counts, layer names).
+  const checked = OutlineSchema.safeParse(outline);
+  if (!checked.success) throw validationError(checked.error, 'outline read from the file');
   return { outline, unit };
+}
+
+/**
+ * The inspection as JSON text, refused when it would be larger than LIMITS.answerMultiple times
+ * the file (or LIMITS.answerFloorBytes for a small file): a short file of curves must not answer
+ * with megabytes.
+ */
+export function boundedJson(answer: unknown, fileBytes: number): string {
+  const cap = Math.max(LIMITS.answerFloorBytes, LIMITS.answerMultiple * fileBytes);
+  const text = JSON.stringify(answer);
+  if (text.length > cap) {
+    throw badRequest(`The drawing's curves flatten to an answer of ${(text.length / 1024 / 1024).toFixed(1)} MB, more than ${LIMITS.answerMultiple} times the file (at least ${LIMITS.answerFloorBytes / 1024 / 1024} MB are allowed); simplify the curves or send only the outline.`, null, 'dxf-too-large');
+  }
+  return text;
 }

@@ -1,5 +1,5 @@
 import { createHash } from 'node:crypto';
-import type { Plate, Component } from '../../shared/schemas/catalog';
+import { ComponentInputSchema, PlateInputSchema, type Plate, type Component, type PlateFields } from '../../shared/schemas/catalog';
 import type { User } from '../../shared/schemas/auth';
 import type { PlateRef, TemplateComponent, TemplateContent } from '../../shared/schemas/template';
 import type { CreateTemplateInput, SaveVersionInput, TemplateSummary, TemplateVersion, VersionState } from '../../shared/schemas/template-api';
@@ -9,7 +9,7 @@ import { evaluateTemplate, type TemplateEvaluation } from '../../shared/stations
 import type { Db } from '../db/knex';
 import type { CatalogRepo } from '../db/catalog-repo';
 import type { StoredVersion, TemplatesRepo } from '../db/templates-repo';
-import { HttpError, badRequest, conflict, notFound } from '../middleware/errors';
+import { HttpError, badRequest, conflict, notFound, validationError } from '../middleware/errors';
 import { versionNamingProblems } from '../../shared/naming/version-names';
 import type { NamingService } from './naming';
 import type { AuditRepo } from '../db/audit-repo';
@@ -234,11 +234,23 @@ export function templatesService(deps: { db: Db; templates: TemplatesRepo; catal
         }
       }
       const plate: PlateRef = existingPlate ? plateRef(existingPlate) : { ...file.plate, edgeMargin: file.plate.edgeMargin ?? file.plate.pitch / 2 };
+      // What the import adds to the catalog, and the components it carries, pass the catalog's own checks.
+      let newPlate: PlateFields | null = null;
+      if (!existingPlate) {
+        const parsed = PlateInputSchema.safeParse({ code: plate.code, name: plate.name ?? plate.code, unit: plate.unit, pitch: plate.pitch, columns: plate.columns, rows: plate.rows, holeDiameter: plate.holeDiameter || plate.pitch / 4, thread: '', edgeMargin: plate.edgeMargin, notes: `Added by importing template "${file.name}".` });
+        if (!parsed.success) throw validationError(parsed.error, "template file's plate");
+        newPlate = parsed.data;
+      }
+      for (const [i, c] of file.components.entries()) {
+        const parsed = ComponentInputSchema.safeParse({ ...c, name: c.name ?? c.code, layer: c.layer ?? '', clamp: c.clamp ?? null, notes: '' });
+        if (!parsed.success) throw validationError(parsed.error, `template file's component ${i + 1} (${c.code})`);
+        await naming.requireComponentNames(parsed.data);
+      }
       const { content, componentIds } = await assemble({ name: file.name, plate }, { placements: file.placements, sharedOffset: file.sharedOffset, numbering: file.numbering, components: file.components });
       return db.transaction(async (trx) => {
         let name = file.name;
         for (let k = 1; await templates.nameTaken(name, trx); k++) name = `${file.name} (imported${k > 1 ? ` ${k}` : ''})`;
-        const plateId = existingPlate?.id ?? (await catalog.insertPlate({ code: plate.code, name: plate.name ?? plate.code, unit: plate.unit, pitch: plate.pitch, columns: plate.columns, rows: plate.rows, holeDiameter: plate.holeDiameter || plate.pitch / 4, thread: '', edgeMargin: plate.edgeMargin, notes: `Added by importing template "${file.name}".` }, trx));
+        const plateId = existingPlate?.id ?? (await catalog.insertPlate(newPlate!, trx));
         const named = { ...content, name };
         const id = await templates.insertTemplate(trx, { name, plateId, createdBy: user.id });
         await templates.insertVersion(trx, { templateId: id, number: 1, state: 'draft', content: named, hash: contentHash(named), authorId: user.id, componentIds });

@@ -1,5 +1,6 @@
 import type { Point } from '../schemas/common';
 import type { Outline, OutlinePath, OutlineVertex } from '../schemas/geometry';
+import { LIMITS } from '../schemas/limits';
 
 export interface Box {
   minX: number;
@@ -31,8 +32,9 @@ export function unionBox(a: Box, b: Box): Box {
  * Index pairs of boxes that overlap by more than `slack`, found through a uniform grid of cells
  * about one box across, so the work grows with the number of neighbours, not with n².
  * A pair is reported once: from the cell holding the low corner of the two boxes' common part.
+ * At most maxPairs are returned (the first found), so a pile of overlapping boxes stays cheap.
  */
-export function overlappingBoxPairs(boxes: readonly Box[], slack = 0): Array<[number, number]> {
+export function overlappingBoxPairs(boxes: readonly Box[], slack = 0, maxPairs = Infinity): Array<[number, number]> {
   if (boxes.length < 2) return [];
   let sum = 0;
   let largest = 0;
@@ -65,6 +67,7 @@ export function overlappingBoxPairs(boxes: readonly Box[], slack = 0): Array<[nu
         if (!boxesOverlap(a, b, slack)) continue;
         if (Math.floor(Math.max(a.minX, b.minX) / cell) !== cx || Math.floor(Math.max(a.minY, b.minY) / cell) !== cy) continue;
         pairs.push([list[m]!, list[k]!]);
+        if (pairs.length >= maxPairs) return pairs;
       }
     }
   }
@@ -166,7 +169,9 @@ export function outlineBounds(outline: Outline): Box {
 function chordCount(r: number, sweep: number, tolerance: number): number {
   if (tolerance >= r) return Math.max(1, Math.ceil(Math.abs(sweep) / (Math.PI / 2)));
   const maxStep = 2 * Math.acos(1 - tolerance / r);
-  return Math.max(1, Math.ceil(Math.abs(sweep) / maxStep));
+  // Counted before any point is made, and capped: a huge radius costs no more than LIMITS.arcChords
+  // chords (a coarser chord error on an arc far larger than any plate).
+  return Math.min(LIMITS.arcChords, Math.max(1, Math.ceil(Math.abs(sweep) / maxStep)));
 }
 
 /**

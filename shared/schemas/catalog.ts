@@ -1,5 +1,6 @@
 import { z } from 'zod';
-import { UnitSchema, finite, positive, nonNegative, PointSchema, listOf } from './common';
+import { UnitSchema, finite, positive, nonNegative, PointSchema, listOf, plainText } from './common';
+import { LIMITS } from './limits';
 import { OutlineSchema } from './geometry';
 
 const code = z
@@ -8,8 +9,8 @@ const code = z
   .min(1, 'Code is required.')
   .max(40, 'Code must be 40 characters or fewer.')
   .regex(/^[A-Za-z0-9][A-Za-z0-9._-]*$/, 'Code may hold letters, digits, ".", "-" and "_", and must start with a letter or digit.');
-const name = z.string({ message: 'Name is required.' }).trim().min(1, 'Name is required.').max(120, 'Name must be 120 characters or fewer.');
-const notes = z.string().max(2000, 'Notes must be 2000 characters or fewer.').default('');
+const name = plainText('Name', 120).trim().min(1, 'Name is required.');
+const notes = plainText('Notes', 2000, true).default('');
 
 // ---------- plates ----------
 export const PlateInputSchema = z.object({
@@ -20,7 +21,7 @@ export const PlateInputSchema = z.object({
   columns: z.number({ message: 'Columns must be a whole number.' }).int('Columns must be a whole number.').min(1, 'A plate needs at least 1 column.').max(500, 'Columns must be 500 or fewer.'),
   rows: z.number({ message: 'Rows must be a whole number.' }).int('Rows must be a whole number.').min(1, 'A plate needs at least 1 row.').max(500, 'Rows must be 500 or fewer.'),
   holeDiameter: positive('Hole diameter'),
-  thread: z.string().trim().max(40, 'Thread must be 40 characters or fewer.').default(''),
+  thread: plainText('Thread', 40).trim().default(''),
   /** Distance from the outermost hole centers to the plate edge; half a pitch when left out. */
   edgeMargin: nonNegative('Edge margin').optional(),
   notes,
@@ -87,11 +88,11 @@ export const ComponentInputSchema = z
     unit: UnitSchema,
     /** Locating dowels in local coordinates; the first is the primary dowel and sits at the local origin. */
     dowels: z.array(PointSchema).min(1, 'A component needs at least one locating dowel.').max(16, 'At most 16 dowels.'),
-    stops: z.array(StopSchema).max(200, 'At most 200 stop positions.').default([]),
+    stops: z.array(StopSchema).max(LIMITS.stops, `At most ${LIMITS.stops} stop positions.`).default([]),
     jawFaces: z.array(JawFaceSchema).max(8, 'At most 8 jaw faces.').default([]),
     clamp: ClampModelSchema.nullable().default(null),
     outline: OutlineSchema.nullable().default(null),
-    layer: z.string().trim().max(255, 'Layer must be 255 characters or fewer.').default(''),
+    layer: plainText('Layer', 255).trim().default(''),
     notes,
   })
   .superRefine((c, ctx) => {

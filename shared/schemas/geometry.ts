@@ -1,5 +1,6 @@
 import { z } from 'zod';
-import { finite, positive } from './common';
+import { finite, plainText, positive } from './common';
+import { LIMITS, count } from './limits';
 
 /**
  * Outline geometry, in the owning object's unit. Paths are polylines whose vertices may carry a
@@ -15,22 +16,32 @@ export const OutlineVertexSchema = z.object({
 export type OutlineVertex = z.infer<typeof OutlineVertexSchema>;
 
 export const OutlinePathSchema = z.object({
-  layer: z.string().max(255).optional(),
+  layer: plainText('Layer', 255).optional(),
   closed: z.boolean(),
-  points: z.array(OutlineVertexSchema).min(2, 'A path needs at least two points.'),
+  points: z
+    .array(OutlineVertexSchema)
+    .min(2, 'A path needs at least two points.')
+    .max(LIMITS.outlineVertices, `A path may have at most ${count(LIMITS.outlineVertices)} points.`),
 });
 export type OutlinePath = z.infer<typeof OutlinePathSchema>;
 
 export const OutlineCircleSchema = z.object({
-  layer: z.string().max(255).optional(),
+  layer: plainText('Layer', 255).optional(),
   x: finite('Circle x'),
   y: finite('Circle y'),
   r: positive('Circle radius'),
 });
 export type OutlineCircle = z.infer<typeof OutlineCircleSchema>;
 
-export const OutlineSchema = z.object({
-  paths: z.array(OutlinePathSchema).max(100_000),
-  circles: z.array(OutlineCircleSchema).max(100_000),
-});
+export const OutlineSchema = z
+  .object({
+    paths: z.array(OutlinePathSchema).max(LIMITS.outlinePaths, `An outline may have at most ${count(LIMITS.outlinePaths)} paths.`),
+    circles: z.array(OutlineCircleSchema).max(LIMITS.outlineCircles, `An outline may have at most ${count(LIMITS.outlineCircles)} circles.`),
+  })
+  .superRefine((o, ctx) => {
+    const vertices = o.paths.reduce((n, p) => n + p.points.length, 0);
+    if (vertices > LIMITS.outlineVertices) {
+      ctx.addIssue({ code: 'custom', path: ['paths'], message: `The outline has ${count(vertices)} vertices; at most ${count(LIMITS.outlineVertices)} are kept for one outline. Simplify the drawing.` });
+    }
+  });
 export type Outline = z.infer<typeof OutlineSchema>;

@@ -1,24 +1,24 @@
 import { z } from 'zod';
-import { UnitSchema, finite, listOf, nonNegative, positive } from './common';
+import { UnitSchema, finite, listOf, nonNegative, plainText, positive } from './common';
 import { OutlineSchema } from './geometry';
 import { PairingSchema, StationSchema } from './template';
 import { MeasuredBarSchema, StockCheckResponseSchema } from './stock-check';
 import { VersionStateSchema } from './template-api';
 
-const text = (label: string, max: number) => z.string({ message: `${label} is required.` }).trim().min(1, `${label} is required.`).max(max, `${label} must be ${max} characters or fewer.`);
+const text = (label: string, max: number) => plainText(label, max).trim().min(1, `${label} is required.`);
 
 export const StockSizeSchema = z.object({
   width: positive('Stock width'),
   thickness: positive('Stock thickness'),
   length: positive('Stock length'),
-  material: z.string().trim().max(80, 'Material must be 80 characters or fewer.').default(''),
+  material: plainText('Material', 80).trim().default(''),
 });
 
 /** A job's own fields; lengths are in the pinned template's unit. */
 export const JobInputSchema = z.object({
   name: text('Job name', 120),
   partNumber: text('Part number', 60),
-  partRevision: z.string().trim().max(20, 'Revision must be 20 characters or fewer.').default(''),
+  partRevision: plainText('Revision', 20).trim().default(''),
   templateId: z.number({ message: 'Choose a template.' }).int().positive('Choose a template.'),
   version: z.number({ message: 'Choose a released version.' }).int().positive('Choose a released version.'),
   stock: StockSizeSchema,
@@ -27,7 +27,7 @@ export const JobInputSchema = z.object({
   minBite: positive('Minimum bite'),
   cycleMinutes: positive('Cycle time'),
   loadMinutes: nonNegative('Load time').default(0),
-  notes: z.string().max(4000).default(''),
+  notes: plainText('Notes', 4000, true).default(''),
 });
 export type JobInput = z.input<typeof JobInputSchema>;
 export type JobFields = z.output<typeof JobInputSchema>;

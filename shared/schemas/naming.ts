@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { compileRule } from '../naming/compile-rule';
+import { hasControl } from './limits';
 
 /**
  * The shop's naming convention: one rule for DXF layer names, one for component codes. A rule is
@@ -22,7 +23,8 @@ export type NamingCase = z.infer<typeof NamingCaseSchema>;
 const text = (label: string, max: number) =>
   z
     .string({ message: `${label} must be text.` })
-    .max(max, `${label} must be ${max} characters or fewer.`);
+    .max(max, `${label} must be ${max} characters or fewer.`)
+    .refine((s) => !hasControl(s), `${label} must not hold control characters such as tabs or line breaks.`);
 
 const tokenName = text('A token name', 32).min(1, 'Each token needs a name, such as kind or size.');
 

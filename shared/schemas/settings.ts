@@ -1,8 +1,8 @@
 import { z } from 'zod';
-import { UnitSchema, positive } from './common';
+import { UnitSchema, plainText, positive } from './common';
 
 export const ShopSettingsSchema = z.object({
-  shopName: z.string().trim().min(1, 'Shop name is required.').max(120, 'Shop name must be 120 characters or fewer.'),
+  shopName: plainText('Shop name', 120).trim().min(1, 'Shop name is required.'),
   defaultUnit: UnitSchema,
   /**
    * How far a probed station may sit from the computed table before it is flagged, kept in inches

@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { UnitSchema } from './common';
+import { LIMITS, count, hasControl } from './limits';
 import { ClampModelSchema } from './catalog';
 
 /**
@@ -41,7 +42,8 @@ function length(field: string, what: string, bound: Bound) {
       bound === 'positive'
         ? `${field} must be greater than zero: enter ${what}.`
         : `${field} must be zero or more: enter ${what}.`,
-    );
+    )
+    .refine((v) => v <= LIMITS.coordinate, `${field} must be ${count(LIMITS.coordinate)} or less: enter ${what}.`);
 }
 
 function describe(input: unknown): string {
@@ -64,7 +66,8 @@ const BarIdSchema = z
     z
       .string()
       .min(1, 'id must not be empty: give each bar an id.')
-      .max(64, 'id must be 64 characters or fewer: shorten the bar id.'),
+      .max(64, 'id must be 64 characters or fewer: shorten the bar id.')
+      .refine((s) => !hasControl(s), 'id must not hold control characters such as tabs or line breaks: retype the bar id.'),
   );
 
 export const MeasuredBarSchema = z.object(

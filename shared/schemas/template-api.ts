@@ -2,8 +2,10 @@ import { z } from 'zod';
 import { listOf } from './common';
 import {
   NumberingSchema, PairingSchema, PlacementSchema, ProblemSchema, SharedOffsetSchema, StationSchema,
-  TemplateComponentSchema, TemplateContentSchema, PlateRefSchema,
+  TemplateComponentSchema, TemplateContentFieldsSchema, PlateRefSchema, checkStationCount,
 } from './template';
+import { LIMITS, count } from './limits';
+import { plainText } from './common';
 import { UnitSchema } from './common';
 
 export const VERSION_STATES = ['draft', 'in-review', 'released', 'retired'] as const;
@@ -11,7 +13,7 @@ export const VersionStateSchema = z.enum(VERSION_STATES);
 export type VersionState = z.infer<typeof VersionStateSchema>;
 
 export const CreateTemplateInputSchema = z.object({
-  name: z.string({ message: 'Template name is required.' }).trim().min(1, 'Template name is required.').max(120, 'Template name must be 120 characters or fewer.'),
+  name: plainText('Template name', 120).trim().min(1, 'Template name is required.'),
   plateId: z.number({ message: 'Choose a plate.' }).int().positive('Choose a plate.'),
 });
 export type CreateTemplateInput = z.infer<typeof CreateTemplateInputSchema>;
@@ -19,12 +21,12 @@ export type CreateTemplateInput = z.infer<typeof CreateTemplateInputSchema>;
 /** PUT of a draft: the template.json shape with the revision it was read at. */
 export const SaveVersionInputSchema = z.object({
   revision: z.number({ message: 'revision is required: send the revision the draft was read at.' }).int().min(1),
-  placements: z.array(PlacementSchema).max(5000, 'A template holds at most 5,000 placements.'),
+  placements: z.array(PlacementSchema).max(LIMITS.placements, `A template holds at most ${count(LIMITS.placements)} placements.`),
   sharedOffset: SharedOffsetSchema,
   numbering: NumberingSchema.default({ order: 'row-by-row' }),
   /** Copies of components the version carries; codes not listed are taken from the catalog. */
-  components: z.array(TemplateComponentSchema).max(5000).optional(),
-}).passthrough();
+  components: z.array(TemplateComponentSchema).max(LIMITS.templateComponents, `A template carries at most ${count(LIMITS.templateComponents)} components.`).optional(),
+}).passthrough().superRefine((v, ctx) => checkStationCount(v.placements, ctx));
 export type SaveVersionInput = z.infer<typeof SaveVersionInputSchema>;
 
 export const VersionSummarySchema = z.object({
@@ -49,7 +51,7 @@ export type TemplateSummary = z.infer<typeof TemplateSummarySchema>;
 export const TemplateListSchema = listOf(TemplateSummarySchema);
 
 /** A version as the API answers it: the template.json fields plus state, revision and derived checks. */
-export const TemplateVersionSchema = TemplateContentSchema.extend({
+export const TemplateVersionSchema = TemplateContentFieldsSchema.extend({
   format: z.literal('gridset-template'),
   formatVersion: z.literal(1),
   templateId: z.number().int(),
@@ -78,7 +80,7 @@ export const StationsAnswerSchema = z.object({
 export type StationsAnswer = z.infer<typeof StationsAnswerSchema>;
 
 export const ReleaseInputSchema = z.object({
-  waiver: z.string().trim().min(10, 'A waiver needs a written reason of at least 10 characters.').max(2000).optional(),
+  waiver: plainText('The waiver', 2000, true).trim().min(10, 'A waiver needs a written reason of at least 10 characters.').optional(),
 });
 
 export const NewVersionInputSchema = z.object({ from: z.number({ message: 'from must be the number of the version to copy.' }).int().min(1) });

@@ -1,5 +1,6 @@
 import { z } from 'zod';
-import { UnitSchema, finite, nonNegative } from './common';
+import { UnitSchema, finite, nonNegative, plainText } from './common';
+import { LIMITS, count } from './limits';
 import { ComponentKindSchema, StopSchema, JawFaceSchema, ClampModelSchema } from './catalog';
 import { OutlineSchema } from './geometry';
 import { PointSchema } from './common';
@@ -10,26 +11,35 @@ export const RotationSchema = z.union([z.literal(0), z.literal(90), z.literal(18
 });
 export type Rotation = z.infer<typeof RotationSchema>;
 
+const holeIndex = (label: string) =>
+  z
+    .number({ message: `${label} must be a whole number.` })
+    .int(`${label} must be a whole number.`)
+    .min(-LIMITS.holeIndex, `${label} must lie between -${count(LIMITS.holeIndex)} and ${count(LIMITS.holeIndex)}.`)
+    .max(LIMITS.holeIndex, `${label} must lie between -${count(LIMITS.holeIndex)} and ${count(LIMITS.holeIndex)}.`);
 export const HoleSchema = z.object({
-  col: z.number({ message: 'Hole column must be a whole number.' }).int('Hole column must be a whole number.'),
-  row: z.number({ message: 'Hole row must be a whole number.' }).int('Hole row must be a whole number.'),
+  col: holeIndex('Hole column'),
+  row: holeIndex('Hole row'),
 });
 export type Hole = z.infer<typeof HoleSchema>;
 
 export const PlacementSchema = z.object({
   /** Stable identity across versions; stations are identified by placement id and stop index. */
   id: z.string().trim().min(1, 'Placement id is required.').max(40).regex(/^[A-Za-z0-9._-]+$/, 'Placement id may hold letters, digits, ".", "-" and "_".'),
-  component: z.string().min(1, 'Placement component code is required.'),
+  component: plainText('Placement component code', 40).min(1, 'Placement component code is required.'),
   hole: HoleSchema,
   rotation: RotationSchema,
-  stopsInUse: z.array(z.number().int().min(0)).default([]),
+  stopsInUse: z
+    .array(z.number({ message: 'A stop in use must be a whole number.' }).int('A stop in use must be a whole number.').min(0, 'A stop in use must be zero or more.').max(LIMITS.stops - 1, `A stop in use must be below ${LIMITS.stops}.`))
+    .max(LIMITS.stops, `A placement uses at most ${LIMITS.stops} stops.`)
+    .default([]),
 });
 export type Placement = z.infer<typeof PlacementSchema>;
 
 export const SharedOffsetSchema = z.discriminatedUnion('kind', [
-  z.object({ kind: z.literal('hole'), hole: HoleSchema, name: z.string().max(40).optional() }),
-  z.object({ kind: z.literal('center'), name: z.string().max(40).optional() }),
-  z.object({ kind: z.literal('point'), x: finite('Shared offset x'), y: finite('Shared offset y'), z: finite('Shared offset z').default(0), name: z.string().max(40).optional() }),
+  z.object({ kind: z.literal('hole'), hole: HoleSchema, name: plainText('Shared offset name', 40).optional() }),
+  z.object({ kind: z.literal('center'), name: plainText('Shared offset name', 40).optional() }),
+  z.object({ kind: z.literal('point'), x: finite('Shared offset x'), y: finite('Shared offset y'), z: finite('Shared offset z').default(0), name: plainText('Shared offset name', 40).optional() }),
 ], { message: 'Shared offset kind must be "hole", "center" or "point".' });
 export type SharedOffset = z.infer<typeof SharedOffsetSchema>;
 
@@ -37,34 +47,36 @@ export const NUMBERING_ORDERS = ['row-by-row', 'serpentine', 'by-rail', 'by-hand
 export const NumberingSchema = z.object({
   order: z.enum(NUMBERING_ORDERS, { message: `Numbering order must be one of ${NUMBERING_ORDERS.join(', ')}.` }),
   /** For by-hand: station ids ("placementId:stopIndex") in the order they are numbered. */
-  manual: z.array(z.string()).optional(),
+  manual: z.array(plainText('A station id', 80)).max(LIMITS.stations, `Numbering by hand lists at most ${count(LIMITS.stations)} stations.`).optional(),
 });
 export type Numbering = z.infer<typeof NumberingSchema>;
 
 export const PlateRefSchema = z.object({
-  code: z.string().min(1),
+  code: plainText('Plate code', 40).min(1, 'Plate code is required.'),
   unit: UnitSchema,
   pitch: finite('Plate pitch').refine((v) => v > 0, 'Plate pitch must be greater than zero.'),
-  columns: z.number().int().min(1),
-  rows: z.number().int().min(1),
+  // The catalog's own bounds (PlateInputSchema).
+  columns: z.number({ message: 'Plate columns must be a whole number.' }).int('Plate columns must be a whole number.').min(1, 'A plate needs at least 1 column.').max(500, 'Plate columns must be 500 or fewer.'),
+  rows: z.number({ message: 'Plate rows must be a whole number.' }).int('Plate rows must be a whole number.').min(1, 'A plate needs at least 1 row.').max(500, 'Plate rows must be 500 or fewer.'),
   holeDiameter: nonNegative('Plate hole diameter').optional(),
   edgeMargin: nonNegative('Plate edge margin').optional(),
-  name: z.string().optional(),
+  name: plainText('Plate name', 120).optional(),
 });
 export type PlateRef = z.infer<typeof PlateRefSchema>;
 
 /** A component as carried inside a template file, so the file stands alone. */
 export const TemplateComponentSchema = z.object({
-  code: z.string().min(1),
+  code: plainText('Component code', 40).min(1, 'Component code is required.'),
   kind: ComponentKindSchema,
   unit: UnitSchema,
-  name: z.string().optional(),
-  dowels: z.array(PointSchema).min(1),
-  stops: z.array(StopSchema).default([]),
-  jawFaces: z.array(JawFaceSchema).default([]),
+  name: plainText('Component name', 120).optional(),
+  // The catalog's own bounds (ComponentInputSchema).
+  dowels: z.array(PointSchema).min(1, 'A component needs at least one locating dowel.').max(16, 'At most 16 dowels.'),
+  stops: z.array(StopSchema).max(LIMITS.stops, `At most ${LIMITS.stops} stop positions.`).default([]),
+  jawFaces: z.array(JawFaceSchema).max(8, 'At most 8 jaw faces.').default([]),
   outline: OutlineSchema.nullable().default(null),
   clamp: ClampModelSchema.nullable().optional(),
-  layer: z.string().optional(),
+  layer: plainText('Layer', 255).optional(),
 });
 export type TemplateComponent = z.infer<typeof TemplateComponentSchema>;
 
@@ -83,15 +95,25 @@ export const StationSchema = z.object({
 export type Station = z.infer<typeof StationSchema>;
 
 /** The content of a template version: the body of template.json without derived fields. */
-export const TemplateContentSchema = z.object({
-  name: z.string().trim().min(1, 'Template name is required.').max(120),
+/** Stations are placements × stops in use: bounded as a total, so a file of few placements cannot make a million. */
+export function checkStationCount(placements: readonly { stopsInUse: readonly number[] }[], ctx: z.RefinementCtx): void {
+  const stations = placements.reduce((n, p) => n + p.stopsInUse.length, 0);
+  if (stations > LIMITS.stations) {
+    ctx.addIssue({ code: 'custom', path: ['placements'], message: `The layout has ${count(stations)} stations (stops in use); a template holds at most ${count(LIMITS.stations)}.` });
+  }
+}
+
+/** The fields of TemplateContentSchema, for schemas that extend it (refined schemas cannot be extended). */
+export const TemplateContentFieldsSchema = z.object({
+  name: plainText('Template name', 120).trim().min(1, 'Template name is required.'),
   unit: UnitSchema,
   plate: PlateRefSchema,
-  components: z.array(TemplateComponentSchema),
-  placements: z.array(PlacementSchema).max(5000),
+  components: z.array(TemplateComponentSchema).max(LIMITS.templateComponents, `A template carries at most ${count(LIMITS.templateComponents)} components.`),
+  placements: z.array(PlacementSchema).max(LIMITS.placements, `A template holds at most ${count(LIMITS.placements)} placements.`),
   sharedOffset: SharedOffsetSchema,
   numbering: NumberingSchema.default({ order: 'row-by-row' }),
 });
+export const TemplateContentSchema = TemplateContentFieldsSchema.superRefine((c, ctx) => checkStationCount(c.placements, ctx));
 export type TemplateContent = z.infer<typeof TemplateContentSchema>;
 
 // ---------- evaluation results (added for the station engine in shared/stations) ----------

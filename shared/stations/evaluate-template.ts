@@ -3,6 +3,7 @@ import type { Hole, Pairing, Placement, Problem, Station, TemplateComponent, Tem
 import { GRID_TOLERANCE, convert, formatLength } from '../units/units';
 import { applyTransform, cosSinDeg, isGridRotation, normalizeDegrees, placementTransform, type RigidTransform } from '../geometry/transform';
 import { componentGeometryIn, type ComponentGeometry } from '../geometry/component-geometry';
+import { LIMITS } from '../schemas/limits';
 import { boxOfPoints, footprintsOverlap, overlappingBoxPairs, outlineBounds, outlineFootprint, type Box, type Polygon } from '../geometry/outline';
 import { orderStations } from './numbering';
 import { createClampFinder, type ClampFace, type ClampMatch, type FixedFace } from './nominal-width';
@@ -233,9 +234,16 @@ export function evaluateTemplate(content: TemplateContent, options: EvaluateOpti
     return fp;
   };
   const solid = placed.filter((p) => p.component.footprint);
-  const overlapping = overlappingBoxPairs(solid.map((p) => p.extent), slack)
+  // The edge tests of each pair are counted before it is checked; once LIMITS.overlapEdgeTests is
+  // spent, the remaining pairs count as overlapping when their boxes do (the safe side).
+  const edges = (p: Placed) => p.component.footprint!.reduce((n, poly) => n + poly.length, 0);
+  let edgeBudget = LIMITS.overlapEdgeTests;
+  const overlapping = overlappingBoxPairs(solid.map((p) => p.extent), slack, LIMITS.overlapPairs)
     .map(([i, j]) => ({ a: solid[i]!, b: solid[j]! }))
-    .filter(({ a, b }) => footprintsOverlap(footprintOf(a), footprintOf(b), slack))
+    .filter(({ a, b }) => {
+      edgeBudget -= edges(a) * edges(b);
+      return edgeBudget < 0 || footprintsOverlap(footprintOf(a), footprintOf(b), slack);
+    })
     .map(({ a, b }) => (a.index > b.index ? { later: a, earlier: b } : { later: b, earlier: a }))
     .sort((x, y) => x.later.index - y.later.index || x.earlier.index - y.earlier.index);
   for (const { later, earlier } of overlapping) {

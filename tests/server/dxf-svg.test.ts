@@ -150,3 +150,19 @@ describe('aciToHex', () => {
     expect(aciToHex(256, '#123456')).toBe('#123456');
   });
 });
+
+describe('characters XML 1.0 cannot hold', () => {
+  it('are left out of the picture (XML 1.0, §2.2 Char), so stored names from before the input check still draw', async () => {
+    const d = plate();
+    d.texts = [{ layer: 'NOTES', x: 5, y: 40, height: 4, text: 'Bracket\u0000 v\u00012 \u001b[31m\uffff \ud800end' }];
+    const svg = drawingToSvg(d);
+    // Char ::= #x9 | #xA | #xD | [#x20-#xD7FF] | [#xE000-#xFFFD] | [#x10000-#x10FFFF]
+    const notChar = [...svg].filter((c) => {
+      const cp = c.codePointAt(0)!;
+      return !(cp === 0x9 || cp === 0xa || cp === 0xd || (cp >= 0x20 && cp <= 0xd7ff) || (cp >= 0xe000 && cp <= 0xfffd) || (cp >= 0x10000 && cp <= 0x10ffff));
+    });
+    expect(notChar).toEqual([]);
+    const texts = all(await parse(svg), 'text').map((t) => t.children.map((c) => c.value).join(''));
+    expect(texts).toContain('Bracket v2 [31m end');
+  });
+});
