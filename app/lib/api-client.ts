@@ -46,6 +46,25 @@ export async function apiRequest<S extends z.ZodType | undefined = undefined>(
   return readAnswer(res.status, await res.text(), opts.schema);
 }
 
+/**
+ * Downloads a file the server writes, showing its refusal instead of saving it: a plain link would
+ * save the JSON error body as the file. The name comes from the answer's Content-Disposition.
+ */
+export async function downloadFile(url: string, fallbackName: string): Promise<void> {
+  const res = await fetch(url, { credentials: 'same-origin' });
+  if (!res.ok) readAnswer(res.status, await res.text(), undefined);
+  const blob = await res.blob();
+  const name = /filename="?([^";]+)"?/.exec(res.headers.get('Content-Disposition') ?? '')?.[1] ?? fallbackName;
+  const href = URL.createObjectURL(blob);
+  const a = document.createElement('a');
+  a.href = href;
+  a.download = name;
+  document.body.append(a);
+  a.click();
+  a.remove();
+  setTimeout(() => URL.revokeObjectURL(href), 10_000);
+}
+
 /** The answer's body as JSON parsed by the schema, or the error body as an ApiError. */
 function readAnswer<S extends z.ZodType | undefined>(status: number, text: string, schema: S | undefined): S extends z.ZodType ? z.output<S> : unknown {
   const json = text ? safeJson(text) : null;

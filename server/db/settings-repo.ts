@@ -7,6 +7,7 @@ export const DEFAULT_SETTINGS: ShopSettings = {
   // The pinned-station repeat, 0.002–0.003 in (common practice).
   probeToleranceIn: 0.003,
   probeToleranceMm: 0.08,
+  extendedOffsetRegisters: 48,
 };
 
 export function settingsRepo(db: Db) {

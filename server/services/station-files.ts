@@ -3,8 +3,9 @@ import type { Unit } from '../../shared/schemas/common';
 import type { Station } from '../../shared/schemas/template';
 import type { TemplateVersion } from '../../shared/schemas/template-api';
 import { DISPLAY_DECIMALS, formatNumber } from '../../shared/units/units';
-import { writeOffsetFile, type OffsetDialect } from '../../shared/gcode/offsets';
-import { badRequest } from '../middleware/errors';
+import { writeOffsetFile } from '../../shared/gcode/offsets';
+import type { OffsetsQuery } from '../../shared/schemas/template-api';
+import { HttpError, badRequest } from '../middleware/errors';
 
 /** The station table columns, in order; CSV headers are the keys, XLSX headers the labels with the unit. */
 const COLUMNS = [
@@ -57,23 +58,36 @@ export async function stationsXlsx(v: Pick<TemplateVersion, 'name' | 'version' |
   return Buffer.from(await wb.xlsx.writeBuffer());
 }
 
-export function parseBase(base: string | undefined): { x: number; y: number; z: number } | null {
-  if (!base) return null;
-  const [x, y, z] = base.split(',').map((s) => Number(s.trim()));
-  return { x: x!, y: y!, z: z! };
-}
+/** A machine position beyond this is a typing slip, not a machine (larger than any machining center's travel). */
+const BASE_LIMIT = { in: 100, mm: 2540 } as const;
 
-export function offsetsNc(v: TemplateVersion, q: { mode: 'g10' | 'g52'; dialect: OffsetDialect; base?: string }): string {
-  const source = { templateName: v.name, version: v.version, contentHash: v.contentHash };
-  const common = { source, unit: v.unit, stations: v.stations, dialect: q.dialect, sharedOffsetName: v.sharedOffset.name };
-  if (q.mode === 'g10') {
-    const at = parseBase(q.base);
-    if (!at) throw badRequest('mode=g10 needs base=x,y,z: the machine position of the shared offset (entered or probed once), e.g. base=-20.5,-12.25,-14.0.', null, 'missing-base');
-    const r = writeOffsetFile({ ...common, mode: 'g10', sharedOffsetAt: at });
-    if (!r.ok) throw badRequest(r.error.message, null, r.error.code);
-    return r.text;
+/**
+ * The offsets file of a version (or of the stations a job uses) for the control family the user
+ * named. A family that cannot write these stations answers 422 with the reason; nothing is written.
+ */
+export function offsetsNc(
+  v: Pick<TemplateVersion, 'name' | 'version' | 'state' | 'contentHash' | 'unit' | 'stations' | 'sharedOffset'>,
+  q: OffsetsQuery,
+  options: { extendedRegisters: number; stations?: readonly Station[] },
+): string {
+  if (q.base) {
+    const limit = BASE_LIMIT[v.unit];
+    const far = (['x', 'y', 'z'] as const).find((k) => Math.abs(q.base![k]) > limit);
+    if (far) throw badRequest(`base ${far} is ${q.base[far]} ${v.unit}, beyond ±${limit} ${v.unit}: give the machine position of the shared offset in ${v.unit}.`, null, 'bad-base');
   }
-  const r = writeOffsetFile({ ...common, mode: 'g52' });
-  if (!r.ok) throw badRequest(r.error.message, null, r.error.code);
+  const r = writeOffsetFile({
+    family: q.family,
+    source: { templateName: v.name, version: v.version, state: v.state, contentHash: v.contentHash },
+    unit: v.unit,
+    stations: options.stations ?? v.stations,
+    sharedOffsetName: v.sharedOffset.name,
+    base: q.base,
+    first: q.first,
+    extendedRegisters: options.extendedRegisters,
+  });
+  if (!r.ok) {
+    if (r.error.code === 'missing-base' || r.error.code === 'bad-first-register') throw badRequest(r.error.message, null, r.error.code);
+    throw new HttpError(422, r.error.code, r.error.message);
+  }
   return r.text;
 }

@@ -11,5 +11,15 @@ export const ShopSettingsSchema = z.object({
    */
   probeToleranceIn: positive('Probe-check tolerance (in)'),
   probeToleranceMm: positive('Probe-check tolerance (mm)'),
+  /**
+   * How many extended work offsets (G54.1 P1 …) the shop's controls have, for the ext-l20 offsets
+   * family; 48 is a common count (from memory) — check the control's manual.
+   */
+  extendedOffsetRegisters: z
+    .number({ message: 'Extended work offsets must be a whole number.' })
+    .int('Extended work offsets must be a whole number.')
+    .min(1, 'Extended work offsets must be 1 or more.')
+    .max(300, 'Extended work offsets must be 300 or fewer.')
+    .default(48),
 });
 export type ShopSettings = z.infer<typeof ShopSettingsSchema>;

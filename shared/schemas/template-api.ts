@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { CONTROL_FAMILIES, familyFromAlias, type ControlFamily } from '../gcode/control-families';
 import { listOf } from './common';
 import {
   NumberingSchema, PairingSchema, PlacementSchema, ProblemSchema, SharedOffsetSchema, StationSchema,
@@ -85,11 +86,37 @@ export const ReleaseInputSchema = z.object({
 
 export const NewVersionInputSchema = z.object({ from: z.number({ message: 'from must be the number of the version to copy.' }).int().min(1) });
 
-export const OffsetsQuerySchema = z.object({
-  mode: z.enum(['g10', 'g52'], { message: 'mode must be g10 or g52.' }).default('g10'),
-  dialect: z.enum(['standard', 'extended'], { message: 'dialect must be standard or extended.' }).default('standard'),
-  base: z
-    .string()
-    .regex(/^\s*-?\d+(\.\d+)?\s*,\s*-?\d+(\.\d+)?\s*,\s*-?\d+(\.\d+)?\s*$/, 'base must be three numbers x,y,z: the machine position of the shared offset, e.g. base=-20.5,-12.25,-14.0.')
-    .optional(),
-});
+const familyWords = CONTROL_FAMILIES.join(', ');
+const coordinate = /^\s*-?\d+(\.\d+)?\s*$/;
+
+/**
+ * offsets.nc?family=F&base=x,y,z&first=P. `dialect` is another name for `family`; the old
+ * mode=g10|g52 and dialect=standard|extended stay as aliases (extended is the ext-l20 family,
+ * never G10 L2 above P9).
+ */
+export const OffsetsQuerySchema = z
+  .object({
+    family: z.string().max(40).optional(),
+    dialect: z.string().max(40).optional(),
+    mode: z.string().max(10).optional(),
+    base: z
+      .string()
+      .max(120)
+      .refine((v) => { const parts = v.split(','); return parts.length === 3 && parts.every((p) => coordinate.test(p)); }, 'base must be three numbers x,y,z: the machine position of the shared offset, e.g. base=-20.5,-12.25,-14.0.')
+      .transform((v) => { const [x, y, z] = v.split(',').map((p) => Number(p.trim())); return { x: x!, y: y!, z: z! }; })
+      .optional(),
+    first: z.coerce.number({ message: 'first must be a whole register number, e.g. first=2.' }).int('first must be a whole register number, e.g. first=2.').min(1, 'first must be 1 or more.').max(999, 'first must be 999 or less.').optional(),
+  })
+  .transform((q, ctx) => {
+    const family = familyFromAlias(q);
+    if (!family) {
+      ctx.addIssue({ code: 'custom', path: ['family'], message: `Name the control family the file is for: family=${familyWords}.` });
+      return z.NEVER;
+    }
+    if (!(CONTROL_FAMILIES as readonly string[]).includes(family)) {
+      ctx.addIssue({ code: 'custom', path: ['family'], message: `family must be one of ${familyWords}; ${family} is not a family Gridset writes.` });
+      return z.NEVER;
+    }
+    return { family: family as ControlFamily, base: q.base, first: q.first };
+  });
+export type OffsetsQuery = z.output<typeof OffsetsQuerySchema>;

@@ -153,37 +153,54 @@ describe('station files', () => {
     expect(shared).toContain('Nominal width (in)');
   });
 
-  it('writes G10 L2 blocks that an independent tokenizer reads back as base + translation', async () => {
-    const metric = await operator.get('/api/templates/2/versions/1/offsets.nc?mode=g10&base=-400,-250,-300.5').expect(200);
+  it('writes G10 L2 blocks that an independent tokenizer reads back as base + translation, as plain text', async () => {
+    const metric = await operator.get('/api/templates/2/versions/1/offsets.nc?family=ngc-g10&base=-400,-250,-300.5').expect(200);
+    // Express's attachment() would type a .nc file as NetCDF (mime-db); a G-code file is text.
+    expect(metric.headers['content-type']).toBe('text/plain; charset=utf-8');
+    expect(metric.headers['content-disposition']).toMatch(/offsets-ngc-g10\.nc/);
     const lines = metric.text.split('\n');
     expect(lines[0]).toMatch(/^\(/);
     expect(metric.text).toMatch(/G21/); // mm → G21 (NISTIR 6556 "Length Units — G20 and G21")
-    expect(metric.text).toMatch(/CAUTION|caution|Caution/);
+    expect(metric.text).toMatch(/CAUTION/);
     const blocks = lines.filter((l) => l.startsWith('G10'));
     const st = (await operator.get('/api/templates/2/versions/1/stations')).body.stations;
     expect(blocks).toHaveLength(st.length);
     blocks.forEach((line, i) => {
       const w = Object.fromEntries(parseLine(line).words.map(([k, v]: [string, number]) => [k, v]));
-      // G10 L2 Pn: P1 = G54 … (LinuxCNC "G10 L2 Set Coordinate System"; NISTIR 6556).
-      expect(w).toMatchObject({ G: 10, L: 2, P: i + 1 });
+      // G10 L2 Pn: P1 = G54 is the shared offset, so station 1 is P2 (LinuxCNC "G10 L2"; NISTIR 6556).
+      expect(w).toMatchObject({ G: 10, L: 2, P: i + 2, R: 0 });
       expect(w.X).toBeCloseTo(-400 + st[i].x, 3);
       expect(w.Y).toBeCloseTo(-250 + st[i].y, 3);
       expect(w.Z).toBeCloseTo(-300.5 + st[i].z, 3);
     });
+    expect(lines.filter((l) => l.trim()).at(-1)).toBe('M30');
   });
 
-  it('refuses G10 for more stations than P1–P9 and answers a G52 sequence instead', async () => {
-    const res = await operator.get('/api/templates/1/versions/1/offsets.nc?mode=g10&base=0,0,0');
-    expect(res.status).toBe(400);
-    expect(res.body.error.message).toMatch(/P1-P9|P1–P9/);
-    const g52 = await operator.get('/api/templates/1/versions/1/offsets.nc?mode=g52').expect(200);
-    expect(g52.text).toMatch(/G20/);
-    expect(g52.text.trim().split('\n').at(-1)).toBe('G52 X0 Y0 Z0');
-    expect(g52.text.split('\n').filter((l) => l.startsWith('G52 X'))).toHaveLength(21);
-    expect((await operator.get('/api/templates/1/versions/1/offsets.nc?mode=g10')).status).toBe(400);
-    expect((await operator.get('/api/templates/1/versions/1/offsets.nc?mode=g10&base=1,2')).status).toBe(400);
-    const ext = await operator.get('/api/templates/1/versions/1/offsets.nc?mode=g10&base=0,0,0&dialect=extended').expect(200);
-    expect(ext.text).toMatch(/CONTROL-SPECIFIC/);
+  it('refuses what a family cannot write, with a sentence, and never switches family by itself', async () => {
+    const tooMany = await operator.get('/api/templates/1/versions/1/offsets.nc?family=ngc-g10&base=0,0,0');
+    expect(tooMany.status).toBe(422);
+    expect(tooMany.body.error.code).toBe('too-many-stations');
+    expect(tooMany.body.error.message).toMatch(/^Station 20 would need register 21/);
+    // The demo layout has stations turned 90° on its short rail: G52 alone cannot turn them.
+    const turned = await operator.get('/api/templates/1/versions/1/offsets.nc?mode=g52');
+    expect(turned.status).toBe(422);
+    expect(turned.body.error.code).toBe('turned-station');
+    const rotate = await operator.get('/api/templates/1/versions/1/offsets.nc?family=shift-rotate').expect(200);
+    expect(rotate.text.split('\n').filter((l) => l.startsWith('G68 X0 Y0 R'))).toHaveLength(20);
+    expect((await operator.get('/api/templates/1/versions/1/offsets.nc?family=ngc-g10')).body.error.code).toBe('missing-base');
+    expect((await operator.get('/api/templates/1/versions/1/offsets.nc?family=ngc-g10&base=1,2')).status).toBe(400);
+    expect((await operator.get('/api/templates/1/versions/1/offsets.nc?family=ngc-g10&base=1e9,0,0')).status).toBe(400);
+    expect((await operator.get('/api/templates/1/versions/1/offsets.nc?family=ngc-g10&base=5000,0,0')).body.error.message).toMatch(/beyond ±100 in/);
+    expect((await operator.get('/api/templates/1/versions/1/offsets.nc?family=fanciful')).status).toBe(400);
+    expect((await operator.get('/api/templates/1/versions/1/offsets.nc')).body.error.message).toMatch(/Name the control family/);
+    // "extended" is the ext-l20 family (G10 L20 / G54.1 P), never G10 L2 above P9; turned stations refused there too.
+    const ext = await operator.get('/api/templates/1/versions/1/offsets.nc?mode=g10&base=0,0,0&dialect=extended');
+    expect(ext.status).toBe(422);
+    expect(ext.body.error.code).toBe('turned-station');
+    const metricExt = await operator.get('/api/templates/2/versions/1/offsets.nc?dialect=extended&base=0,0,0').expect(200);
+    expect(metricExt.text).toMatch(/^%\n/);
+    expect(metricExt.text).toMatch(/\nG10 L20 P1 /);
+    expect(metricExt.text).not.toMatch(/G10 L2 /);
   });
 });
 

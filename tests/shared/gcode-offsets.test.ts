@@ -1,122 +1,163 @@
 import { describe, expect, it } from 'vitest';
 import { parseLine, parseStringSync } from 'gcode-parser';
-import { STANDARD_OFFSET_LIMIT, WORK_OFFSET_CODES, commentText, workOffsetCode, writeG10Offsets, writeG52Sequence, writeOffsetFile } from '../../shared/gcode/offsets';
+import { WORK_OFFSET_CODES, commentText, planStations, registerOf, sharedOffsetCode, writeOffsetFile, type OffsetFileRequest } from '../../shared/gcode/offsets';
+import { familyFromAlias } from '../../shared/gcode/control-families';
 import { evaluateTemplate } from '../../shared/stations/evaluate-template';
 import type { Station } from '../../shared/schemas/template';
-import { ALL_STOPS, content } from './station-fixtures';
+import { content } from './station-fixtures';
 
 type Parsed = { line: string; words: Array<[string, number]>; comments?: string[] };
-const source = { templateName: 'Rail set (east)', version: 3, contentHash: 'sha256:0f1e2d' };
+const source = { templateName: 'Rail set (east)', version: 3, state: 'released', contentHash: 'sha256:0f1e2d' };
 const station = (number: number, x: number, y: number, z = 0, c = 0): Station => ({ id: `P${number}:0`, number, placement: `P${number}`, stop: 0, x, y, z, c, nominalWidth: null });
 const word = (p: Parsed, letter: string) => p.words.find(([l]) => l === letter)?.[1];
-const blocks = (text: string, g: number) => (parseStringSync(text) as Parsed[]).filter((p) => word(p, 'G') === g);
+const codeLines = (text: string) => (parseStringSync(text) as Parsed[]).filter((p) => p.words.length);
+const blocks = (text: string, g: number) => codeLines(text).filter((p) => word(p, 'G') === g);
 
 // The hand-worked layout: rail A on hole (2,3) at 0°, rail B on hole (10,1) at 90°, shared offset on hole (6,5).
 const layout = evaluateTemplate(content({
   numbering: { order: 'by-rail' },
   placements: [
-    { id: 'A', component: 'CR-8', hole: { col: 2, row: 3 }, rotation: 0, stopsInUse: ALL_STOPS },
-    { id: 'B', component: 'CR-8', hole: { col: 10, row: 1 }, rotation: 90, stopsInUse: ALL_STOPS },
+    { id: 'A', component: 'CR-8', hole: { col: 2, row: 3 }, rotation: 0, stopsInUse: [0, 1, 2, 3] },
+    { id: 'B', component: 'CR-8', hole: { col: 10, row: 1 }, rotation: 90, stopsInUse: [0, 1] },
   ],
 }));
-const railA = layout.stations.slice(0, 8); // stations 1–8: (−7.5 + k, −3.625)
-const sharedOffsetAt = { x: -20.1234, y: -10.5, z: -3.25 }; // a probed machine position
+const railA = layout.stations.slice(0, 4); // stations 1–4: (−7.5 + k, −3.625), C 0
+const base = { x: -20.1234, y: -10.5, z: -3.25 }; // a probed machine position
+const write = (req: Partial<OffsetFileRequest> & Pick<OffsetFileRequest, 'family'>) => writeOffsetFile({ source, unit: 'in', stations: railA, ...req });
+const text = (req: Partial<OffsetFileRequest> & Pick<OffsetFileRequest, 'family'>) => {
+  const r = write(req);
+  if (!r.ok) throw new Error(r.error.message);
+  return r.text;
+};
 
-describe('G10 L2 work offsets', () => {
+describe('registers of the shared offset', () => {
   it.each([
-    // P, work offset — LinuxCNC G-code reference "G10 L2 Set Coordinate System"; NISTIR 6556
-    [1, 'G54'], [2, 'G55'], [3, 'G56'], [4, 'G57'], [5, 'G58'], [6, 'G59'], [7, 'G59.1'], [8, 'G59.2'], [9, 'G59.3'],
-  ])('P%d is %s', (p, code) => {
-    expect(workOffsetCode(p)).toBe(code);
+    // work offset, register — LinuxCNC G-code reference "G10 L2": P1–P9 are G54–G59.3; NISTIR 6556 §3.5.5
+    ['G54', 1], ['G55', 2], ['G56', 3], ['G57', 4], ['G58', 5], ['G59', 6], ['G59.1', 7], ['G59.2', 8], ['G59.3', 9],
+  ] as const)('%s is register %d', (code, p) => {
+    expect(registerOf(sharedOffsetCode(code))).toBe(p);
     expect(WORK_OFFSET_CODES[p - 1]).toBe(code);
   });
 
-  it('has no standard name past P9', () => {
-    expect(STANDARD_OFFSET_LIMIT).toBe(9); // G54..G59.3 (NISTIR 6556: P1 to P9)
-    expect(workOffsetCode(10)).toBeNull();
+  it('takes a shared offset named otherwise as G54, register 1', () => {
+    expect(sharedOffsetCode('hole (6, 5)')).toBe('G54');
+    expect(sharedOffsetCode(undefined)).toBe('G54');
+    expect(sharedOffsetCode(' g56 ')).toBe('G56');
   });
 
-  it('writes the NISTIR 6556 example: G10 L2 P1 X3.5 Y17.2 sets the G54 origin at X3.5 Y17.2', () => {
-    const r = writeG10Offsets({ mode: 'g10', source, unit: 'in', stations: [station(1, 3.5, 17.2)], sharedOffsetAt: { x: 0, y: 0, z: 0 } });
+  it('starts the stations at the register after the shared one, station k at first + k − 1', () => {
+    const r = planStations({ family: 'ngc-g10', unit: 'in', stations: railA, sharedOffsetName: 'G55', base });
     if (!r.ok) throw new Error(r.error.message);
-    const [block] = blocks(r.text, 10);
-    expect(block!.line).toBe('G10 L2 P1 X3.5000 Y17.2000 Z0.0000');
-    expect(block!.words).toEqual([['G', 10], ['L', 2], ['P', 1], ['X', 3.5], ['Y', 17.2], ['Z', 0]]); // gcode-parser, independent tokenizer
-    expect(r.text).toContain('(STATION 1 P1:0 = G54)');
+    expect(r.plan.sharedRegister).toBe(2);
+    expect(r.plan.stations.map((s) => s.register)).toEqual([3, 4, 5, 6]);
+  });
+});
+
+describe('refusals: nothing written that a control would run wrong', () => {
+  it('refuses a station register that is the shared offset\'s own', () => {
+    const r = write({ family: 'ngc-g10', base, sharedOffsetName: 'G56', first: 1 }); // stations 1–4 → P1–P4, G56 is P3
+    expect(r.ok ? null : r.error.code).toBe('register-is-shared-offset');
+    expect(r.ok ? '' : r.error.message).toMatch(/Station 3 .*register 3 \(G56\)/);
   });
 
-  it('gives each station the shared offset machine position plus its translation', () => {
-    const r = writeOffsetFile({ mode: 'g10', source, unit: 'in', stations: railA, sharedOffsetAt });
-    if (!r.ok) throw new Error(r.error.message);
-    const g10 = blocks(r.text, 10);
-    expect(g10).toHaveLength(8);
+  it('refuses more stations than nine registers hold (G54–G59.3)', () => {
+    const many = Array.from({ length: 9 }, (_, i) => station(i + 1, i, 0));
+    const r = write({ family: 'ngc-g10', base, stations: many }); // shared G54: P2..P10 would be needed
+    expect(r.ok ? null : r.error.code).toBe('too-many-stations');
+    expect(r.ok ? '' : r.error.message).toContain('register 10');
+  });
+
+  it('refuses the extended family past the shop\'s register count', () => {
+    const many = Array.from({ length: 12 }, (_, i) => station(i + 1, i, 0));
+    expect(write({ family: 'ext-l20', base, stations: many, extendedRegisters: 12 }).ok).toBe(true);
+    const r = write({ family: 'ext-l20', base, stations: many, extendedRegisters: 11 });
+    expect(r.ok ? null : r.error.code).toBe('too-many-stations');
+  });
+
+  it('refuses offset families without the machine position of the shared offset', () => {
+    for (const family of ['ngc-g10', 'ext-l20'] as const) expect(write({ family }).ok ? null : 'refused').toBe('refused');
+    for (const family of ['ngc-g52', 'shift-rotate'] as const) expect(write({ family }).ok).toBe(true);
+  });
+
+  it('refuses turned stations in families that cannot turn, naming them', () => {
+    for (const family of ['ngc-g52', 'ext-l20'] as const) {
+      const r = write({ family, base, stations: layout.stations });
+      expect(r.ok ? null : r.error.code).toBe('turned-station');
+      expect(r.ok ? '' : r.error.message).toContain('Stations 5 (C90.000), 6 (C90.000) are turned');
+    }
+    expect(write({ family: 'shift-rotate', stations: layout.stations }).ok).toBe(true);
+    expect(write({ family: 'ngc-g10', base, stations: layout.stations }).ok).toBe(true);
+  });
+
+  it('refuses repeated station numbers and an empty list', () => {
+    expect((r => r.ok ? null : r.error.code)(write({ family: 'ngc-g52', stations: [station(1, 0, 0), station(1, 1, 0)] }))).toBe('bad-station-number');
+    expect((r => r.ok ? null : r.error.code)(write({ family: 'ngc-g52', stations: [] }))).toBe('no-stations');
+  });
+});
+
+describe('ngc-g10: G10 L2 P X Y Z R', () => {
+  it('gives each station the shared offset machine position plus its translation, with every word', () => {
+    const g10 = blocks(text({ family: 'ngc-g10', base }), 10);
+    expect(g10).toHaveLength(4);
     g10.forEach((b, k) => {
       expect(word(b, 'L')).toBe(2);
-      expect(word(b, 'P')).toBe(k + 1);
+      expect(word(b, 'P')).toBe(k + 2); // shared offset G54 = P1, so station 1 is P2
       // X = −20.1234 + (−7.5 + k); Y = −10.5 + (−3.625); Z = −3.25 + 0 (hand-worked translations)
       expect(word(b, 'X')).toBeCloseTo(-20.1234 - 7.5 + k, 4);
       expect(word(b, 'Y')).toBeCloseTo(-14.125, 4);
       expect(word(b, 'Z')).toBeCloseTo(-3.25, 4);
-      expect(word(b, 'R')).toBeUndefined(); // C = 0: no rotation word
+      expect(word(b, 'R')).toBe(0); // R0 written: a G10 keeps words it is not given (LinuxCNC "G10 L2")
     });
+    expect(g10[0]!.line).toBe('G10 L2 P2 X-27.6234 Y-14.1250 Z-3.2500 R0.000');
   });
 
-  it('adds R (rotation of XY about Z, LinuxCNC G10 L2) where C is not 0', () => {
-    const r = writeG10Offsets({ mode: 'g10', source, unit: 'in', stations: layout.stations.slice(8, 9).map((s) => ({ ...s, number: 1 })), sharedOffsetAt: { x: 0, y: 0, z: 0 } });
-    if (!r.ok) throw new Error(r.error.message);
-    const [b] = blocks(r.text, 10);
-    expect(b!.line).toBe('G10 L2 P1 X7.6250 Y-7.5000 Z0.0000 R90.000'); // B:0 = (7.625, −7.5), C 90 (hand-worked)
-  });
-
-  it('refuses more than 9 stations in the standard dialect', () => {
-    const r = writeG10Offsets({ mode: 'g10', source, unit: 'in', stations: layout.stations, sharedOffsetAt });
-    expect(r.ok).toBe(false);
-    if (r.ok) return;
-    expect(r.error.code).toBe('too-many-stations');
-    expect(r.error.message).toContain('P1-P9');
-  });
-
-  it('writes P10 and above in the extended dialect, marked control-specific', () => {
-    const r = writeG10Offsets({ mode: 'g10', source, unit: 'in', stations: layout.stations, sharedOffsetAt, dialect: 'extended' });
-    if (!r.ok) throw new Error(r.error.message);
-    const lines = r.text.trimEnd().split('\n');
-    const g10 = blocks(r.text, 10);
-    expect(g10.map((b) => word(b, 'P'))).toEqual(Array.from({ length: 16 }, (_, i) => i + 1));
-    const marker = lines.findIndex((l) => l.startsWith('(P10 AND ABOVE ARE CONTROL-SPECIFIC'));
-    expect(marker).toBeGreaterThan(lines.findIndex((l) => l.startsWith('G10 L2 P9 ')));
-    expect(marker).toBeLessThan(lines.findIndex((l) => l.startsWith('G10 L2 P10 ')));
-    expect(r.text).toContain('(DIALECT: EXTENDED');
-  });
-
-  it('refuses repeated or missing station numbers', () => {
-    const r = writeG10Offsets({ mode: 'g10', source, unit: 'in', stations: [station(1, 0, 0), station(1, 1, 0)], sharedOffsetAt });
-    expect(r.ok ? null : r.error.code).toBe('bad-station-number');
+  it('writes R for a turned station', () => {
+    const b = blocks(text({ family: 'ngc-g10', base: { x: 0, y: 0, z: 0 }, stations: layout.stations }), 10)[4]!;
+    expect(b.line).toBe('G10 L2 P6 X7.6250 Y-7.5000 Z0.0000 R90.000'); // B:0 = (7.625, −7.5), C 90 (hand-worked)
   });
 });
 
-describe('file header', () => {
+describe('every file: cleared, modal, named, ended', () => {
   it.each([
-    ['in', 'G20', 'X-27.6234'], // −20.1234 − 7.5, four decimals
-    ['mm', 'G21', 'X-27.623'], // three decimals in mm
-  ] as const)('%s: names template, version, hash, unit, dialect and the caution', (unit, g, x) => {
-    const r = writeG10Offsets({ mode: 'g10', source, unit, stations: railA, sharedOffsetAt });
-    if (!r.ok) throw new Error(r.error.message);
-    const lines = r.text.trimEnd().split('\n');
-    const firstCode = lines.findIndex((l) => !l.startsWith('('));
-    const head = lines.slice(0, firstCode).join('\n');
-    expect(head).toContain('(TEMPLATE: Rail set [east])'); // parentheses would end the comment early
-    expect(head).toContain('(VERSION: 3)');
+    ['ngc-g10', ['G20 G90 G17 G40 G49 G80', 'G92.1', 'G54'], false],
+    ['ngc-g52', ['G20 G90 G17 G40 G49 G80', 'G92.1', 'G54'], false],
+    ['ext-l20', ['G20 G90 G17 G40 G49 G80', 'G52 X0 Y0 Z0', 'G54'], true],
+    ['shift-rotate', ['G20 G90 G17 G40 G49 G80', 'G69', 'G52 X0 Y0 Z0', 'G54'], true],
+  ] as const)('%s starts by clearing shifts and setting the modal state, and ends the program', (family, start, percent) => {
+    const lines = text({ family, base }).trimEnd().split('\n');
+    const code = lines.filter((l) => !l.startsWith('('));
+    expect(code.slice(percent ? 1 : 0, start.length + (percent ? 1 : 0))).toEqual(start);
+    // RS274/NGC ends a program with M2 or M30 (NISTIR 6556 §3.6.1); percent signs frame a tape file (common practice)
+    expect(code.slice(-2)).toEqual(percent ? ['M30', '%'] : [code.at(-2), 'M30']);
+    if (percent) expect(lines[0]).toBe('%');
+    else expect(lines.includes('%')).toBe(false);
+  });
+
+  it('names family, template, version and state, hash, unit, where Z0 is, and the cautions', () => {
+    const head = text({ family: 'ngc-g10', base, sharedOffsetName: 'G54' });
+    expect(head).toContain('(CONTROL FAMILY: ngc-g10');
+    expect(head).toContain('(TEMPLATE: Rail set [east])'); // a parenthesis would end the comment early
+    expect(head).toContain('(VERSION: 3 - RELEASED)');
     expect(head).toContain('(CONTENT HASH: sha256:0f1e2d)');
-    expect(head).toContain(g);
-    expect(head).toContain('(DIALECT: STANDARD');
-    expect(head).toMatch(/CAUTION: CHECK EVERY BLOCK AGAINST THE PROGRAMMING MANUAL/);
-    expect(lines[firstCode]).toBe(`${g} G90`);
-    expect(r.text).toContain(`G10 L2 P1 ${x}`);
+    expect(head).toContain('(UNIT: INCH - G20)');
+    expect(head).toMatch(/\(Z0: THE SHARED OFFSET Z0/);
+    expect(head).toMatch(/CAUTION: ADVICE ONLY - CHECK EVERY BLOCK AGAINST THE PROGRAMMING MANUAL/);
+    expect(head).not.toContain('NOT RELEASED');
+  });
+
+  it('marks a draft so no one mistakes it for a released file', () => {
+    const t = writeOffsetFile({ family: 'ngc-g52', source: { ...source, state: 'draft' }, unit: 'mm', stations: railA });
+    if (!t.ok) throw new Error(t.error.message);
+    expect(t.text).toContain('(VERSION: 3 - DRAFT)');
+    expect(t.text).toContain('(NOT RELEASED: THIS VERSION IS DRAFT - NOT FOR PRODUCTION)');
+    expect(t.text).toContain('G21 G90');
+    expect(t.text).toContain('G52 X-7.500 Y-3.625 Z0.000'); // three decimals in mm
   });
 
   it('keeps every comment a single, closed parenthesis comment that gcode-parser reads as one', () => {
-    const r = writeG52Sequence({ mode: 'g52', source: { ...source, templateName: 'Bad (name) ) é\nnext' }, unit: 'in', stations: railA });
-    for (const line of r.trimEnd().split('\n')) {
+    const t = writeOffsetFile({ family: 'ngc-g52', source: { ...source, templateName: 'Bad (name) ) é\nnext' }, unit: 'in', stations: railA });
+    if (!t.ok) throw new Error(t.error.message);
+    for (const line of t.text.trimEnd().split('\n')) {
       if (!line.startsWith('(')) continue;
       expect(line).toMatch(/^\([\x20-\x27\x2A-\x7E]*\)$/);
       const parsed = parseLine(line) as Parsed;
@@ -127,43 +168,34 @@ describe('file header', () => {
   });
 });
 
-describe('G52 station sequence', () => {
-  it('shifts to each station in order, leaves a place for the part program, and clears the shift', () => {
-    const text = writeG52Sequence({ mode: 'g52', source, unit: 'in', stations: layout.stations });
-    const g52 = blocks(text, 52);
-    expect(g52).toHaveLength(17); // 16 stations + the cancel
-    layout.stations.forEach((s, i) => {
-      // G52 is relative to the active (shared) work offset: the translation itself
-      expect(word(g52[i]!, 'X')).toBeCloseTo(s.x, 4);
-      expect(word(g52[i]!, 'Y')).toBeCloseTo(s.y, 4);
-      expect(word(g52[i]!, 'Z')).toBeCloseTo(s.z, 4);
-    });
-    expect(g52[0]!.line).toBe('G52 X-7.5000 Y-3.6250 Z0.0000'); // A:0 hand-worked
-    expect(g52[16]!.line).toBe('G52 X0 Y0 Z0');
-    const lines = text.trimEnd().split('\n');
-    expect(lines[lines.length - 1]).toBe('G52 X0 Y0 Z0');
-    expect(lines.filter((l) => l.includes('PART PROGRAM FOR STATION'))).toHaveLength(16);
-    // each station: a naming comment before its shift, the part-program line after it
-    const first = lines.indexOf('G52 X-7.5000 Y-3.6250 Z0.0000');
-    expect(lines[first - 1]).toBe('(STATION 1 A:0)');
-    expect(lines[first + 1]).toBe('(PART PROGRAM FOR STATION 1 GOES HERE)');
+describe('ext-l20 and shift-rotate (syntax from memory: no interpreter here implements them)', () => {
+  it('ext-l20 sets G10 L20 P1… and names the G54.1 P selection, with no rotation word', () => {
+    const t = text({ family: 'ext-l20', base });
+    const set = codeLines(t).filter((p) => word(p, 'G') === 10);
+    expect(set.map((b) => [word(b, 'L'), word(b, 'P'), word(b, 'R')])).toEqual([[20, 1, undefined], [20, 2, undefined], [20, 3, undefined], [20, 4, undefined]]);
+    expect(t).toContain('(STATION 1 A:0 = G54.1 P1)');
   });
 
-  it('flags turned stations, since G52 does not rotate', () => {
-    const text = writeG52Sequence({ mode: 'g52', source, unit: 'in', stations: layout.stations });
-    expect(text).toContain('(STATION 9 IS TURNED C90.000');
-    expect(text).not.toContain('(STATION 8 IS TURNED');
+  it('shift-rotate cancels rotation, shifts, then rotates about the station datum, R0 included', () => {
+    const lines = text({ family: 'shift-rotate', stations: layout.stations }).split('\n');
+    const at = lines.indexOf('(STATION 5 B:0 TURNED C90.000)');
+    expect(lines.slice(at + 1, at + 4)).toEqual(['G69', 'G52 X7.6250 Y-7.5000 Z0.0000', 'G68 X0 Y0 R90.000']);
+    const a0 = lines.indexOf('(STATION 1 A:0)');
+    expect(lines.slice(a0 + 1, a0 + 4)).toEqual(['G69', 'G52 X-7.5000 Y-3.6250 Z0.0000', 'G68 X0 Y0 R0.000']);
+    expect(lines.slice(-6)).toEqual(['G69', 'G52 X0 Y0 Z0', 'G54', 'M30', '%', '']);
   });
+});
 
-  it('names its dialect', () => {
-    const text = writeG52Sequence({ mode: 'g52', source, unit: 'mm', stations: railA });
-    expect(text).toContain('(DIALECT: STANDARD - G52 LOCAL OFFSET AS IN LINUXCNC)');
-    expect(text).toContain('(UNIT: MILLIMETER - G21)');
-    expect(text).toContain('G52 X-7.500 Y-3.625 Z0.000'); // three decimals in mm
-  });
-
-  it('is not limited to nine stations', () => {
-    const r = writeOffsetFile({ mode: 'g52', source, unit: 'in', stations: layout.stations });
-    expect(r.ok).toBe(true);
+describe('query aliases', () => {
+  it.each([
+    [{ mode: 'g10' }, 'ngc-g10'],
+    [{ mode: 'g52' }, 'ngc-g52'],
+    [{ mode: 'g10', dialect: 'standard' }, 'ngc-g10'],
+    [{ mode: 'g10', dialect: 'extended' }, 'ext-l20'], // never again G10 L2 above P9
+    [{ dialect: 'shift-rotate' }, 'shift-rotate'],
+    [{ family: 'ngc-g52', mode: 'g10' }, 'ngc-g52'],
+    [{}, undefined],
+  ])('%o → %s', (q, family) => {
+    expect(familyFromAlias(q)).toBe(family);
   });
 });

@@ -1,4 +1,5 @@
 import { useForm } from 'react-hook-form';
+import type { z } from 'zod';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { ShopSettingsSchema, type ShopSettings } from '../../../../shared/schemas/settings';
 import { Button } from '../../../components/ui/button';
@@ -10,7 +11,7 @@ const UNITS = [{ value: 'in', label: 'inches (in)' }, { value: 'mm', label: 'mil
 
 export function SettingsForm({ settings, readOnly }: { settings: ShopSettings; readOnly: boolean }) {
   const save = useSaveShopSettings();
-  const form = useForm<ShopSettings>({ resolver: zodResolver(ShopSettingsSchema), defaultValues: settings });
+  const form = useForm<z.input<typeof ShopSettingsSchema>, unknown, ShopSettings>({ resolver: zodResolver(ShopSettingsSchema), defaultValues: settings });
   const e = form.formState.errors;
   const num = { valueAsNumber: true } as const;
   return (
@@ -20,6 +21,7 @@ export function SettingsForm({ settings, readOnly }: { settings: ShopSettings; r
         <SelectField label="Default unit" options={UNITS} error={e.defaultUnit?.message} {...form.register('defaultUnit')} />
         <TextField label="Station probe-check tolerance" unit="in" type="number" step="any" error={e.probeToleranceIn?.message} {...form.register('probeToleranceIn', num)} />
         <TextField label="Station probe-check tolerance" unit="mm" type="number" step="any" error={e.probeToleranceMm?.message} {...form.register('probeToleranceMm', num)} />
+        <TextField label="Extended work offsets on the shop's controls (G54.1 P1 …)" type="number" step="1" inputMode="numeric" error={e.extendedOffsetRegisters?.message} {...form.register('extendedOffsetRegisters', num)} />
       </fieldset>
       <div className="sm:col-span-2 flex flex-col gap-2">
         <ErrorText error={save.error} />

@@ -1,18 +1,52 @@
 import { useState } from 'react';
 import { Download } from 'lucide-react';
 import type { TemplateVersion } from '../../../../shared/schemas/template-api';
+import { CONTROL_FAMILIES, FAMILIES, type ControlFamily } from '../../../../shared/gcode/control-families';
 import { inputClass } from '../../../components/ui/field';
+import { Button } from '../../../components/ui/button';
+import { ErrorText } from '../../../components/ui/notice';
+import { downloadFile } from '../../../lib/api-client';
 import { versionFileUrl } from '../api';
 
 const linkClass = 'inline-flex min-h-10 items-center gap-2 rounded border border-slate-400 bg-white px-3 font-semibold text-slate-900 hover:bg-slate-100';
 
+/** What each family is called on the screen: the words a programmer looks for in the control's manual. */
+const FAMILY_LABELS: Record<ControlFamily, string> = {
+  'ngc-g10': 'ngc-g10 — G10 L2 P1–P9 with R (RS274/NGC, LinuxCNC)',
+  'ngc-g52': 'ngc-g52 — G52 shift per station (RS274/NGC, LinuxCNC)',
+  'ext-l20': 'ext-l20 — G10 L20 / G54.1 P extended offsets',
+  'shift-rotate': 'shift-rotate — G52 shift with G68 rotation',
+};
+
+const threeNumbers = /^\s*-?\d+(\.\d+)?\s*,\s*-?\d+(\.\d+)?\s*,\s*-?\d+(\.\d+)?\s*$/;
+
 /** The files a programmer takes to CAM and to the control; each carries the version's content hash. */
 export function Downloads({ templateId, version, dirty }: { templateId: number; version: TemplateVersion; dirty: boolean }) {
+  const [family, setFamily] = useState<ControlFamily | ''>('');
   const [base, setBase] = useState('');
-  const [mode, setMode] = useState<'g10' | 'g52'>('g52');
+  const [first, setFirst] = useState('');
+  const [error, setError] = useState<unknown>(null);
+  const [busy, setBusy] = useState(false);
   const n = version.version;
-  const offsets = `${versionFileUrl(templateId, n, 'offsets.nc')}?mode=${mode}${mode === 'g10' ? `&base=${encodeURIComponent(base)}&dialect=${version.stations.length > 9 ? 'extended' : 'standard'}` : ''}`;
-  const baseOk = /^\s*-?\d+(\.\d+)?\s*,\s*-?\d+(\.\d+)?\s*,\s*-?\d+(\.\d+)?\s*$/.test(base);
+  const rules = family ? FAMILIES[family] : null;
+  const baseOk = threeNumbers.test(base);
+  const ready = !!family && (!rules?.setsOffsets || baseOk);
+  const query = new URLSearchParams({ family });
+  if (rules?.setsOffsets) query.set('base', base.replace(/\s+/g, ''));
+  if (rules?.registers !== 'none' && first.trim()) query.set('first', first.trim());
+
+  async function download() {
+    setError(null);
+    setBusy(true);
+    try {
+      await downloadFile(`${versionFileUrl(templateId, n, 'offsets.nc')}?${query}`, `offsets-${family}.nc`);
+    } catch (e) {
+      setError(e);
+    } finally {
+      setBusy(false);
+    }
+  }
+
   return (
     <section className="flex flex-col gap-3 rounded border border-slate-300 bg-white p-4" aria-labelledby="downloads-title">
       <h2 id="downloads-title" className="text-lg font-semibold">Files of version {n}</h2>
@@ -23,21 +57,29 @@ export function Downloads({ templateId, version, dirty }: { templateId: number; 
         <a className={linkClass} href={versionFileUrl(templateId, n, 'template.json')} download><Download aria-hidden className="h-4 w-4" />template.json</a>
       </div>
       <fieldset className="flex flex-wrap items-end gap-3">
-        <legend className="mb-1 text-sm font-semibold text-slate-700">G-code offsets</legend>
-        <label className="flex flex-col text-sm font-semibold text-slate-700">Mode
-          <select className={`${inputClass} w-64`} value={mode} onChange={(e) => setMode(e.target.value as 'g10' | 'g52')}>
-            <option value="g52">G52 local shift per station</option>
-            <option value="g10">G10 L2, one work offset per station</option>
+        <legend className="mb-1 text-sm font-semibold text-slate-700">G-code offsets for your control</legend>
+        <label className="flex flex-col text-sm font-semibold text-slate-700">Control family
+          <select className={`${inputClass} w-80 max-w-full`} value={family} onChange={(e) => { setFamily(e.target.value as ControlFamily | ''); setError(null); }}>
+            <option value="">Choose the family your control reads…</option>
+            {CONTROL_FAMILIES.map((f) => <option key={f} value={f}>{FAMILY_LABELS[f]}</option>)}
           </select>
         </label>
-        {mode === 'g10' ? (
+        {rules?.setsOffsets ? (
           <label className="flex flex-col text-sm font-semibold text-slate-700">Machine position of the shared offset (x,y,z in {version.unit})
-            <input className={`${inputClass} num w-72 text-left`} placeholder="-20.5,-12.25,-14.0" value={base} onChange={(e) => setBase(e.target.value)} />
+            <input className={`${inputClass} num w-72 max-w-full text-left`} placeholder="-20.5,-12.25,-14.0" value={base} onChange={(e) => setBase(e.target.value)} />
           </label>
         ) : null}
-        {mode === 'g52' || baseOk ? <a className={linkClass} href={offsets} download><Download aria-hidden className="h-4 w-4" />offsets.nc</a> : <span className="text-slate-600">Enter x,y,z to write G10 blocks.</span>}
+        {rules && rules.registers !== 'none' ? (
+          <label className="flex flex-col text-sm font-semibold text-slate-700">Register of station 1 (optional)
+            <input className={`${inputClass} num w-40 text-left`} inputMode="numeric" placeholder={rules.registers === 'standard' ? 'after the shared' : '1'} value={first} onChange={(e) => setFirst(e.target.value)} />
+          </label>
+        ) : null}
+        <Button type="button" variant="secondary" disabled={!ready || busy} onClick={download}><Download aria-hidden className="h-4 w-4" />offsets.nc</Button>
       </fieldset>
-      <p className="text-sm text-slate-600">Check every offset file against your control's programming manual before running it. Content hash <span className="font-mono">{version.contentHash.slice(0, 16)}…</span></p>
+      {family && rules?.setsOffsets && !baseOk ? <p className="text-sm text-slate-600">Enter x,y,z: the machine position of the shared offset, entered or probed once.</p> : null}
+      {rules ? <p className="text-sm text-slate-700">{rules.note.charAt(0) + rules.note.slice(1).toLowerCase()}.</p> : null}
+      <ErrorText error={error} />
+      <p className="text-sm text-slate-600">Advice only: check every block against your control's programming manual and prove the file out without stock. Content hash <span className="font-mono">{version.contentHash.slice(0, 16)}…</span></p>
     </section>
   );
 }
