@@ -2,6 +2,7 @@ import { createHash } from 'node:crypto';
 import { ComponentInputSchema, PlateInputSchema, type Plate, type Component, type PlateFields } from '../../shared/schemas/catalog';
 import type { User } from '../../shared/schemas/auth';
 import type { PlateRef, TemplateComponent, TemplateContent } from '../../shared/schemas/template';
+import { blocksSaving } from '../../shared/schemas/template';
 import type { CreateTemplateInput, SaveVersionInput, TemplateSummary, TemplateVersion, VersionState } from '../../shared/schemas/template-api';
 import { canonicalJson } from '../../shared/interchange/canonical-json';
 import { layoutForHash, TEMPLATE_FORMAT, TEMPLATE_FORMAT_VERSION } from '../../shared/interchange/template-file';
@@ -87,10 +88,11 @@ export function templatesService(deps: { db: Db; templates: TemplatesRepo; catal
       placements: body.placements, sharedOffset: body.sharedOffset, numbering: body.numbering ?? { order: 'row-by-row' },
     };
     const evaluation = evaluateTemplate(content);
-    if (evaluation.problems.length) {
-      const first = evaluation.problems[0]!;
-      const more = evaluation.problems.length > 1 ? ` (and ${evaluation.problems.length - 1} more problem${evaluation.problems.length > 2 ? 's' : ''})` : '';
-      throw new HttpError(400, 'layout-problems', `The layout cannot be saved: ${first.message}${more}`, { problems: evaluation.problems });
+    const blocking = evaluation.problems.filter(blocksSaving);
+    if (blocking.length) {
+      const first = blocking[0]!;
+      const more = blocking.length > 1 ? ` (and ${blocking.length - 1} more problem${blocking.length > 2 ? 's' : ''})` : '';
+      throw new HttpError(400, 'layout-problems', `The layout cannot be saved: ${first.message}${more}`, { problems: blocking });
     }
     const componentIds = components.map((c) => catalogByCode.get(c.code)?.id).filter((id): id is number => id !== undefined);
     return { content, evaluation, componentIds };

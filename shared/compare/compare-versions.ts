@@ -82,7 +82,8 @@ export function compareVersions(from: TemplateContent, to: TemplateContent, opti
     placements: placementDiff(from, to, unit, differs),
     stations: stationDiff(evFrom.stations.map((s) => inUnit(s, from.unit, unit)), evTo.stations, differs),
     sharedOffset: sharedOffsetDiff(from, to, evFrom.origin, evTo.origin, len, differs),
-    problems: keyedDifference<Problem>(evFrom.problems, evTo.problems, (p) => JSON.stringify([p.code, p.placement ?? '', p.message])),
+    // A station's problem is the same problem when only its number (and so its message) changed.
+    problems: keyedDifference<Problem>(evFrom.problems, evTo.problems, (p) => JSON.stringify([p.code, p.placement ?? '', p.station ?? p.message])),
     naming: keyedDifference<NamingFinding>(options.namingProblems?.(from) ?? [], options.namingProblems?.(to) ?? [], (f) => f.key),
   };
   return { ...body, summary: summaryText(body) };

@@ -74,6 +74,35 @@ export function overlappingBoxPairs(boxes: readonly Box[], slack = 0, maxPairs =
   return pairs;
 }
 
+/**
+ * A uniform grid of cells about one box across over a fixed set of boxes, for asking which of them
+ * a small query box meets: the look-up costs the cells the query covers, not a scan of every box.
+ */
+export function createBoxIndex(boxes: readonly Box[]): (query: Box, slack?: number) => number[] {
+  let sum = 0;
+  for (const b of boxes) sum += Math.max(b.maxX - b.minX, b.maxY - b.minY);
+  const cell = sum / Math.max(1, boxes.length) || 1;
+  const cells = new Map<string, number[]>();
+  boxes.forEach((b, i) => {
+    // A box spanning very many cells (a hostile size) is kept in one overflow list instead.
+    const span = (Math.floor(b.maxX / cell) - Math.floor(b.minX / cell) + 1) * (Math.floor(b.maxY / cell) - Math.floor(b.minY / cell) + 1);
+    if (span > 4096) { (cells.get('*') ?? cells.set('*', []).get('*')!).push(i); return; }
+    for (let cx = Math.floor(b.minX / cell); cx <= Math.floor(b.maxX / cell); cx++) {
+      for (let cy = Math.floor(b.minY / cell); cy <= Math.floor(b.maxY / cell); cy++) {
+        const key = `${cx},${cy}`;
+        (cells.get(key) ?? cells.set(key, []).get(key)!).push(i);
+      }
+    }
+  });
+  return (q, slack = 0) => {
+    const found = new Set<number>(cells.get('*') ?? []);
+    const x0 = Math.floor(q.minX / cell), x1 = Math.floor(q.maxX / cell), y0 = Math.floor(q.minY / cell), y1 = Math.floor(q.maxY / cell);
+    if ((x1 - x0 + 1) * (y1 - y0 + 1) > 4096) return boxes.map((_, i) => i).filter((i) => boxesOverlap(boxes[i]!, q, slack));
+    for (let cx = x0; cx <= x1; cx++) for (let cy = y0; cy <= y1; cy++) for (const i of cells.get(`${cx},${cy}`) ?? []) found.add(i);
+    return [...found].filter((i) => boxesOverlap(boxes[i]!, q, slack));
+  };
+}
+
 /** True when the boxes share more than a boundary strip `slack` wide. */
 export function boxesOverlap(a: Box, b: Box, slack = 0): boolean {
   return a.minX < b.maxX - slack && b.minX < a.maxX - slack && a.minY < b.maxY - slack && b.minY < a.maxY - slack;

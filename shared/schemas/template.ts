@@ -133,8 +133,20 @@ export const PROBLEM_CODES = [
   'shared-offset-off-plate',
   'numbering-unknown-station',
   'numbering-duplicate-station',
+  'no-stations',
+  'no-facing-clamp',
+  'jaw-rail-faces-nothing',
+  'stop-faces-away',
 ] as const;
 export const ProblemCodeSchema = z.enum(PROBLEM_CODES);
+
+/**
+ * Problems of a layout still being built — a center rail placed before its jaw rail, a draft with
+ * no stop ticked yet — block submit and release, not saving the draft. Every other problem is a
+ * placement that cannot be built at all, and blocks saving too.
+ */
+export const RELEASE_ONLY_PROBLEMS: ReadonlySet<string> = new Set(['no-stations', 'no-facing-clamp', 'jaw-rail-faces-nothing', 'stop-faces-away']);
+export const blocksSaving = (p: { code: string }) => !RELEASE_ONLY_PROBLEMS.has(p.code);
 export type ProblemCode = z.infer<typeof ProblemCodeSchema>;
 
 /** A reason a template cannot be released as laid out; the message names what and where. */

@@ -4,9 +4,11 @@ import { GRID_TOLERANCE, convert, formatLength } from '../units/units';
 import { applyTransform, cosSinDeg, isGridRotation, normalizeDegrees, placementTransform, type RigidTransform } from '../geometry/transform';
 import { componentGeometryIn, type ComponentGeometry } from '../geometry/component-geometry';
 import { LIMITS } from '../schemas/limits';
-import { boxOfPoints, footprintsOverlap, overlappingBoxPairs, outlineBounds, outlineFootprint, type Box, type Polygon } from '../geometry/outline';
+import { boxOfPoints, createBoxIndex, footprintsOverlap, overlappingBoxPairs, outlineBounds, outlineFootprint, type Box, type Polygon } from '../geometry/outline';
+import { CLAMPED_KINDS, clampPath, holdingProblems, stopFacesOut, type FacedJaw } from './holding-checks';
 import { orderStations } from './numbering';
-import { createClampFinder, type ClampFace, type ClampMatch, type FixedFace } from './nominal-width';
+import { pairingTable } from './pairing-table';
+import { createClampFinder, lateralSpan, type ClampFace, type ClampMatch, type FixedFace } from './nominal-width';
 
 export interface EvaluateOptions {
   /** How far a dowel may sit from a hole center, in the plate's unit. GRID_TOLERANCE of the plate's unit by default. */
@@ -43,6 +45,8 @@ interface PreparedComponent {
   footprint: Polygon[] | null;
   /** Local extent: the outline's exact bounds, or the box of dowels, stops and jaw faces. */
   extent: Box;
+  /** How far below its opening the clamp closes (plate unit); null for a jaw rail with no clamp model. */
+  clampCloses: number | null;
 }
 
 interface Placed {
@@ -56,6 +60,8 @@ interface Placed {
 interface Draft {
   id: string;
   placement: Placed;
+  placementId: string;
+  componentCode: string;
   stop: number;
   /** Translation, template unit. */
   x: number;
@@ -67,6 +73,14 @@ interface Draft {
   /** Index of the fixed jaw face the stop sits against, when there is one. */
   face: number;
   match: ClampMatch | null;
+  /** On a rail held by clamps, with a fixed face to hold against. */
+  clamped: boolean;
+  /** The placement whose outline lies between the fixed face and the nearest facing clamp. */
+  blockedBy?: string;
+  /** False when the stop's angle does not face out of its jaw face. */
+  facesOut: boolean;
+  stopAngle: number;
+  faceNormal: number | null;
 }
 
 const holeText = (h: Hole) => `hole (${h.col}, ${h.row})`;
@@ -82,6 +96,7 @@ function prepare(component: TemplateComponent, unit: Unit, chordTolerance: numbe
     geometry,
     footprint: footprint.length ? footprint : null,
     extent: geometry.outline && (geometry.outline.paths.length || geometry.outline.circles.length) ? outlineBounds(geometry.outline) : boxOfPoints(features),
+    clampCloses: component.clamp ? convert(component.clamp.acceptBelow, component.unit, unit) : null,
   };
 }
 
@@ -269,9 +284,12 @@ export function evaluateTemplate(content: TemplateContent, options: EvaluateOpti
     });
   }
   const findClamp = createClampFinder(clamps, pitch, slack);
+  const clampsOf = new Map<string, ClampFace[]>();
+  for (const c of clamps) (clampsOf.get(c.placement) ?? clampsOf.set(c.placement, []).get(c.placement)!).push(c);
 
   // ---- stations ----
   const drafts: Draft[] = [];
+  const facedJaws: FacedJaw[] = [];
   for (const p of placed) {
     const { placement, component, transform: t } = p;
     const stops = component.geometry.stops;
@@ -279,6 +297,7 @@ export function evaluateTemplate(content: TemplateContent, options: EvaluateOpti
     const fixedFaces: Array<FixedFace | undefined> = FIXED_KINDS.has(component.kind)
       ? component.geometry.jawFaces.map((f) => ({ ...applyTransform(t, f), normal: normalizeDegrees(f.normal + t.degrees) }))
       : [];
+    for (const f of fixedFaces) if (f) facedJaws.push({ ...f, extent: p.extent });
     // Stop index order, i.e. along the rail, whatever order the stops were ticked in.
     for (const stopIndex of [...placement.stopsInUse].sort((a, b) => a - b)) {
       const stop = Number.isInteger(stopIndex) ? stops[stopIndex] : undefined;
@@ -286,13 +305,13 @@ export function evaluateTemplate(content: TemplateContent, options: EvaluateOpti
         problems.push({
           code: 'stop-out-of-range', placement: placement.id, stop: stopIndex,
           message: stops.length
-            ? `${who(placement)} uses stop index ${stopIndex}, but ${component.code} has ${stops.length} stop${stops.length === 1 ? '' : 's'} (indexes 0–${stops.length - 1}).`
-            : `${who(placement)} uses stop index ${stopIndex}, but ${component.code} has no stops.`,
+            ? `${who(placement)} uses stop ${stopIndex + 1}, but ${component.code} has ${stops.length} stop${stops.length === 1 ? '' : 's'} (1–${stops.length}).`
+            : `${who(placement)} uses stop ${stopIndex + 1}, but ${component.code} has no stops.`,
         });
         continue;
       }
       if (used.has(stopIndex)) {
-        problems.push({ code: 'duplicate-stop', placement: placement.id, stop: stopIndex, message: `${who(placement)} lists stop index ${stopIndex} more than once; it makes one station.` });
+        problems.push({ code: 'duplicate-stop', placement: placement.id, stop: stopIndex, message: `${who(placement)} lists stop ${stopIndex + 1} more than once; it makes one station.` });
         continue;
       }
       used.add(stopIndex);
@@ -301,9 +320,12 @@ export function evaluateTemplate(content: TemplateContent, options: EvaluateOpti
       const dy = t.ty + t.sin * stop.x + t.cos * stop.y;
       const face = stop.face ?? 0;
       const fixed = fixedFaces[face];
+      const localFace = FIXED_KINDS.has(component.kind) ? component.geometry.jawFaces[face] : undefined;
       drafts.push({
         id: `${placement.id}:${stopIndex}`,
         placement: p,
+        placementId: placement.id,
+        componentCode: component.code,
         stop: stopIndex,
         x: convert(dx - origin.x, pu, tu),
         y: convert(dy - origin.y, pu, tu),
@@ -312,12 +334,64 @@ export function evaluateTemplate(content: TemplateContent, options: EvaluateOpti
         sequence: drafts.length,
         face,
         match: fixed ? findClamp(fixed, dx, dy) : null,
+        clamped: CLAMPED_KINDS.has(component.kind) && !!fixed,
+        facesOut: localFace ? stopFacesOut(stop.angle ?? 0, localFace.normal) : true,
+        stopAngle: stop.angle ?? 0,
+        faceNormal: localFace?.normal ?? null,
       });
+    }
+  }
+
+  // ---- nothing between a fixed jaw and its clamp: the search stops at any outline in between ----
+  // Checked once per fixed face and clamp face over all their stops, then station by station only where that strip is blocked.
+  const byId = new Map(placed.map((p) => [p.placement.id, p]));
+  const solidIndex = createBoxIndex(solid.map((p) => p.extent));
+  let pathBudget = LIMITS.overlapEdgeTests;
+  const blocker = (group: readonly Draft[]): string | null => {
+    const d = group[0]!;
+    const fixedFace = d.placement.component.geometry.jawFaces[d.face]!;
+    const normal = normalizeDegrees(fixedFace.normal + d.placement.transform.degrees);
+    const stops = group.map((g) => ({ x: convert(g.x, tu, pu) + origin.x, y: convert(g.y, tu, pu) + origin.y }));
+    const path = clampPath(stops, normal, d.match!.width, pitch);
+    for (const i of solidIndex(boxOfPoints(path), slack)) {
+      const other = solid[i]!;
+      if (other === d.placement || other === byId.get(d.match!.clamp.placement)) continue;
+      pathBudget -= 4 * other.component.footprint!.reduce((n, poly) => n + poly.length, 0);
+      // Past the budget an unchecked path counts as blocked: the safe side.
+      if (pathBudget < 0 || footprintsOverlap([path], footprintOf(other), slack)) return other.placement.id;
+    }
+    return null;
+  };
+  // Grouped by clamp face (one object per face), then by the fixed placement and face it holds against.
+  const byClamp = new Map<ClampFace, Draft[][]>();
+  for (const d of drafts) {
+    if (!d.match) continue;
+    const groups = byClamp.get(d.match.clamp) ?? byClamp.set(d.match.clamp, []).get(d.match.clamp)!;
+    const group = groups.find((g) => g[0]!.placement === d.placement && g[0]!.face === d.face);
+    if (group) group.push(d);
+    else groups.push([d]);
+  }
+  for (const group of [...byClamp.values()].flat()) {
+    if (!blocker(group)) continue;
+    for (const d of group) {
+      const b = blocker([d]);
+      if (b) {
+        d.blockedBy = b;
+        d.match = null;
+      }
     }
   }
 
   const { ordered, problems: numberingProblems } = orderStations(drafts, content.numbering ?? { order: 'row-by-row' }, rowTolerance);
   problems.push(...numberingProblems);
+  problems.push(...holdingProblems(
+    ordered,
+    placed.filter((p) => p.component.kind === 'jaw-rail').map((p) => ({
+      placement: p.placement, component: p.component.code, clampCloses: p.component.clampCloses,
+      faces: clampsOf.get(p.placement.id) ?? [],
+    })),
+    facedJaws, slack, pu,
+  ));
 
   const stations: Station[] = ordered.map((d, i) => ({
     id: d.id,
@@ -338,43 +412,4 @@ export function evaluateTemplate(content: TemplateContent, options: EvaluateOpti
     origin: { x: convert(origin.x, pu, tu), y: convert(origin.y, pu, tu), z: convert(origin.z, pu, tu) },
     notOverlapChecked,
   };
-}
-
-/** Extent of points along the tangent (−sin, cos) of a face whose normal points at `normalDeg`. */
-function lateralSpan(points: readonly Point[], normalDeg: number): { min: number; max: number } {
-  const { cos, sin } = cosSinDeg(normalDeg);
-  let min = Infinity;
-  let max = -Infinity;
-  for (const v of points) {
-    const t = -sin * v.x + cos * v.y;
-    if (t < min) min = t;
-    if (t > max) max = t;
-  }
-  return { min, max };
-}
-
-function pairingTable(ordered: readonly Draft[], tu: Unit, pu: Unit): Pairing[] {
-  const rows = new Map<string, Pairing>();
-  for (const d of ordered) {
-    if (!d.match) continue;
-    const { clamp } = d.match;
-    const key = `${d.placement.placement.id}\u0000${d.face}\u0000${clamp.placement}\u0000${clamp.face}`;
-    let row = rows.get(key);
-    if (!row) {
-      row = {
-        fixedPlacement: d.placement.placement.id,
-        fixedComponent: d.placement.component.code,
-        fixedFace: d.face,
-        jawPlacement: clamp.placement,
-        jawComponent: clamp.component,
-        jawFace: clamp.face,
-        jawHole: clamp.hole,
-        width: convert(d.match.width, pu, tu),
-        stations: [],
-      };
-      rows.set(key, row);
-    }
-    row.stations.push(d.id);
-  }
-  return [...rows.values()];
 }

@@ -97,3 +97,16 @@ export function createClampFinder(clamps: readonly ClampFace[], bandWidth: numbe
     return null;
   };
 }
+
+/** Extent of points along the tangent (−sin, cos) of a face whose normal points at `normalDeg`: a rail's reach along a face. */
+export function lateralSpan(points: readonly { x: number; y: number }[], normalDeg: number): { min: number; max: number } {
+  const { cos, sin } = cosSinDeg(normalDeg);
+  let min = Infinity;
+  let max = -Infinity;
+  for (const v of points) {
+    const t = -sin * v.x + cos * v.y;
+    if (t < min) min = t;
+    if (t > max) max = t;
+  }
+  return { min, max };
+}

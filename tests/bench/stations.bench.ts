@@ -31,7 +31,10 @@ export async function run() {
   console.log(`evaluateTemplate: ${big.placements.length} placements, ${stations} stations: median ${engine.toFixed(1)} ms (target < 50 ms); bare transforms ${bare.toFixed(2)} ms; ratio ${(engine / bare).toFixed(1)}×`);
 
   const { db, base, server, headers } = await realServer();
-  const content = railBandsWithStations(4, 500);
+  // Imported components meet the shop's naming convention (demo: JR-{width} with 3 decimals).
+  const raw = railBandsWithStations(4, 500);
+  const rename = (code: string) => (code === 'JR-16' ? 'JR-1.250' : code);
+  const content = { ...raw, components: raw.components.map((c) => ({ ...c, code: rename(c.code) })), placements: raw.placements.map((p) => ({ ...p, component: rename(p.component) })) };
   const service = templatesService({ db, templates: templatesRepo(db), catalog: catalogRepo(db), naming: namingService(namingRepo(db)), audit: auditRepo(db) });
   const lead = (await usersRepo(db).findWithHashByEmail('lead@gridset.test'))!;
   const { id } = await service.importFile(lead, { ...content, name: 'Bench 500' });

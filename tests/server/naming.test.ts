@@ -53,7 +53,10 @@ describe('release and the naming convention', () => {
     const id = created.body.id;
     await programmer.put(`/api/templates/${id}/versions/1`, {
       revision: 1, sharedOffset: { kind: 'center' }, numbering: { order: 'row-by-row' },
-      placements: [{ id: 'P1', component: 'CR-8', hole: { col: 1, row: 1 }, rotation: 0, stopsInUse: [0] }],
+      placements: [
+        { id: 'P1', component: 'CR-8', hole: { col: 1, row: 1 }, rotation: 0, stopsInUse: [0] },
+        { id: 'J1', component: 'JR-1.000', hole: { col: 1, row: 2 }, rotation: 0, stopsInUse: [] },
+      ],
     }).expect(200);
     // The lead tightens the convention after the fact: center rails are now "CRS-…".
     const { version: _v, ...rules } = DEMO_CONVENTION;

@@ -36,6 +36,9 @@ const handWorked = {
   placements: [
     { id: 'P1', component: 'CR-8', hole: { col: 2, row: 3 }, rotation: 0, stopsInUse: [0, 1, 2, 3, 4, 5, 6, 7] },
     { id: 'P2', component: 'CR-8', hole: { col: 10, row: 1 }, rotation: 90, stopsInUse: [0, 1, 2, 3, 4, 5, 6, 7] },
+    // Each rail's jaw rail one row (column) out in front of its jaw: faces 1.000 in apart.
+    { id: 'J1', component: 'JR-1.000', hole: { col: 2, row: 4 }, rotation: 0, stopsInUse: [] },
+    { id: 'J2', component: 'JR-1.000', hole: { col: 9, row: 1 }, rotation: 90, stopsInUse: [] },
   ],
   sharedOffset: { kind: 'hole', hole: { col: 6, row: 5 }, name: 'G54' },
   numbering: { order: 'by-rail' },
@@ -68,7 +71,7 @@ describe('templates and versions', () => {
       expect(b.c).toBe(90);
     }
     // The version carries its own copy of CR-8 and links it for the catalog's "used by".
-    expect(saved.body.components.map((c: { code: string }) => c.code)).toEqual(['CR-8']);
+    expect(saved.body.components.map((c: { code: string }) => c.code)).toEqual(['CR-8', 'JR-1.000']);
     expect((await operator.get('/api/components?q=CR-8')).body.items.find((c: { code: string }) => c.code === 'CR-8').usedBy).toBeGreaterThan(0);
   });
 
@@ -78,8 +81,8 @@ describe('templates and versions', () => {
     const stale = await lead.put(`/api/templates/${id}/versions/1`, { ...handWorked, placements: handWorked.placements.slice(0, 1), revision: 1 });
     expect(stale.status).toBe(409);
     expect(stale.body.error.code).toBe('stale-revision');
-    expect(stale.body.error.details.current.placements).toHaveLength(2);
-    expect((await operator.get(`/api/templates/${id}/versions/1`)).body.placements).toHaveLength(2);
+    expect(stale.body.error.details.current.placements).toHaveLength(4);
+    expect((await operator.get(`/api/templates/${id}/versions/1`)).body.placements).toHaveLength(4);
   });
 
   it('refuses layouts that cannot be built with 400 naming what to change, and saves nothing', async () => {
@@ -127,6 +130,34 @@ describe('templates and versions', () => {
     expect(put.body.error.message).toMatch(/released versions never change/);
     const next = await programmer.post(`/api/templates/${id}/versions`, { from: 1 }).expect(201);
     expect(next.body).toMatchObject({ version: 2, state: 'draft', contentHash: rel.body.contentHash });
+  });
+});
+
+describe('a layout that does not hold its parts', () => {
+  it('saves as a draft, but submit and release refuse it with the problems, changing nothing', async () => {
+    const id = await newDraft('Rail without its jaw');
+    // CR-8 alone on hole (2, 3): no jaw rail faces its jaw, so no station is held.
+    const saved = await programmer.put(`/api/templates/${id}/versions/1`, { ...handWorked, placements: [handWorked.placements[0]], revision: 1 }).expect(200);
+    expect(saved.body.problems.map((p: { code: string }) => p.code)).toEqual(Array(8).fill('no-facing-clamp'));
+    expect(saved.body.problems[0].message).toBe('Station 1 (placement P1, stop 1) has no jaw-rail clamp facing its fixed jaw; place a jaw rail facing it, or take the stop out of use.');
+    const tables = ['template_versions', 'version_reviews', 'audit', 'outbox'];
+    const before = await tableCounts(t.db, tables);
+    const submit = await programmer.post(`/api/templates/${id}/versions/1/submit`);
+    expect(submit.status).toBe(400);
+    expect(submit.body.error.code).toBe('layout-problems');
+    expect(submit.body.error.message).toMatch(/Station 1 \(placement P1, stop 1\) has no jaw-rail clamp/);
+    const release = await lead.post(`/api/templates/${id}/versions/1/release`);
+    expect(release.status).toBe(400);
+    expect(release.body.error.code).toBe('layout-problems');
+    expect(await tableCounts(t.db, tables)).toEqual(before);
+    expect((await operator.get(`/api/templates/${id}/versions/1`)).body.state).toBe('draft');
+  });
+
+  it('an empty draft saves, and cannot be released', async () => {
+    const id = await newDraft('Nothing yet');
+    const saved = await programmer.put(`/api/templates/${id}/versions/1`, { ...handWorked, placements: [], revision: 1 }).expect(200);
+    expect(saved.body.problems.map((p: { code: string }) => p.code)).toEqual(['no-stations']);
+    expect((await lead.post(`/api/templates/${id}/versions/1/release`)).status).toBe(400);
   });
 });
 

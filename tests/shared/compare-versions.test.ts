@@ -169,7 +169,9 @@ describe('placements and stations added and removed', () => {
       { id: 'B:1', number: 4, placement: 'B', stop: 1, x: -6.5, y: 2.375, z: 0, c: 0, nominalWidth: null },
     ]);
     expect(d.stations.removed).toEqual([]);
-    expect(d.summary).toBe('0 placements moved, 1 added, 0 removed; 0 stations changed, 2 added, 0 removed, 0 renumbered; shared offset unchanged.');
+    // No jaw rail faces B: each new station is a layout problem (no clamp holds it).
+    expect(d.problems.introduced.map((p) => [p.code, p.station])).toEqual([['no-facing-clamp', 'B:0'], ['no-facing-clamp', 'B:1']]);
+    expect(d.summary).toBe('0 placements moved, 1 added, 0 removed; 0 stations changed, 2 added, 0 removed, 0 renumbered; shared offset unchanged; 2 layout problems introduced, 0 resolved.');
   });
 
   it('a removed placement takes its stations', () => {
@@ -177,7 +179,7 @@ describe('placements and stations added and removed', () => {
     expect(ids(d.placements.removed)).toEqual(['B']);
     expect(ids(d.stations.removed)).toEqual(['B:0', 'B:1']);
     expect(d.stations.added).toEqual([]);
-    expect(d.summary).toBe('0 placements moved, 0 added, 1 removed; 0 stations changed, 0 added, 2 removed, 0 renumbered; shared offset unchanged.');
+    expect(d.summary).toBe('0 placements moved, 0 added, 1 removed; 0 stations changed, 0 added, 2 removed, 0 renumbered; shared offset unchanged; 0 layout problems introduced, 2 resolved.');
   });
 
   it('changing the stops in use adds and removes stations, by identity', () => {
@@ -189,7 +191,8 @@ describe('placements and stations added and removed', () => {
     expect(ids(d.stations.removed)).toEqual(['A:0']);
     expect(d.stations.changed).toEqual([]);
     expect(d.stations.renumbered).toEqual([{ id: 'A:1', from: 2, to: 1 }, { id: 'A:2', from: 3, to: 2 }]);
-    expect(d.summary).toBe('0 placements moved, 0 added, 0 removed; 0 stations changed, 1 added, 1 removed, 2 renumbered; shared offset unchanged; 1 placement with another component or other stops in use.');
+    // Unclamped stations are problems keyed by station, so renumbered A:1 and A:2 keep theirs: A:3's is new, A:0's gone.
+    expect(d.summary).toBe('0 placements moved, 0 added, 0 removed; 0 stations changed, 1 added, 1 removed, 2 renumbered; shared offset unchanged; 1 placement with another component or other stops in use; 1 layout problem introduced, 1 resolved.');
   });
 
   it('another component under the same placement id is reported, and its definition as added', () => {
@@ -342,16 +345,21 @@ describe('layout and naming problems', () => {
     // A at (2,3): x 3.5..12.5; B at (3,3): x 5.5..14.5, same row → overlap; B moved to row 5 clears it
     const d = compare(content({ placements: [rail('A', 2, 3, 0, []), jaw('B', 3, 3)] }), content({ placements: [rail('A', 2, 3, 0, []), jaw('B', 3, 5)] }));
     expect(d.problems.introduced).toEqual([]);
+    // On (3, 3) B's clamp face (y 5.625, facing −Y) also lies behind A's jaw (y 6.375, facing +Y): it faced nothing.
+    // On (3, 5) its face at y 9.625 looks back at A's jaw from in front.
     expect(d.problems.resolved).toEqual([{
       code: 'overlap', placement: 'B', hole: { col: 3, row: 3 }, otherPlacement: 'A',
       message: 'Placement B (JR-1) on hole (3, 3) overlaps placement A (CR-8) on hole (2, 3).',
+    }, {
+      code: 'jaw-rail-faces-nothing', placement: 'B', hole: { col: 3, row: 3 },
+      message: "Placement B (JR-1) on hole (3, 3) is a jaw rail that faces no fixed jaw, so its clamps would push on nothing; turn it to face a rail's jaw, or remove it.",
     }]);
-    expect(d.summary).toContain('; 0 layout problems introduced, 1 resolved.');
+    expect(d.summary).toContain('; 0 layout problems introduced, 2 resolved.');
   });
 
   it('an unknown stop introduced', () => {
     const d = compare(content({ placements: [rail('A', 2, 3, 0, [7])] }), content({ placements: [rail('A', 2, 3, 0, [8])] }));
-    expect(d.problems.introduced.map((p) => [p.code, p.placement])).toEqual([['stop-out-of-range', 'A']]);
+    expect(d.problems.introduced.map((p) => [p.code, p.placement])).toEqual([['stop-out-of-range', 'A'], ['no-stations', undefined]]);
     expect(ids(d.stations.removed)).toEqual(['A:7']);
   });
 

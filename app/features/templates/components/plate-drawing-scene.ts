@@ -288,6 +288,10 @@ const PROBLEM_WORDS: Record<ProblemCode, string> = {
   'shared-offset-off-plate': 'shared offset off the plate',
   'numbering-unknown-station': 'numbering names an unknown station',
   'numbering-duplicate-station': 'numbering lists a station twice',
+  'no-stations': 'no stations',
+  'no-facing-clamp': 'no clamp holds a station',
+  'jaw-rail-faces-nothing': 'faces no jaw',
+  'stop-faces-away': 'stop faces into the jaw',
 };
 
 export interface PlacementFault {

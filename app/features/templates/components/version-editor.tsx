@@ -1,7 +1,7 @@
 import { useState, type ReactNode } from 'react';
 import type { Component } from '../../../../shared/schemas/catalog';
 import type { Unit } from '../../../../shared/schemas/common';
-import type { Hole } from '../../../../shared/schemas/template';
+import { blocksSaving, type Hole } from '../../../../shared/schemas/template';
 import type { TemplateVersion } from '../../../../shared/schemas/template-api';
 import { formatLength } from '../../../../shared/units/units';
 import { Button } from '../../../components/ui/button';
@@ -42,6 +42,9 @@ export function VersionEditor({ templateId, version, catalog, displayUnit, canEd
   const conflict = save.error instanceof ApiError && save.error.code === 'stale-revision' ? (save.error.details as { current: TemplateVersion }).current : null;
   const onSave = (revision = version.revision) =>
     save.mutate({ revision, placements: layout.draft.placements, sharedOffset: layout.draft.sharedOffset, numbering: layout.draft.numbering, components: version.components });
+  // Placement problems stop a save; a layout still being built (no jaw rail yet) saves, and only submit and release wait.
+  const blocking = evaluation.problems.filter(blocksSaving);
+  const unheld = evaluation.problems.filter((p) => !blocksSaving(p));
   const widths = [...new Set(evaluation.stations.map((s) => s.nominalWidth).filter((w): w is number => w !== null))];
 
   return (
@@ -49,9 +52,9 @@ export function VersionEditor({ templateId, version, catalog, displayUnit, canEd
       {reviewSlot?.({ dirty: layout.dirty })}
       {editable ? (
         <div className="sticky top-0 z-10 flex flex-wrap items-center gap-3 rounded border border-slate-300 bg-white p-3">
-          <Button onClick={() => onSave()} disabled={!layout.dirty || save.isPending || evaluation.problems.length > 0}>{save.isPending ? 'Saving…' : 'Save draft'}</Button>
+          <Button onClick={() => onSave()} disabled={!layout.dirty || save.isPending || blocking.length > 0}>{save.isPending ? 'Saving…' : 'Save draft'}</Button>
           <span className={layout.dirty ? 'font-semibold text-warning-700' : 'text-slate-600'}>{layout.dirty ? 'Unsaved changes' : `Saved · revision ${version.revision}`}</span>
-          {evaluation.problems.length > 0 ? <span className="text-danger-700">Fix the {evaluation.problems.length} problem{evaluation.problems.length > 1 ? 's' : ''} below to save.</span> : null}
+          {blocking.length > 0 ? <span className="text-danger-700">Fix the {blocking.length} placement problem{blocking.length > 1 ? 's' : ''} below to save.</span> : null}
         </div>
       ) : (
         <Notice tone="info" title={version.state === 'draft' ? 'Read only: your role does not edit templates.' : `Version ${version.version} is ${version.state}; it never changes.`}>
@@ -67,9 +70,14 @@ export function VersionEditor({ templateId, version, catalog, displayUnit, canEd
           </div>
         </Notice>
       ) : <ErrorText error={save.error} />}
-      {evaluation.problems.length ? (
-        <Notice tone="danger" title={`This layout cannot be built as it stands (${evaluation.problems.length} problem${evaluation.problems.length > 1 ? 's' : ''})`}>
-          <ul className="list-disc pl-5">{evaluation.problems.slice(0, 12).map((p, i) => <li key={i}>{p.message}</li>)}</ul>
+      {blocking.length ? (
+        <Notice tone="danger" title={`This layout cannot be built as it stands (${blocking.length} problem${blocking.length > 1 ? 's' : ''})`}>
+          <ul className="list-disc pl-5">{blocking.slice(0, 12).map((p, i) => <li key={i}>{p.message}</li>)}</ul>
+        </Notice>
+      ) : null}
+      {unheld.length ? (
+        <Notice tone="warning" title={`Not every part is held yet (${unheld.length} problem${unheld.length > 1 ? 's' : ''}): the draft saves, but cannot be submitted or released until these are fixed`}>
+          <ul className="list-disc pl-5">{unheld.slice(0, 12).map((p, i) => <li key={i}>{p.message}</li>)}</ul>
         </Notice>
       ) : null}
 
