@@ -26,13 +26,14 @@ const COMPONENT_JSON = `json_object(
   'id', c.id, 'code', c.code, 'kind', c.kind, 'name', c.name, 'unit', c.unit,
   'dowels', json(c.dowels), 'stops', json(c.stops), 'jawFaces', json(c.jaw_faces),
   'clamp', json(c.clamp), 'outline', json(c.outline), 'layer', c.layer, 'notes', c.notes,
+  'seatHeight', c.seat_height, 'jawTop', c.jaw_top,
   'outlineFile', json(c.outline_file),
   'usedBy', coalesce(u.n, 0), 'createdAt', c.created_at, 'updatedAt', c.updated_at)`;
 const componentToRow = (c: ComponentFields) => ({
   code: c.code, kind: c.kind, name: c.name, unit: c.unit,
   dowels: JSON.stringify(c.dowels), stops: JSON.stringify(c.stops), jaw_faces: JSON.stringify(c.jawFaces),
   clamp: c.clamp ? JSON.stringify(c.clamp) : null, outline: c.outline ? JSON.stringify(c.outline) : null,
-  layer: c.layer, notes: c.notes,
+  layer: c.layer, notes: c.notes, seat_height: c.seatHeight, jaw_top: c.jawTop,
 });
 
 const USAGE_JOIN = `LEFT JOIN (SELECT component_id, count(DISTINCT version_id) AS n FROM template_version_components GROUP BY component_id) u ON u.component_id = c.id`;

@@ -43,7 +43,7 @@ const demoClamp = { acceptBelow: 0.03, acceptAbove: 0.03, topHeight: 0.16, topSl
 
 export const DEMO_COMPONENTS: ComponentInput[] = [
   {
-    code: 'CR-8', kind: 'center-rail', name: 'Center rail, 8 stops at 1.000 in', unit: 'in', layer: 'FX-CR-8',
+    code: 'CR-8', kind: 'center-rail', name: 'Center rail, 8 stops at 1.000 in', unit: 'in', layer: 'FX-CR-8', seatHeight: 0.5, jawTop: 0.25,
     dowels: [{ x: 0, y: 0 }, { x: 8, y: 0 }],
     stops: Array.from({ length: 8 }, (_, k) => ({ x: 0.5 + k, y: 0.375, angle: 0, face: 0 })),
     jawFaces: [{ x: 0, y: 0.375, normal: 90 }],
@@ -67,7 +67,7 @@ export const DEMO_COMPONENTS: ComponentInput[] = [
     notes: 'Clamp faces 0.125 in behind the dowel line; one grid row from CR-8 it holds 1.500 in.',
   },
   {
-    code: 'SR-4', kind: 'short-rail', name: 'Short rail, 4 stops at 1.000 in', unit: 'in', layer: 'FX-SR-4',
+    code: 'SR-4', kind: 'short-rail', name: 'Short rail, 4 stops at 1.000 in', unit: 'in', layer: 'FX-SR-4', seatHeight: 0.5, jawTop: 0.25,
     dowels: [{ x: 0, y: 0 }, { x: 4, y: 0 }],
     stops: Array.from({ length: 4 }, (_, k) => ({ x: 0.5 + k, y: 0.375, angle: 0, face: 0 })),
     jawFaces: [{ x: 0, y: 0.375, normal: 90 }],
@@ -82,7 +82,7 @@ export const DEMO_COMPONENTS: ComponentInput[] = [
     outline: { paths: [rect(-0.5, -0.625, 4.5, 0.375)], circles: [{ x: 0, y: 0, r: 0.25 }, { x: 4, y: 0, r: 0.25 }] },
   },
   {
-    code: 'VS-6', kind: 'vise', name: 'Self-centering vise, 6 in jaws', unit: 'in', layer: 'FX-VS-6',
+    code: 'VS-6', kind: 'vise', name: 'Self-centering vise, 6 in jaws', unit: 'in', layer: 'FX-VS-6', seatHeight: 1.25, jawTop: 0.375,
     dowels: [{ x: 0, y: 0 }, { x: 4, y: 0 }],
     stops: [{ x: -1, y: 1.25, angle: 0, face: 0 }],
     jawFaces: [{ x: -1, y: 1.25, normal: 90 }],
@@ -95,7 +95,7 @@ export const DEMO_COMPONENTS: ComponentInput[] = [
     outline: { paths: [], circles: [{ x: 0, y: 0, r: 0.25 }] },
   },
   {
-    code: 'CR-M-200', kind: 'center-rail', name: 'Metric center rail, 4 stops at 50 mm', unit: 'mm', layer: 'FX-CRM-200',
+    code: 'CR-M-200', kind: 'center-rail', name: 'Metric center rail, 4 stops at 50 mm', unit: 'mm', layer: 'FX-CRM-200', seatHeight: 12, jawTop: 6,
     dowels: [{ x: 0, y: 0 }, { x: 200, y: 0 }],
     stops: Array.from({ length: 4 }, (_, k) => ({ x: 25 + 50 * k, y: 10, angle: 0, face: 0 })),
     jawFaces: [{ x: 0, y: 10, normal: 90 }],

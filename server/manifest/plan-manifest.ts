@@ -113,7 +113,8 @@ export function planManifest(existing: readonly Component[], read: ManifestRead,
   const componentsSheet = read.sheets.components ?? COMPONENTS_SHEET;
   const codeColumn = read.columns.components.code ?? null;
 
-  for (const { row, fields } of read.components) {
+  for (const { row, fields: readFields } of read.components) {
+    let fields = readFields;
     const current = byCode.get(fields.code.toLowerCase());
     if (!current) {
       changes.push({ sheet: componentsSheet, row, action: 'add', code: fields.code, fields: [], id: null, input: fields });
@@ -126,6 +127,8 @@ export function planManifest(existing: readonly Component[], read: ManifestRead,
         message: `${codeColumn ?? ''}${row}: ${current.code} is used by ${current.usedBy} template version(s), so its code cannot change to "${fields.code}"; write it as ${current.code}.`,
       });
     }
+    // The manifest has no seat-height or jaw-top column yet: a change keeps the catalog's values.
+    fields = { ...fields, seatHeight: current.seatHeight, jawTop: current.jawTop };
     changes.push({
       sheet: componentsSheet, row, action: changed.length ? 'change' : 'same', code: fields.code, fields: changed, id: current.id,
       input: { ...fields, outline: current.outline },

@@ -52,7 +52,7 @@ export async function stationsXlsx(v: Pick<TemplateVersion, 'name' | 'version' |
     ws.addRow({ station: s.number, x: round(s.x), y: round(s.y), z: round(s.z), c: Number(s.c.toFixed(6)), nominal_width: s.nominalWidth === null ? null : round(s.nominalWidth), placement: s.placement, stop: s.stop + 1, station_id: s.id });
   }
   const info = wb.addWorksheet('About');
-  info.addRows([['Template', v.name], ['Version', v.version], ['Content hash (SHA-256)', v.contentHash], ['Unit', v.unit], ['Translations are relative to the shared work offset.']]);
+  info.addRows([['Template', v.name], ['Version', v.version], ['Content hash (SHA-256)', v.contentHash], ['Unit', v.unit], ['Translations are relative to the shared work offset; Z0 is its Z0 and Z is each station\'s part seat above it.']]);
   info.getColumn(1).width = 26;
   info.getColumn(2).width = 70;
   return Buffer.from(await wb.xlsx.writeBuffer());

@@ -22,7 +22,7 @@ export const plateRef = (p: Plate): PlateRef => ({ code: p.code, name: p.name, u
 
 export const componentCopy = (c: Component): TemplateComponent => ({
   code: c.code, kind: c.kind, unit: c.unit, name: c.name, dowels: c.dowels, stops: c.stops, jawFaces: c.jawFaces,
-  outline: c.outline, clamp: c.clamp, layer: c.layer,
+  outline: c.outline, clamp: c.clamp, layer: c.layer, seatHeight: c.seatHeight, jawTop: c.jawTop,
 });
 
 /** Released and retired versions are production tooling: they never change. */

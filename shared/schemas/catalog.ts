@@ -93,6 +93,10 @@ export const ComponentInputSchema = z
     clamp: ClampModelSchema.nullable().default(null),
     outline: OutlineSchema.nullable().default(null),
     layer: plainText('Layer', 255).trim().default(''),
+    /** Height of the part's seat above the plate deck: station Z, measured from the deck. */
+    seatHeight: nonNegative('Seat height').default(0),
+    /** Height of the fixed jaw's (or stop's) top above the part seat, when known: it must stay below the cut. */
+    jawTop: nonNegative('Jaw top').nullable().default(null),
     notes,
   })
   .superRefine((c, ctx) => {
@@ -122,6 +126,8 @@ export const ComponentSchema = z.object({
   outline: OutlineSchema.nullable(),
   layer: z.string(),
   notes: z.string(),
+  seatHeight: z.number().default(0),
+  jawTop: z.number().nullable().default(null),
   /** The DXF the outline was read from, when it came from one. */
   outlineFile: z.object({ name: z.string(), size: z.number(), sha256: z.string(), unit: z.string() }).nullable().default(null),
   usedBy: z.number().int().default(0),

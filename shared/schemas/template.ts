@@ -77,6 +77,9 @@ export const TemplateComponentSchema = z.object({
   outline: OutlineSchema.nullable().default(null),
   clamp: ClampModelSchema.nullable().optional(),
   layer: plainText('Layer', 255).optional(),
+  /** Part seat above the plate deck; absent (0) in files written before it was kept. */
+  seatHeight: nonNegative('Seat height').optional(),
+  jawTop: nonNegative('Jaw top').nullable().optional(),
 });
 export type TemplateComponent = z.infer<typeof TemplateComponentSchema>;
 

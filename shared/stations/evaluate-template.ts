@@ -47,6 +47,8 @@ interface PreparedComponent {
   extent: Box;
   /** How far below its opening the clamp closes (plate unit); null for a jaw rail with no clamp model. */
   clampCloses: number | null;
+  /** Height of the part seat above the plate deck (plate unit): a station's Z. */
+  seatHeight: number;
 }
 
 interface Placed {
@@ -97,6 +99,7 @@ function prepare(component: TemplateComponent, unit: Unit, chordTolerance: numbe
     footprint: footprint.length ? footprint : null,
     extent: geometry.outline && (geometry.outline.paths.length || geometry.outline.circles.length) ? outlineBounds(geometry.outline) : boxOfPoints(features),
     clampCloses: component.clamp ? convert(component.clamp.acceptBelow, component.unit, unit) : null,
+    seatHeight: convert(component.seatHeight ?? 0, component.unit, unit),
   };
 }
 
@@ -329,7 +332,8 @@ export function evaluateTemplate(content: TemplateContent, options: EvaluateOpti
         stop: stopIndex,
         x: convert(dx - origin.x, pu, tu),
         y: convert(dy - origin.y, pu, tu),
-        z: (stop.z ?? 0) - origin.z,
+        // Z is the part's seat (a stop's own z where it has one) above the shared offset's Z0.
+        z: (stop.z ?? component.seatHeight) - origin.z,
         c: normalizeDegrees(t.degrees + (stop.angle ?? 0)),
         sequence: drafts.length,
         face,

@@ -207,7 +207,7 @@ describe('words', () => {
   });
 
   it('keeps everything of the component but the dowels and stops when setting them', () => {
-    const c = { id: 3, code: 'JR-1.000', kind: 'jaw-rail', name: 'Jaw rail', unit: 'in', dowels: [{ x: 0, y: 0 }, { x: 8, y: 0 }], stops: [], jawFaces: [{ x: 0, y: -0.625, normal: 270 }], clamp: null, outline: railOutline, layer: 'FX-JR-1000', notes: 'n', outlineFile: null, usedBy: 0, createdAt: '', updatedAt: '' } satisfies Component;
+    const c = { id: 3, code: 'JR-1.000', kind: 'jaw-rail', name: 'Jaw rail', unit: 'in', dowels: [{ x: 0, y: 0 }, { x: 8, y: 0 }], stops: [], jawFaces: [{ x: 0, y: -0.625, normal: 270 }], clamp: null, outline: railOutline, layer: 'FX-JR-1000', notes: 'n', seatHeight: 0, jawTop: null, outlineFile: null, usedBy: 0, createdAt: '', updatedAt: '' } satisfies Component;
     const input = componentWith(c, [{ x: 0, y: 0 }, { x: 10, y: 0 }], []);
     expect(input).toEqual({ code: 'JR-1.000', kind: 'jaw-rail', name: 'Jaw rail', unit: 'in', dowels: [{ x: 0, y: 0 }, { x: 10, y: 0 }], stops: [], jawFaces: c.jawFaces, clamp: null, outline: railOutline, layer: 'FX-JR-1000', notes: 'n' });
   });

@@ -39,7 +39,7 @@ const CHILD = 'GRIDSET_MANIFEST_BENCH_FILE';
 
 /** Codes and layers the demo convention accepts: metric center rails CR-M-<mm>, jaw rails JR-<width>. */
 export function benchCatalog(n: number): { components: Component[]; layers: ManifestLayer[] } {
-  const stamp = { outline: null, outlineFile: null, usedBy: 0, createdAt: '2024-01-01T00:00:00.000Z', updatedAt: '2024-01-01T00:00:00.000Z' };
+  const stamp = { outline: null, outlineFile: null, seatHeight: 0, jawTop: null, usedBy: 0, createdAt: '2024-01-01T00:00:00.000Z', updatedAt: '2024-01-01T00:00:00.000Z' };
   const components: Component[] = [];
   const layers: ManifestLayer[] = [];
   for (let i = 0; i < n; i++) {

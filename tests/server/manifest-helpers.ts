@@ -6,7 +6,7 @@ import type { Component } from '../../shared/schemas/catalog';
 import { columnLetter, columnNumber } from '../../shared/naming/cell-address';
 import { COMPONENT_COLUMNS } from '../../server/manifest/manifest-columns';
 
-const stamp = { outline: null, outlineFile: null, usedBy: 0, createdAt: '2024-01-01T00:00:00.000Z', updatedAt: '2024-01-01T00:00:00.000Z' };
+const stamp = { outline: null, outlineFile: null, seatHeight: 0, jawTop: null, usedBy: 0, createdAt: '2024-01-01T00:00:00.000Z', updatedAt: '2024-01-01T00:00:00.000Z' };
 
 /** Three components that exercise every column: stops with z, angle and face; a clamp; a metric row. */
 export function sampleComponents(): Component[] {

@@ -11,7 +11,7 @@ const summary = (changes: readonly { action: string; code: string; fields: reado
 
 /** Values that do not survive as short decimals: thirds, sevenths, 0.1 + 0.2, inch values in mm. */
 function awkwardCatalog(n: number): Component[] {
-  const stamp = { outline: null, outlineFile: null, usedBy: 0, createdAt: '', updatedAt: '' };
+  const stamp = { outline: null, outlineFile: null, seatHeight: 0, jawTop: null, usedBy: 0, createdAt: '', updatedAt: '' };
   return Array.from({ length: n }, (_, i) => {
     const unit = i % 2 ? 'mm' : 'in';
     const k = unit === 'mm' ? 25.4 : 1;

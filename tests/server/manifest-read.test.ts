@@ -105,11 +105,12 @@ describe('a minimal XLSX written by hand (jszip; inline strings, no styles, no s
           stops: [{ x: 0.5, y: 0.375, angle: 0 }, { x: 1.5, y: 0.375, z: 0.25, angle: 90, face: 1 }],
           jawFaces: [{ x: 0, y: 0.375, normal: 90 }, { x: 0, y: -0.375, normal: 270 }],
           clamp: { acceptBelow: 0.03, acceptAbove: 0.03, topHeight: 0.16, topSlope: 0.5, gripLow: 0.04, gripHigh: 0.16, gripSlope: 0.5, slotSlop: 0.015 },
-          outline: null, notes: 'hand made',
+          // No manifest column for these yet: the schema's defaults.
+          outline: null, notes: 'hand made', seatHeight: 0, jawTop: null,
         },
       },
       // kind and unit are fixed values, read regardless of case and surrounding spaces.
-      { row: 3, fields: { code: 'ST-0.5', kind: 'stop', name: 'Dowel stop', unit: 'mm', layer: '', dowels: [{ x: 0, y: 0 }], stops: [], jawFaces: [], clamp: null, outline: null, notes: '' } },
+      { row: 3, fields: { code: 'ST-0.5', kind: 'stop', name: 'Dowel stop', unit: 'mm', layer: '', dowels: [{ x: 0, y: 0 }], stops: [], jawFaces: [], clamp: null, outline: null, notes: '', seatHeight: 0, jawTop: null } },
     ]);
   });
 

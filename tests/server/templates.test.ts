@@ -63,7 +63,8 @@ describe('templates and versions', () => {
     expect(st.sharedOffset).toMatchObject({ kind: 'hole', hole: { col: 6, row: 5 } });
     for (let k = 0; k < 8; k++) {
       const a = st.stations[k];
-      expect([a.number, a.placement, a.x, a.y, a.z, a.c]).toEqual([k + 1, 'P1', -7.5 + k, -3.625, 0, 0]);
+      // Z: the demo CR-8's seat, 0.500 in above the deck; the shared offset's Z0 is the deck (hole kind).
+      expect([a.number, a.placement, a.x, a.y, a.z, a.c]).toEqual([k + 1, 'P1', -7.5 + k, -3.625, 0.5, 0]);
       const b = st.stations[8 + k];
       expect(b.placement).toBe('P2');
       expect(b.x).toBeCloseTo(7.625, 12);
@@ -168,7 +169,7 @@ describe('station files', () => {
     const rows = parseCsv(res.text, { columns: true }) as Record<string, string>[];
     expect(res.text.split('\r\n')[0]!.startsWith('station,x,y,z,c,')).toBe(true);
     expect(rows).toHaveLength(20);
-    expect(rows[0]).toMatchObject({ station: '1', x: '0.5000', y: '0.3750', z: '0.0000', c: '0.000', nominal_width: '1.0000', placement: 'A-CR', unit: 'in' });
+    expect(rows[0]).toMatchObject({ station: '1', x: '0.5000', y: '0.3750', z: '0.5000', c: '0.000', nominal_width: '1.0000', placement: 'A-CR', unit: 'in' });
   });
 
   it('writes XLSX whose cells hold numbers, read back with jszip as raw Office Open XML', async () => {
@@ -252,6 +253,20 @@ describe('template.json', () => {
     const { layoutForHash } = await import('../../shared/interchange/template-file');
     const { name, unit, plate, components, placements, sharedOffset, numbering } = file;
     expect(createHash('sha256').update(canonicalJson(layoutForHash({ name, unit, plate, components, placements, sharedOffset, numbering }))).digest('hex')).toBe(file.contentHash);
+  });
+
+  it("carries each component's seat height, and reads a file written before it as seat 0", async () => {
+    const file = JSON.parse((await operator.get('/api/templates/1/versions/1/template.json').expect(200)).text);
+    const cr8 = file.components.find((c: { code: string }) => c.code === 'CR-8');
+    expect(cr8).toMatchObject({ seatHeight: 0.5, jawTop: 0.25 });
+    // Every CR-8 and SR-4 station sits on a 0.500 in seat; the shared offset (a hole) has Z0 on the deck.
+    expect(new Set(file.stations.map((s: { z: number }) => s.z))).toEqual(new Set([0.5]));
+    const older = structuredClone(file);
+    for (const c of older.components) { delete c.seatHeight; delete c.jawTop; }
+    const imported = await programmer.post('/api/templates/import', older).expect(201);
+    const v = (await operator.get(`/api/templates/${imported.body.id}/versions/1`)).body;
+    expect(new Set(v.stations.map((s: { z: number }) => s.z))).toEqual(new Set([0]));
+    expect(v.contentHash).not.toBe(file.contentHash);
   });
 
   it('refuses a file that does not match the JSON Schema with JSON pointers, writing nothing', async () => {

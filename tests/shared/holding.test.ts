@@ -99,3 +99,19 @@ describe('problems that block submit and release', () => {
     expect(r.problems.filter(blocksSaving)).toEqual([]);
   });
 });
+
+describe('station Z: the part seat above the shared offset Z0', () => {
+  it("takes the fixed component's seat height, converted to the template unit, less the shared offset z", () => {
+    // CR-8 seat 0.500 in; a point shared offset at z 0.125 in: Z = 0.500 − 0.125 = 0.375 in = 9.525 mm.
+    const seated = { ...centerRail(), seatHeight: 0.5, stops: centerRail().stops.map((s, k) => (k === 1 ? { ...s, z: 0.75 } : s)) };
+    const inch = evaluateTemplate(content({ components: [seated, jawWithClamp] as never, placements: [cr('A', 2, 3), jr('J', 2, 4)], sharedOffset: { kind: 'point', x: 12, y: 10, z: 0.125 } }));
+    expect(inch.stations.map((s) => s.z)).toEqual([0.375, 0.625]); // stop 2 has its own z, 0.750 in: 0.750 − 0.125
+    const mm = evaluateTemplate(content({ unit: 'mm', components: [seated, jawWithClamp] as never, placements: [cr('A', 2, 3), jr('J', 2, 4)], sharedOffset: { kind: 'point', x: 304.8, y: 254, z: 3.175 } }));
+    expect(mm.stations[0]!.z).toBeCloseTo(9.525, 9); // 0.375 in × 25.4 mm/in (NIST SP 811, exact)
+  });
+
+  it('a component written before seat heights were kept sits at 0', () => {
+    const r = evaluate([cr('A', 2, 3), jr('J', 2, 4)]);
+    expect(r.stations.map((s) => s.z)).toEqual([0, 0]);
+  });
+});

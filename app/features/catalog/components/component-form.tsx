@@ -24,7 +24,7 @@ const CLAMP_FIELDS = [
   ['slotSlop', 'Rail shift in its slots (±)', true],
 ] as const;
 
-const emptyComponent: ComponentInput = { code: '', kind: 'center-rail', name: '', unit: 'in', dowels: [{ x: 0, y: 0 }], stops: [], jawFaces: [], clamp: null, outline: null, layer: '', notes: '' };
+const emptyComponent: ComponentInput = { code: '', kind: 'center-rail', name: '', unit: 'in', dowels: [{ x: 0, y: 0 }], stops: [], jawFaces: [], clamp: null, outline: null, layer: '', notes: '', seatHeight: 0, jawTop: null };
 
 export function ComponentForm({ component, readOnly, onSaved }: { component: Component | null; readOnly: boolean; onSaved: (c: Component) => void }) {
   const save = useSaveComponent(component?.id ?? null);
@@ -46,6 +46,8 @@ export function ComponentForm({ component, readOnly, onSaved }: { component: Com
           <SelectField label="Unit" options={UNITS} error={e.unit?.message} {...form.register('unit')} />
           <div className="sm:col-span-2"><TextField label="Name" error={e.name?.message} {...form.register('name')} /></div>
           <TextField label="Layer" hint="DXF layer its outline is drawn on" error={e.layer?.message} {...form.register('layer')} />
+          <TextField label="Seat height" unit={unit} type="number" step="any" inputMode="decimal" hint="Height of the part's seat above the plate deck: every station on it gets this Z." error={e.seatHeight?.message} {...form.register('seatHeight', { valueAsNumber: true })} />
+          <TextField label="Jaw top (optional)" unit={unit} type="number" step="any" inputMode="decimal" hint="Height of the fixed jaw's or stop's top above the seat; the stock check keeps it below the cut." error={e.jawTop?.message} {...form.register('jawTop', { setValueAs: (v: unknown) => (v === '' || v === null || v === undefined ? null : Number(v)) })} />
         </section>
 
         <PointList

@@ -39,7 +39,7 @@ export function StationTable({ stations, unit, displayUnit }: { stations: Statio
   return (
     <section className="flex flex-col gap-2" aria-labelledby="station-table-title">
       <div className="flex flex-wrap items-center justify-between gap-2">
-        <h2 id="station-table-title" className="text-lg font-semibold">Stations <span className="font-normal text-slate-600">— translation from the shared offset, {rows.length} in all</span></h2>
+        <h2 id="station-table-title" className="text-lg font-semibold">Stations <span className="font-normal text-slate-600">— translation from the shared offset, {rows.length} in all; Z0 is the shared offset's Z0, Z the part seat</span></h2>
         <Button variant="secondary" onClick={copy}><Copy aria-hidden className="h-4 w-4" />{copied ? 'Copied' : 'Copy table'}</Button>
       </div>
       <DataTable caption="Station translations" columns={columns} data={rows} getRowId={(r) => r.id} empty="No stations yet: add a rail with stops in use." />
