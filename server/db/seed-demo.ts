@@ -43,7 +43,7 @@ const demoClamp = { acceptBelow: 0.03, acceptAbove: 0.03, topHeight: 0.16, topSl
 
 export const DEMO_COMPONENTS: ComponentInput[] = [
   {
-    code: 'CR-8', kind: 'center-rail', name: 'Center rail, 8 stops at 1.000 in', unit: 'in', layer: 'FX-CR-8', seatHeight: 0.5, jawTop: 0.25,
+    code: 'CR-8', kind: 'center-rail', name: 'Center rail, 8 stops at 1.000 in', unit: 'in', layer: 'FX-CR-8', seatHeight: 0.5, jawTop: 0.19,
     dowels: [{ x: 0, y: 0 }, { x: 8, y: 0 }],
     stops: Array.from({ length: 8 }, (_, k) => ({ x: 0.5 + k, y: 0.375, angle: 0, face: 0 })),
     jawFaces: [{ x: 0, y: 0.375, normal: 90 }],
@@ -67,7 +67,7 @@ export const DEMO_COMPONENTS: ComponentInput[] = [
     notes: 'Clamp faces 0.125 in behind the dowel line; one grid row from CR-8 it holds 1.500 in.',
   },
   {
-    code: 'SR-4', kind: 'short-rail', name: 'Short rail, 4 stops at 1.000 in', unit: 'in', layer: 'FX-SR-4', seatHeight: 0.5, jawTop: 0.25,
+    code: 'SR-4', kind: 'short-rail', name: 'Short rail, 4 stops at 1.000 in', unit: 'in', layer: 'FX-SR-4', seatHeight: 0.5, jawTop: 0.19,
     dowels: [{ x: 0, y: 0 }, { x: 4, y: 0 }],
     stops: Array.from({ length: 4 }, (_, k) => ({ x: 0.5 + k, y: 0.375, angle: 0, face: 0 })),
     jawFaces: [{ x: 0, y: 0.375, normal: 90 }],

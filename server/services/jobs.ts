@@ -108,7 +108,7 @@ export function jobsService(deps: { db: Db; jobs: JobsRepo; templates: Templates
      * Checks measured bars against the clamp window of one jaw rail of the job's template: the
      * nominal opening is the width that rail holds, the clamp model is the rail's own.
      */
-    async stockCheck(user: User, id: number, input: { jawPlacement?: string; bars: MeasuredBar[] }) {
+    async stockCheck(user: User, id: number, input: { jawPlacement?: string; bars: MeasuredBar[]; settingAccuracy?: number }) {
       const r = await requireJob(id);
       const v = await templates.version(r.template_id, r.number);
       if (!v.pairings.length) throw badRequest(`Template "${v.name}" v${v.version} has no jaw rail facing a fixed jaw, so there is no clamp window to check against.`, null, 'no-pairing');
@@ -117,7 +117,10 @@ export function jobsService(deps: { db: Db; jobs: JobsRepo; templates: Templates
       const rail = v.components.find((c) => c.code === pairing.jawComponent);
       if (!rail?.clamp) throw badRequest(`Jaw rail ${pairing.jawComponent} has no clamp model in the template; add one in the catalog and start a new version.`, null, 'no-clamp');
       const appliesTo = v.pairings.filter((p) => p.jawPlacement === pairing.jawPlacement).flatMap((p) => p.stations);
-      const request = { unit: v.unit, nominalOpening: pairing.width, clamp: clampIn(rail.clamp, rail.unit, v.unit), carrier: r.carrier, clearance: r.clearance, minBite: r.min_bite, bars: input.bars };
+      // The fixed jaw's top must clear the cut like a clamp's: taken from the fixed component when the catalog knows it.
+      const fixed = v.components.find((c) => c.code === pairing.fixedComponent);
+      const fixedTop = fixed?.jawTop == null ? undefined : convert(fixed.jawTop, fixed.unit, v.unit);
+      const request = { unit: v.unit, nominalOpening: pairing.width, clamp: clampIn(rail.clamp, rail.unit, v.unit), carrier: r.carrier, clearance: r.clearance, minBite: r.min_bite, bars: input.bars, settingAccuracy: input.settingAccuracy, fixedTop };
       const result = checkStock(request);
       await db.transaction(async (trx) => {
         await jobs.addStockCheck(trx, { jobId: id, jawPlacement: pairing.jawPlacement, request: { ...request, appliesTo }, result, userId: user.id });

@@ -14,8 +14,11 @@ import type { StockCheckReason } from '../schemas/stock-check';
  * (the clamp may only grip the carrier, which the program leaves in place; the corner radii are no
  * face). The conditions are
  *   fits       −acceptBelow ≤ d ≤ acceptAbove                        else too-narrow / too-wide
- *   top        topHeight + topSlope·d ≤ carrier − clearance           else clamp-above-carrier
+ *   thick      T > carrier                                           else thinner-than-carrier
+ *   top        topHeight + topSlope·d ≤ min(carrier, T) − clearance   else clamp-above-carrier
  *   bite       |band ∩ face| ≥ minBite                                else short-bite
+ * (a bar no thicker than the carrier leaves nothing to machine, and the clamp top must clear the
+ * bar itself as well as the carrier: the tool cuts down to whichever is lower).
  *
  * Every condition is solved as a set of d, and each set is an interval:
  *  - fits and top are linear in d;
@@ -114,8 +117,9 @@ function bandOnFace(clamp: ClampModel, d: number, faceLo: number, faceHi: number
  */
 function solveWindow(clamp: ClampModel, job: ClampJob, eps: number) {
   const fits: Interval = [-clamp.acceptBelow - eps, clamp.acceptAbove + eps];
-  // topHeight + topSlope·d ≤ carrier − clearance (+ eps)
-  const top = halfLine(clamp.topSlope, job.carrier - job.clearance - clamp.topHeight + eps);
+  // topHeight + topSlope·d ≤ min(carrier, T) − clearance (+ eps); the carrier is the lower for every bar thicker than it.
+  const topBelow = (ceiling: number) => halfLine(clamp.topSlope, ceiling - job.clearance - clamp.topHeight + eps);
+  const top = topBelow(job.carrier);
 
   const m = job.minBite - eps;
   const g = clamp.gripSlope;
@@ -129,7 +133,7 @@ function solveWindow(clamp: ClampModel, job: ClampJob, eps: number) {
     const b = halfLine(g, faceHi - clamp.gripLow - m); // faceHi − (gripLow + g·d) ≥ m
     return [Math.max(a[0], b[0]), Math.min(a[1], b[1])];
   };
-  return { fits, top, bite };
+  return { fits, top, topBelow, bite };
 }
 
 /** The set of d satisfying each condition, each an interval (see the derivation above). */
@@ -141,7 +145,7 @@ export function conditionIntervals(
 ): { fits: Interval; top: Interval; bite: Interval } {
   const w = solveWindow(clamp, job, eps);
   const [faceLo, faceHi] = flatFace(job, bar);
-  return { fits: w.fits, top: w.top, bite: w.bite(faceLo, faceHi) };
+  return { fits: w.fits, top: bar.thickness < job.carrier ? w.topBelow(bar.thickness) : w.top, bite: w.bite(faceLo, faceHi) };
 }
 
 /**
@@ -150,14 +154,14 @@ export function conditionIntervals(
  * shifts that accept it). Pure; O(1) a bar.
  */
 export function clampWindow(nominalOpening: number, clamp: ClampModel, job: ClampJob, eps = CLAMP_EPSILON): (bar: BarSize) => BarWindow {
-  const { fits, top, bite: biteFor } = solveWindow(clamp, job, eps);
+  const { fits, top: carrierTop, topBelow, bite: biteFor } = solveWindow(clamp, job, eps);
   // fits ∩ top, shared by every bar
-  const fixedLo = Math.max(fits[0], top[0]);
-  const fixedHi = Math.min(fits[1], top[1]);
   const slop = clamp.slotSlop;
 
   return (bar) => {
     const d0 = bar.width - nominalOpening;
+    const thin = bar.thickness <= job.carrier + eps;
+    const top = bar.thickness < job.carrier ? topBelow(bar.thickness) : carrierTop;
     const faceLo = bar.cornerRadius;
     const faceHi = Math.min(job.carrier, bar.thickness - bar.cornerRadius);
     const bite = biteFor(faceLo, faceHi);
@@ -167,13 +171,15 @@ export function clampWindow(nominalOpening: number, clamp: ClampModel, job: Clam
     const reasons: StockCheckReason[] = [];
     if (d0 < fits[0]) reasons.push('too-narrow');
     else if (d0 > fits[1]) reasons.push('too-wide');
+    if (thin) reasons.push('thinner-than-carrier');
     if (!contains(top, d0)) reasons.push('clamp-above-carrier');
     if (!contains(bite, d0)) reasons.push('short-bite');
 
-    const dLo = Math.max(fixedLo, bite[0]);
-    const dHi = Math.min(fixedHi, bite[1]);
+    const dLo = Math.max(fits[0], top[0], bite[0]);
+    const dHi = Math.min(fits[1], top[1], bite[1]);
     let shiftRange: [number, number] | null = null;
-    if (dLo <= dHi) {
+    // No rail setting makes a bar thicker: a thin bar has no range at all.
+    if (!thin && dLo <= dHi) {
       // s = d0 − d reverses the order of the ends.
       const sLo = Math.max(-slop, d0 - dHi);
       const sHi = Math.min(slop, d0 - dLo);

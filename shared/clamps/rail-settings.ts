@@ -9,13 +9,11 @@
  * settings as the greedy uses. This is the earliest-finish-time argument of interval scheduling
  * (Kleinberg & Tardos, "Algorithm Design", 2006, §4.1). O(n log n) for the sort, O(n) for the sweep.
  *
- * Each group's bars share the interval [largest left end, the group's right end]. The shift given
- * to the operator is the middle of that common interval — the most room either way for a rail that
- * is set a little off — rounded to Gridset's display precision (4 decimals in inches, 3 in mm)
- * when the rounded value is still inside the common interval, and left unrounded
- * otherwise. (If any display-precision value lies in [a, b], the one nearest the middle does too:
- * |round(mid) − mid| ≤ |g − mid| ≤ (b − a)/2. So the rounded middle is refused only when the
- * common interval is narrower than one display step and holds no step value.)
+ * The fewest settings is not the whole answer: a rail is set only so closely, so among plans with
+ * that many settings Gridset takes the one that leaves the most room (see planRailSettings). The
+ * shift given to the operator is the middle of its bars' common interval, rounded to Gridset's
+ * display precision (4 decimals in inches, 3 in mm) when the rounded value stays inside it: a
+ * readable number for at most half a display step of room.
  */
 
 import type { Unit } from '../schemas/common';
@@ -41,55 +39,102 @@ export function roundToDecimals(x: number, decimals: number): number {
   return r === 0 ? 0 : r;
 }
 
+/** Greedy stabbing of intervals taken in `order` (by right end): the number of points it needs, stopping past `limit`. */
+function stabCount(order: readonly number[], los: Float64Array, his: Float64Array, r: number, limit: number): number {
+  let count = 0;
+  let point = -Infinity;
+  for (const i of order) {
+    if (los[i]! + r <= point) continue;
+    const hi = his[i]! - r;
+    if (hi < los[i]! + r) return Infinity; // shrunk to nothing
+    point = hi;
+    if (++count > limit) return count;
+  }
+  return count;
+}
+
 /**
  * Plan the fewest settings for a list of feasible shift intervals (null: the bar has none, and is
- * left out). `decimals` is the display precision used to pick a readable shift.
+ * left out), and among plans with that many settings the one that leaves the most room: the
+ * largest r such that every bar's setting lies at least r inside its interval.
+ *
+ * A plan with k settings leaves room r exactly when the intervals shrunk by r on each side
+ * ([lo + r, hi − r]) can be stabbed by k points (a group's best setting is the middle of its
+ * common interval, whose half-width is the room it leaves). Shrinking every interval by the same
+ * r keeps their order by right end, so one sort serves every r, and the greedy count grows with r:
+ * r is found by bisection (64 halvings reach the double's precision). Then the settings are the
+ * middles of the greedy groups at that r, and each bar takes the setting that leaves it the most
+ * room. `decimals` is the display precision used to pick a readable shift.
  */
 export function planRailSettings(ranges: ReadonlyArray<readonly [number, number] | null>, decimals: number): RailSettingPlan[] {
   const n = ranges.length;
   const los = new Float64Array(n);
   const his = new Float64Array(n);
   const order: number[] = [];
+  let widest = Infinity;
   for (let i = 0; i < n; i++) {
     const r = ranges[i];
     if (r == null || !(r[0] <= r[1])) continue;
     los[i] = r[0];
     his[i] = r[1];
     order.push(i);
+    widest = Math.min(widest, (r[1] - r[0]) / 2);
   }
+  if (!order.length) return [];
   // By right end; ties by left end then index, so the result does not depend on the sort's stability.
   order.sort((a, b) => his[a]! - his[b]! || los[a]! - los[b]! || a - b);
 
-  // The sweep. `groupOf` keeps each interval's setting so the member lists can be built in index
-  // order afterwards in one pass, with no second sort.
-  const plans: RailSettingPlan[] = [];
-  const groupOf = new Int32Array(n).fill(-1);
-  let point = -Infinity; // the current setting's right end
-  let commonLo = -Infinity;
-  for (const i of order) {
-    const lo = los[i]!;
-    if (plans.length > 0 && lo <= point) {
-      if (lo > commonLo) commonLo = lo;
-    } else {
-      if (plans.length > 0) plans[plans.length - 1]!.common[0] = commonLo;
-      point = his[i]!;
-      commonLo = lo;
-      plans.push({ shift: point, members: [], common: [lo, point] });
-    }
-    groupOf[i] = plans.length - 1;
+  const fewest = stabCount(order, los, his, 0, Infinity);
+  let lo = 0;
+  let hi = widest;
+  for (let k = 0; k < 64 && lo < hi; k++) {
+    const mid = (lo + hi) / 2;
+    if (mid <= lo || mid >= hi) break;
+    if (stabCount(order, los, his, mid, fewest) <= fewest) lo = mid;
+    else hi = mid;
   }
-  if (plans.length > 0) plans[plans.length - 1]!.common[0] = commonLo;
-  for (let i = 0; i < n; i++) {
-    const k = groupOf[i]!;
-    if (k >= 0) plans[k]!.members.push(i);
-  }
+  const room = lo;
 
+  // The greedy groups at that room; each setting the middle of its group's common interval.
+  const plans: RailSettingPlan[] = [];
+  let point = -Infinity;
+  for (const i of order) {
+    if (plans.length && los[i]! + room <= point) {
+      const p = plans[plans.length - 1]!;
+      p.common[0] = Math.max(p.common[0], los[i]!);
+      p.common[1] = Math.min(p.common[1], his[i]!);
+      continue;
+    }
+    point = his[i]! - room;
+    plans.push({ shift: 0, members: [], common: [los[i]!, his[i]!] });
+  }
   for (const p of plans) {
-    const a = p.common[0];
-    const b = p.common[1];
+    const [a, b] = p.common;
     const mid = (a + b) / 2;
     const rounded = roundToDecimals(mid, decimals);
+    // A readable number when it still lies in the common interval; it costs at most half a display step of room.
     p.shift = a <= rounded && rounded <= b ? rounded : mid === 0 ? 0 : mid;
   }
-  return plans;
+  // Each bar to the setting that leaves it the most room (ties: the lower setting).
+  for (const i of order) {
+    let best = -1;
+    let bestRoom = -Infinity;
+    plans.forEach((p, k) => {
+      const r = Math.min(p.shift - los[i]!, his[i]! - p.shift);
+      if (r > bestRoom) { best = k; bestRoom = r; }
+    });
+    plans[best]!.members.push(i);
+  }
+  for (const p of plans) {
+    p.members.sort((a, b) => a - b);
+    p.common = [-Infinity, Infinity];
+    for (const i of p.members) {
+      if (los[i]! > p.common[0]) p.common[0] = los[i]!;
+      if (his[i]! < p.common[1]) p.common[1] = his[i]!;
+    }
+  }
+  return plans.filter((p) => p.members.length);
 }
+
+/** Room a setting leaves a bar: how far the rail may be set off it either way with the bar still held. */
+export const roomAt = (shift: number, range: readonly [number, number]) => Math.min(shift - range[0], range[1] - shift);

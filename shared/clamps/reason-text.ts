@@ -7,6 +7,7 @@ import type { StockCheckReason } from '../schemas/stock-check';
 export const REASON_TEXT: Readonly<Record<StockCheckReason, string>> = {
   'too-narrow': 'bar narrower than the clamp accepts — will not fit',
   'too-wide': 'bar wider than the clamp accepts — will not fit',
+  'thinner-than-carrier': 'bar no thicker than the carrier — nothing left to machine, and the clamp stands above it',
   'clamp-above-carrier': 'clamp top above the carrier less clearance — collision risk',
   'short-bite': 'bite on the flat face below the minimum — pull-out risk',
 };

@@ -2,7 +2,7 @@ import { z } from 'zod';
 import { UnitSchema, finite, listOf, nonNegative, plainText, positive } from './common';
 import { OutlineSchema } from './geometry';
 import { PairingSchema, StationSchema } from './template';
-import { MeasuredBarSchema, StockCheckResponseSchema } from './stock-check';
+import { MeasuredBarSchema, StockCheckRequestSchema, StockCheckResponseSchema } from './stock-check';
 import { VersionStateSchema } from './template-api';
 
 const text = (label: string, max: number) => plainText(label, max).trim().min(1, `${label} is required.`);
@@ -77,4 +77,6 @@ export const JobStockCheckInputSchema = z.object({
   /** Which jaw rail's clamp window to check against (a placement id from the pairing table); the first pairing when left out. */
   jawPlacement: z.string().max(40).optional(),
   bars: z.array(MeasuredBarSchema).min(1, 'bars must list at least one measured bar.').max(10_000, 'A stock check takes at most 10,000 bars: split the list into several checks.'),
+  /** How closely the operator sets a rail, in the template's unit; the unit's default when left out. */
+  settingAccuracy: StockCheckRequestSchema.shape.settingAccuracy,
 });

@@ -15,7 +15,7 @@ import { ClampModelSchema } from './catalog';
 export const MAX_STOCK_CHECK_BARS = 10_000;
 
 /** Why a bar is refused at the nominal rail setting (shift 0), in the order they are tested. */
-export const STOCK_CHECK_REASONS = ['too-narrow', 'too-wide', 'clamp-above-carrier', 'short-bite'] as const;
+export const STOCK_CHECK_REASONS = ['too-narrow', 'too-wide', 'thinner-than-carrier', 'clamp-above-carrier', 'short-bite'] as const;
 export const StockCheckReasonSchema = z.enum(STOCK_CHECK_REASONS, {
   message: `A reason must be one of ${STOCK_CHECK_REASONS.join(', ')}.`,
 });
@@ -101,6 +101,10 @@ export const StockCheckRequestSchema = z.object(
     clearance: length('clearance', 'the tool clearance to keep above the clamp tops (0 for none)', 'nonNegative'),
     // A minimum bite of zero would accept a clamp that does not touch the flat face at all.
     minBite: length('minBite', 'the least flat face the clamp must grip', 'positive'),
+    /** How closely the operator can set a rail; every bar's range of settings is narrowed by it on each side. */
+    settingAccuracy: length('settingAccuracy', 'how closely a rail can be set (0.002 in / 0.05 mm is common)', 'nonNegative').optional(),
+    /** Top of the fixed jaw or stop above the part seat, when known: it must stay the clearance below the carrier too. */
+    fixedTop: length('fixedTop', "the height of the fixed jaw's top above the part seat", 'nonNegative').optional(),
     bars: z
       .array(MeasuredBarSchema, {
         error: (iss) =>
@@ -149,6 +153,10 @@ export const StockCheckBarResultSchema = z.object({
   bite: z.number(),
   /** Index into `settings` of the rail setting that serves this bar; null when unplaceable. */
   setting: z.number().int().min(0).nullable(),
+  /** shiftRange narrowed by the setting accuracy on each side: where a rail set that closely still holds the bar. */
+  settableRange: ShiftRangeSchema.nullable(),
+  /** How far the bar's setting may be off either way before the bar leaves its settable range; null when unplaceable. */
+  room: z.number().nullable(),
 });
 export type StockCheckBarResult = z.infer<typeof StockCheckBarResultSchema>;
 
@@ -156,6 +164,10 @@ export const RailSettingSchema = z.object({
   /** The rail shift to set, in the request's unit; positive opens the jaw. */
   shift: z.number(),
   bars: z.array(z.string()),
+  /** The opening to set: nominal opening + shift. */
+  targetOpening: z.number(),
+  /** ± how far the rail may be set off the target and still hold every bar of this setting (beyond the setting accuracy already allowed). */
+  room: z.number(),
 });
 export type RailSetting = z.infer<typeof RailSettingSchema>;
 
@@ -163,5 +175,9 @@ export const StockCheckResponseSchema = z.object({
   bars: z.array(StockCheckBarResultSchema),
   settings: z.array(RailSettingSchema),
   unplaceable: z.array(z.string()),
+  /** The setting accuracy the plan allowed for (given, or the default for the unit). */
+  settingAccuracy: z.number(),
+  /** Cautions about the setup as a whole, e.g. a fixed jaw whose top is above the carrier less the clearance. */
+  warnings: z.array(z.object({ code: z.string(), message: z.string() })),
 });
 export type StockCheckResponse = z.infer<typeof StockCheckResponseSchema>;

@@ -77,6 +77,18 @@ describe('jobs', () => {
     const detail = (await operator.get(`/api/jobs/${id}`)).body;
     expect(detail.stockChecks[0]).toMatchObject({ jawPlacement: 'A-JR', by: 'Oakley Operator' });
     expect((await operator.post(`/api/jobs/${id}/stock-check`, { jawPlacement: 'NOPE', bars: [{ id: 'x', width: 1, thickness: 0.5, cornerRadius: 0 }] })).status).toBe(400);
+    // The demo CR-8's jaw top, 0.190 in above its seat, clears the carrier less the clearance (0.250 − 0.030 = 0.220).
+    expect(res.body.warnings).toEqual([]);
+    expect(res.body.settingAccuracy).toBe(0.002); // the inch default
+    expect(res.body.settings[0]).toMatchObject({ bars: ['B1'], targetOpening: 1 + res.body.settings[0].shift });
+  });
+
+  it('flags the fixed jaw when a thinner carrier brings the cut below its top', async () => {
+    // carrier 0.200 − clearance 0.030 = 0.170 < the CR-8 jaw top 0.190: collision risk, said once.
+    const thin = await programmer.post('/api/jobs', { ...job, name: 'Thin carrier', carrier: 0.2 }).expect(201);
+    const res = await operator.post(`/api/jobs/${thin.body.id}/stock-check`, { jawPlacement: 'A-JR', settingAccuracy: 0.001, bars: [{ id: 'B1', width: 1.0, thickness: 0.5, cornerRadius: 0.02 }] }).expect(200);
+    expect(res.body.warnings.map((w: { code: string }) => w.code)).toEqual(['fixed-top-above-carrier']);
+    expect(res.body.settingAccuracy).toBe(0.001);
   });
 
   it('downloads one package whose manifest lists every file with its SHA-256 and the pinned content hash', async () => {

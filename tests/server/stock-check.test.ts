@@ -26,8 +26,14 @@ describe('POST /api/stock-check', () => {
     expect(byId.B).toMatchObject({ ok: false, reasons: ['too-wide'] });
     // B needs the rail opened by at least 0.045 − 0.03 = 0.015 — exactly the slot slop.
     expect(byId.B.shiftRange[0]).toBeCloseTo(0.015, 6); // within the engine's 1e-9 slack
-    expect(res.body.unplaceable).toEqual([]);
-    expect(res.body.settings.flatMap((s: { bars: string[] }) => s.bars).sort()).toEqual(['A', 'B']);
+    // …so its range is the one point 0.015: no rail is set that exactly. With the default setting
+    // accuracy (±0.002 in) B cannot be held; with an accuracy of 0 it shares a setting with A.
+    expect(res.body.unplaceable).toEqual(['B']);
+    expect(res.body.settings).toHaveLength(1);
+    expect(res.body.settings[0]).toMatchObject({ bars: ['A'], targetOpening: 1 + res.body.settings[0].shift });
+    const exact = await operator.post('/api/stock-check', { ...base, settingAccuracy: 0, bars: [{ id: 'A', width: 1.0, thickness: 0.5, cornerRadius: 0.02 }, { id: 'B', width: 1.045, thickness: 0.5, cornerRadius: 0.02 }] }).expect(200);
+    expect(exact.body.unplaceable).toEqual([]);
+    expect(exact.body.settings.flatMap((s: { bars: string[] }) => s.bars).sort()).toEqual(['A', 'B']);
     expect(await t.db('sessions').count({ n: '*' })).toEqual(before);
   });
 

@@ -99,15 +99,17 @@ describe('StockCheckRequestSchema — refuses, naming the field', () => {
 
 describe('StockCheckResponseSchema', () => {
   const good = {
-    bars: [{ id: 'B1', ok: true, reasons: [], shiftRange: [-0.02, 0.02], d: 0, topHeight: 0.09, bite: 0.06, setting: 0 }],
-    settings: [{ shift: 0, bars: ['B1'] }],
+    bars: [{ id: 'B1', ok: true, reasons: [], shiftRange: [-0.02, 0.02], d: 0, topHeight: 0.09, bite: 0.06, setting: 0, settableRange: [-0.018, 0.018], room: 0.018 }],
+    settings: [{ shift: 0, bars: ['B1'], targetOpening: 1, room: 0.018 }],
     unplaceable: [],
+    settingAccuracy: 0.002,
+    warnings: [],
   };
 
   it('accepts a response and refuses an unknown reason code or a one-ended range', () => {
     expect(StockCheckResponseSchema.safeParse(good).success).toBe(true);
     expect(StockCheckResponseSchema.safeParse({ ...good, bars: [{ ...good.bars[0], reasons: ['loose'] }] }).success).toBe(false);
     expect(StockCheckResponseSchema.safeParse({ ...good, bars: [{ ...good.bars[0], shiftRange: [0] }] }).success).toBe(false);
-    expect(StockCheckResponseSchema.safeParse({ ...good, bars: [{ ...good.bars[0], shiftRange: null, setting: null }] }).success).toBe(true);
+    expect(StockCheckResponseSchema.safeParse({ ...good, bars: [{ ...good.bars[0], shiftRange: null, setting: null, settableRange: null, room: null }] }).success).toBe(true);
   });
 });

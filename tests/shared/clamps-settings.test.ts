@@ -151,12 +151,14 @@ describe('checkStock — settings against brute force on random bars', () => {
       .map((bars) => bars.map((b, i) => ({ id: `B${i + 1}`, ...b }))),
   }) satisfies fc.Arbitrary<StockCheckRequest>;
 
-  it('the fewest settings, each bar inside its own range at its setting, unplaceable = no range', () => {
+  it('the fewest settings, each bar inside its own settable range at its setting, unplaceable = no settable range', () => {
     let multi = 0;
     fc.assert(
       fc.property(request, (req) => {
         const res = checkStock(req);
-        const ranges = res.bars.map((b) => b.shiftRange);
+        // The range a rail set within the accuracy (default 0.002 in) still holds: narrowed on each side.
+        const ranges = res.bars.map((b) => (b.shiftRange && b.shiftRange[1] - b.shiftRange[0] >= 0.004 ? ([b.shiftRange[0] + 0.002, b.shiftRange[1] - 0.002] as [number, number]) : null));
+        expect(res.bars.map((b) => b.settableRange)).toEqual(ranges);
         expect(res.settings.length).toBe(bruteForceMinimum(ranges));
         if (res.settings.length > 1) multi++;
 
@@ -166,10 +168,11 @@ describe('checkStock — settings against brute force on random bars', () => {
           for (const id of setting.bars) {
             const bar = byId.get(id)!;
             expect(bar.setting).toBe(k);
-            expect(bar.shiftRange![0] <= setting.shift && setting.shift <= bar.shiftRange![1]).toBe(true);
+            expect(bar.settableRange![0] <= setting.shift && setting.shift <= bar.settableRange![1]).toBe(true);
+            expect(setting.targetOpening).toBe(req.nominalOpening + setting.shift);
           }
         });
-        expect(res.unplaceable).toEqual(res.bars.filter((b) => b.shiftRange === null).map((b) => b.id));
+        expect(res.unplaceable).toEqual(res.bars.filter((b) => b.settableRange === null).map((b) => b.id));
         expect(res.bars.filter((b) => b.setting === null).map((b) => b.id)).toEqual(res.unplaceable);
         for (const b of res.bars) {
           // accepted at nominal exactly when shift 0 is in the range
@@ -181,5 +184,73 @@ describe('checkStock — settings against brute force on random bars', () => {
     );
     // The comparison must have met lots that need more than one setting.
     expect(multi).toBeGreaterThan(25);
+  });
+});
+
+/**
+ * Among plans with the fewest settings, the most room: brute force over every way of splitting up to
+ * 8 bars into groups (Bell(8) = 4,140 set partitions). A group's best setting is the middle of its
+ * common interval, leaving half its width as room; a plan's room is its tightest group's.
+ */
+type Span = readonly [number, number];
+function bruteForceBest(ranges: readonly Range[]): { settings: number; room: number } {
+  const items: Span[] = ranges.flatMap((r) => (r ? [r] : []));
+  if (!items.length) return { settings: 0, room: Infinity };
+  let best = { settings: Infinity, room: -Infinity };
+  const groups: Span[] = [];
+  const place = (k: number) => {
+    if (groups.length > best.settings) return;
+    if (k === items.length) {
+      const room = Math.min(...groups.map(([a, b]) => (b - a) / 2));
+      if (groups.length < best.settings || (groups.length === best.settings && room > best.room)) best = { settings: groups.length, room };
+      return;
+    }
+    const [lo, hi] = items[k]!;
+    for (let g = 0; g < groups.length; g++) {
+      const [a, b] = groups[g]!;
+      const common: Span = [Math.max(a, lo), Math.min(b, hi)];
+      if (common[0] > common[1]) continue;
+      groups[g] = common;
+      place(k + 1);
+      groups[g] = [a, b];
+    }
+    groups.push([lo, hi]);
+    place(k + 1);
+    groups.pop();
+  };
+  place(0);
+  return best;
+}
+
+describe('planRailSettings — the most room among the fewest settings, against brute force', () => {
+  const upTo8 = fc.array(fc.oneof({ weight: 5, arbitrary: fc.oneof(gridInterval, contInterval) }, { weight: 1, arbitrary: fc.constant(null) }), { minLength: 1, maxLength: 8 });
+  it('leaves as much room as the best partition, with as few settings', () => {
+    let multi = 0;
+    fc.assert(
+      fc.property(upTo8, (ranges) => {
+        const want = bruteForceBest(ranges);
+        // 12 decimals: no rounding of the setting, so the comparison is of the plan itself.
+        const plans = planRailSettings(ranges, 12);
+        expect(plans.length).toBe(want.settings);
+        if (!plans.length) return;
+        if (plans.length > 1) multi++;
+        const room = Math.min(...plans.flatMap((p) => p.members.map((i) => Math.min(p.shift - ranges[i]![0], ranges[i]![1] - p.shift))));
+        expect(room).toBeGreaterThanOrEqual(want.room - 1e-9);
+        expect(room).toBeLessThanOrEqual(want.room + 1e-9);
+      }),
+      { numRuns: 3000, seed: 8 },
+    );
+    expect(multi).toBeGreaterThan(50);
+  });
+
+  it('the case where the fewest settings alone left ±0.0005 in and ±0.0035 in was possible', () => {
+    // Settable ranges (in): A [−0.010, −0.003], B [0.000, 0.007], C [−0.004, 0.003]. A and B are
+    // disjoint, so two settings. Right ends alone would set −0.003 (A, C) and 0.007 (B): no room at
+    // all. Putting C with A leaves half of their common [−0.004, −0.003]: ±0.0005. Putting C with B
+    // instead: A alone at −0.0065 (±0.0035), B and C at the middle of [0.000, 0.003], 0.0015 (±0.0015).
+    const plans = planRailSettings([[-0.01, -0.003], [0, 0.007], [-0.004, 0.003]], 4);
+    expect(plans.map((p) => [p.shift, p.members])).toEqual([[-0.0065, [0]], [0.0015, [1, 2]]]);
+    const room = (p: (typeof plans)[number]) => Math.min(...p.members.map((i) => Math.min(p.shift - [[-0.01, -0.003], [0, 0.007], [-0.004, 0.003]][i]![0]!, [[-0.01, -0.003], [0, 0.007], [-0.004, 0.003]][i]![1]! - p.shift)));
+    expect(plans.map(room).map((r) => Number(r.toFixed(6)))).toEqual([0.0035, 0.0015]);
   });
 });

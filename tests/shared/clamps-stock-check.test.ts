@@ -59,12 +59,33 @@ describe('checkStock — a hand-worked lot', () => {
     // By right end: F (−0.015), D (−0.010), A (0.020, starts −0.020), E (0.020, starts 0.015).
     // −0.015 stabs F, D, A (each starts at −0.020); E starts at 0.015 > −0.015 → a second setting.
     // Setting 1 common [−0.020, −0.015] → middle −0.0175; setting 2 common [0.015, 0.020] → 0.0175.
-    expect(res.settings).toEqual([
-      { shift: -0.0175, bars: ['A', 'D', 'F'] },
-      { shift: 0.0175, bars: ['E'] },
-    ]);
+    // The default setting accuracy (0.002 in) narrows each range by 0.002 a side: F [−0.018, −0.017],
+    // D [−0.018, −0.012], A [−0.018, 0.018], E [0.017, 0.018]: the same two settings, each leaving
+    // ±0.0005 beyond the accuracy (half of [−0.018, −0.017] and of [0.017, 0.018]).
+    expect(res.settings.map((s) => [s.shift, s.bars])).toEqual([[-0.0175, ['A', 'D', 'F']], [0.0175, ['E']]]);
+    expect(res.settings.map((s) => s.targetOpening)).toEqual([1 - 0.0175, 1 + 0.0175]); // nominal + shift
+    for (const s of res.settings) expect(close(s.room, 0.0005)).toBe(true);
+    expect(res.settingAccuracy).toBe(0.002);
     expect(res.unplaceable).toEqual(['B', 'C']);
     expect(res.bars.map((b) => b.setting)).toEqual([0, null, null, 0, 1, 0]);
+  });
+
+  it('narrows by the setting accuracy given: a bar whose range is narrower than twice it cannot be set', () => {
+    // E's range [0.015, 0.020] is 0.005 wide: with ±0.003 of setting error it keeps [0.018, 0.017], nothing.
+    const tight = checkStock(request({ bars: lot.bars, settingAccuracy: 0.003 }));
+    expect(tight.unplaceable).toEqual(['B', 'C', 'E', 'F']);
+    // With 0 the old ranges are planned as they are: the same two settings, ±0.0025 each.
+    const exact = checkStock(request({ bars: lot.bars, settingAccuracy: 0 }));
+    expect(exact.settings.map((s) => s.bars)).toEqual([['A', 'D', 'F'], ['E']]);
+    for (const s of exact.settings) expect(close(s.room, 0.0025)).toBe(true);
+  });
+
+  it('flags a fixed jaw whose top stands above the carrier less the clearance', () => {
+    // carrier 0.125 − clearance 0.020 = 0.105: a jaw top of 0.100 passes, 0.110 does not.
+    expect(checkStock(request({ bars: lot.bars, fixedTop: 0.1 })).warnings).toEqual([]);
+    const w = checkStock(request({ bars: lot.bars, fixedTop: 0.11 })).warnings;
+    expect(w.map((x) => x.code)).toEqual(['fixed-top-above-carrier']);
+    expect(w[0]!.message).toContain('(0.1250 in − 0.0200 in = 0.1050 in)');
   });
 
   it('reports the additive values at shift 0', () => {

@@ -125,21 +125,29 @@ const HAND_CASES: HandCase[] = [
     shiftRange: null, // s = 0.100 − d ≥ 0.070 > 0.020
   },
   {
-    name: 'face capped by the top corner of a thin bar, not the carrier',
+    name: 'a bar thinner than the carrier',
     bar: { width: 1.0, thickness: 0.07, cornerRadius: 0.01 },
-    reasons: [],
+    // T = 0.070 ≤ carrier 0.125: thinner-than-carrier; the top must clear min(0.125, 0.070) − 0.020 = 0.050,
+    // and 0.090 > 0.050: clamp-above-carrier. No shift makes a bar thicker, so no range.
+    reasons: ['thinner-than-carrier', 'clamp-above-carrier'],
     d: 0,
     topHeight: 0.09,
     bite: 0.04, // face [0.010, min(0.125, 0.070 − 0.010 = 0.060)]; band [0.020, 0.080] → [0.020, 0.060] = 0.040 (on the limit)
-    // bite: 0.060 − 0.020 − 0.5d ≥ 0.040 → d ≤ 0 (+2ε); 0.080 + 0.5d − 0.010 ≥ 0.040 → d ≥ −0.060;
-    // fits d ≥ −0.030 → d ∈ [−0.030, 0]; s = −d ∈ [0, 0.030] ∩ [−0.020, 0.020]
-    shiftRange: [0, 0.02],
+    shiftRange: null,
   },
 ];
 
 const close = (a: number, b: number, tol = 1e-8) => Math.abs(a - b) <= tol;
 
 describe('evaluateBar — hand-worked cases', () => {
+  it('refuses a 0.150 in bar on a 0.250 in carrier: the clamp top stands above the bar', () => {
+    // carrier 0.250, clearance 0.020; clamp top 0.160 at d = 0. Against the carrier alone the top
+    // passes (0.160 ≤ 0.250 − 0.020 = 0.230); against the bar it does not (0.160 > min(0.250, 0.150) − 0.020 = 0.130).
+    const w = evaluateBar(NOMINAL, { ...CLAMP, topHeight: 0.16 }, { ...JOB, carrier: 0.25 }, { width: 1.0, thickness: 0.15, cornerRadius: 0.01 });
+    expect(w.reasons).toEqual(['thinner-than-carrier', 'clamp-above-carrier']);
+    expect(w.shiftRange).toBeNull();
+  });
+
   it.each(HAND_CASES)('$name', (c) => {
     const w = evaluateBar(NOMINAL, { ...CLAMP, ...c.clamp }, JOB, c.bar);
     expect(w.reasons).toEqual(c.reasons);
@@ -157,7 +165,7 @@ describe('evaluateBar — hand-worked cases', () => {
 
   it('covers every reason code, an accepted bar and a bar that needs a shift', () => {
     const codes = new Set(HAND_CASES.flatMap((c) => c.reasons));
-    expect([...codes].sort()).toEqual(['clamp-above-carrier', 'short-bite', 'too-narrow', 'too-wide']);
+    expect([...codes].sort()).toEqual(['clamp-above-carrier', 'short-bite', 'thinner-than-carrier', 'too-narrow', 'too-wide']);
     expect(HAND_CASES.some((c) => c.reasons.length === 0)).toBe(true);
     expect(HAND_CASES.some((c) => c.reasons.length > 0 && c.shiftRange !== null)).toBe(true);
   });
@@ -231,7 +239,9 @@ describe('evaluateBar — floating point at the window ends', () => {
 function feasibleByDefinition(nominal: number, c: ClampModel, job: ClampJob, bar: BarSize, s: number, eps: number): boolean {
   const d = bar.width - (nominal + s);
   if (d < -c.acceptBelow - eps || d > c.acceptAbove + eps) return false;
-  if (c.topHeight + c.topSlope * d > job.carrier - job.clearance + eps) return false;
+  // A bar must be thicker than the carrier, and the top must clear the lower of carrier and bar.
+  if (bar.thickness <= job.carrier + eps) return false;
+  if (c.topHeight + c.topSlope * d > Math.min(job.carrier, bar.thickness) - job.clearance + eps) return false;
   const faceLo = bar.cornerRadius;
   const faceHi = Math.min(job.carrier, bar.thickness - bar.cornerRadius);
   const overlap = Math.min(c.gripHigh + c.gripSlope * d, faceHi) - Math.max(c.gripLow + c.gripSlope * d, faceLo);
@@ -336,6 +346,8 @@ const opened = (arb: fc.Arbitrary<ScanCase>) =>
     clamp: { ...tc.clamp, acceptBelow: 0.06, acceptAbove: 0.06, slotSlop: 0.05, topHeight: tc.clamp.topHeight / 4 },
     job: { ...tc.job, carrier: 0.4, minBite: tc.job.minBite / 4 },
     cornerRadius: tc.cornerRadius / 4,
+    // thicker than the 0.400 carrier, so the bar is not refused outright as thinner than the carrier
+    thickness: 0.45 + tc.thickness,
   }));
 
 describe('evaluateBar — feasible interval against a dense scan of s', () => {

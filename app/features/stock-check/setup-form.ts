@@ -40,12 +40,14 @@ export const SetupFormSchema = z.object({
   carrier: lengthText(R.carrier),
   clearance: lengthText(R.clearance),
   minBite: lengthText(R.minBite),
+  // Empty: the unit's default (0.002 in / 0.05 mm), said beside the field.
+  settingAccuracy: z.string().transform(fromText).pipe(R.settingAccuracy),
   stockWidth: stockSize('Nominal stock width'),
   stockThickness: stockSize('Nominal stock thickness'),
 });
 export type SetupFormText = z.input<typeof SetupFormSchema>;
 export type SetupFormValues = z.output<typeof SetupFormSchema>;
-export type SetupLengthField = 'nominalOpening' | 'carrier' | 'clearance' | 'minBite' | 'stockWidth' | 'stockThickness';
+export type SetupLengthField = 'nominalOpening' | 'carrier' | 'clearance' | 'minBite' | 'settingAccuracy' | 'stockWidth' | 'stockThickness';
 
 /** What the operator reads beside each field, and in place of the JSON key in the schema's messages. */
 export const SETUP_LABEL: Readonly<Record<SetupLengthField, string>> = {
@@ -53,6 +55,7 @@ export const SETUP_LABEL: Readonly<Record<SetupLengthField, string>> = {
   carrier: 'Carrier thickness',
   clearance: 'Tool clearance',
   minBite: 'Minimum bite',
+  settingAccuracy: 'Rail setting accuracy (±)',
   stockWidth: 'Nominal stock width',
   stockThickness: 'Nominal stock thickness',
 };
@@ -70,7 +73,7 @@ export function formMessage(field: SetupLengthField, message: string | undefined
 export const DEFAULT_OPENING: Readonly<Record<Unit, number>> = { in: 1, mm: 25 };
 
 export function defaultSetupText(unit: Unit = 'in'): SetupFormText {
-  return { railId: '', nominalOpening: formatNumber(DEFAULT_OPENING[unit], unit), carrier: '', clearance: '', minBite: '', stockWidth: '', stockThickness: '' };
+  return { railId: '', nominalOpening: formatNumber(DEFAULT_OPENING[unit], unit), carrier: '', clearance: '', minBite: '', settingAccuracy: '', stockWidth: '', stockThickness: '' };
 }
 
 /**
@@ -90,6 +93,7 @@ export function convertSetupText(values: SetupFormText, from: Unit, to: Unit): S
     carrier: conv(values.carrier),
     clearance: conv(values.clearance),
     minBite: conv(values.minBite),
+    settingAccuracy: conv(values.settingAccuracy),
     stockWidth: conv(values.stockWidth),
     stockThickness: conv(values.stockThickness),
   };

@@ -14,6 +14,7 @@ export const VERDICT_WORD: Readonly<Record<Verdict, string>> = {
   accepted: 'accepted',
   'too-narrow': 'too narrow',
   'too-wide': 'too wide',
+  'thinner-than-carrier': 'thinner than the carrier',
   'clamp-above-carrier': 'clamp above carrier — collision risk',
   'short-bite': 'short bite — pull-out risk',
 };
@@ -31,12 +32,14 @@ export const VERDICT_TONE: Readonly<Record<Verdict, VerdictTone>> = {
   accepted: 'safe',
   'too-narrow': 'caution',
   'too-wide': 'caution',
+  // The clamp top then stands above the bar the tool cuts: the same collision as a clamp above the carrier.
+  'thinner-than-carrier': 'danger',
   'clamp-above-carrier': 'danger',
   'short-bite': 'warning',
 };
 
 /** Worst first: where one mark stands for a bar (the chart), it shows the gravest refusal. */
-const SEVERITY: readonly Verdict[] = ['clamp-above-carrier', 'short-bite', 'too-wide', 'too-narrow', 'accepted'];
+const SEVERITY: readonly Verdict[] = ['thinner-than-carrier', 'clamp-above-carrier', 'short-bite', 'too-wide', 'too-narrow', 'accepted'];
 
 export function worstVerdict(reasons: readonly StockCheckReason[]): Verdict {
   return SEVERITY.find((v) => v !== 'accepted' && reasons.includes(v)) ?? 'accepted';

@@ -89,6 +89,7 @@ export function SetupFields({ form, rails, rail, onRailChange }: {
         <LengthField form={form} field="carrier" unit={unit} />
         <LengthField form={form} field="clearance" unit={unit} />
         <LengthField form={form} field="minBite" unit={unit} />
+        <LengthField form={form} field="settingAccuracy" unit={unit} hint={`how closely the operator sets a rail; empty for ${unit === 'mm' ? '0.050 mm' : '0.0020 in'}`} />
       </div>
     </section>
   );

@@ -64,7 +64,7 @@ export function StockCheckScreen({ components }: { components: readonly Componen
     const from = unitRef.current;
     unitRef.current = next.unit;
     const text = convertSetupText(form.getValues(), from, next.unit);
-    for (const f of ['nominalOpening', 'carrier', 'clearance', 'minBite', 'stockWidth', 'stockThickness'] as const satisfies readonly SetupLengthField[]) {
+    for (const f of ['nominalOpening', 'carrier', 'clearance', 'minBite', 'settingAccuracy', 'stockWidth', 'stockThickness'] as const satisfies readonly SetupLengthField[]) {
       form.setValue(f, text[f]);
     }
     setRows((rs) => convertRows(rs, from, next.unit));
@@ -104,7 +104,7 @@ export function StockCheckScreen({ components }: { components: readonly Componen
     if (!table) return;
     const input: StockCheckRequestInput = {
       unit: chosen.unit, nominalOpening: setup.nominalOpening, clamp: chosen.clamp,
-      carrier: setup.carrier, clearance: setup.clearance, minBite: setup.minBite, bars: table.bars,
+      carrier: setup.carrier, clearance: setup.clearance, minBite: setup.minBite, settingAccuracy: setup.settingAccuracy, bars: table.bars,
     };
     // The same schema the route applies; the table and the form have checked each cell, so this is the last word on the whole.
     const parsed = StockCheckRequestSchema.safeParse(input);
@@ -126,7 +126,7 @@ export function StockCheckScreen({ components }: { components: readonly Componen
           if (m && field && (BAR_FIELDS as readonly string[]).includes(field)) {
             const index = table.rowOf[Number(m[1])] ?? 0;
             rowIssues.push({ index, field, message: `row ${index + 1}, ${BAR_FIELD_LABEL[field]}: ${issue.message}` });
-          } else if (['nominalOpening', 'carrier', 'clearance', 'minBite'].includes(issue.path)) {
+          } else if (['nominalOpening', 'carrier', 'clearance', 'minBite', 'settingAccuracy'].includes(issue.path)) {
             form.setError(issue.path as SetupLengthField, { type: 'server', message: issue.message });
           }
         }

@@ -1,10 +1,11 @@
-import { ChevronsLeftRight, ChevronsRightLeft, CircleCheck, OctagonAlert, TriangleAlert } from 'lucide-react';
+import { ChevronsLeftRight, ChevronsRightLeft, CircleCheck, Layers2, OctagonAlert, TriangleAlert } from 'lucide-react';
 import { VERDICT_TONE, VERDICT_WORD, verdictSentence, type Verdict, type VerdictTone } from '../verdicts';
 
 const ICON: Readonly<Record<Verdict, typeof CircleCheck>> = {
   accepted: CircleCheck,
   'too-narrow': ChevronsRightLeft,
   'too-wide': ChevronsLeftRight,
+  'thinner-than-carrier': Layers2,
   'clamp-above-carrier': OctagonAlert,
   'short-bite': TriangleAlert,
 };
