@@ -1,3 +1,4 @@
+import './linear-regexp';
 import { existsSync } from 'node:fs';
 import path from 'node:path';
 import express, { Router } from 'express';
@@ -56,6 +57,10 @@ export interface AppDeps {
   publicUrl?: string;
   /** Where unexpected errors are logged; tests pass a collector. */
   log?: (err: unknown) => void;
+  /** Served to browsers over HTTPS (GRIDSET_HTTPS=1): every answer then asks for HTTPS only. */
+  https?: boolean;
+  /** Express's `trust proxy` (TRUST_PROXY): which proxies' X-Forwarded-* headers to believe; loopback by default. */
+  trustProxy?: string | boolean | number;
 }
 
 export type GridsetApp = express.Express & {
@@ -81,8 +86,12 @@ export function createApp(deps: AppDeps): GridsetApp {
 
   const app = express() as GridsetApp;
   app.disable('x-powered-by');
-  app.set('trust proxy', 'loopback');
-  app.use(helmet());
+  app.set('trust proxy', deps.trustProxy ?? 'loopback');
+  // HTTPS-only headers (HSTS, upgrade-insecure-requests) only where the browser came over HTTPS: on
+  // a plain-HTTP shop network they would make http://server:3000 load no script at all.
+  const overHttp = helmet({ contentSecurityPolicy: { directives: { upgradeInsecureRequests: null } }, strictTransportSecurity: false });
+  const overHttps = helmet();
+  app.use((req, res, next) => (deps.https || req.secure ? overHttps : overHttp)(req, res, next));
 
   const api = Router();
   api.use(express.json({ limit: '10mb' }));

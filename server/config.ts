@@ -13,6 +13,10 @@ export interface Config {
   /** The From of every mail (GRIDSET_MAIL_FROM). */
   mailFrom: string | undefined;
   publicUrl: string;
+  /** GRIDSET_HTTPS=1: browsers reach Gridset over HTTPS (a TLS proxy in front): send HSTS and upgrade requests. */
+  https: boolean;
+  /** TRUST_PROXY: the proxies whose X-Forwarded-Proto and -For are believed (Express "trust proxy"); loopback by default. */
+  trustProxy: string | boolean | number;
 }
 
 /** Reads the environment once at start-up; the secret is generated and kept in the data dir when unset. */
@@ -32,7 +36,17 @@ export function readConfig(env: NodeJS.ProcessEnv = process.env): Config {
     smtpUrl: env.SMTP_URL || undefined,
     mailFrom: env.GRIDSET_MAIL_FROM || undefined,
     publicUrl: env.GRIDSET_PUBLIC_URL ?? `http://localhost:${port}`,
+    https: env.GRIDSET_HTTPS === '1' || env.GRIDSET_HTTPS === 'true',
+    trustProxy: trustProxyOf(env.TRUST_PROXY),
   };
+}
+
+/** "true", a hop count, or addresses / subnet names as Express takes them ("loopback, 10.0.0.0/8"). */
+function trustProxyOf(value: string | undefined): string | boolean | number {
+  if (!value) return 'loopback';
+  if (value === 'true') return true;
+  if (value === 'false') return false;
+  return /^\d+$/.test(value) ? Number(value) : value;
 }
 
 function loadOrCreateSecret(dataDir: string): string {

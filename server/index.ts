@@ -24,18 +24,31 @@ async function main() {
     uploadLimitBytes: config.uploadLimitBytes,
     mailer: createMailer({ db, dataDir: config.dataDir, smtpUrl: config.smtpUrl, from: config.mailFrom }),
     publicUrl: config.publicUrl,
+    https: config.https,
+    trustProxy: config.trustProxy,
   });
   const server = app.listen(config.port, () => {
     console.log(`Gridset is serving http://localhost:${config.port} (data in ${config.dataDir})`);
     console.log(config.smtpUrl ? 'Mail goes out by SMTP (SMTP_URL).' : `Mail stays in the local outbox (${path.join(config.dataDir, 'outbox')}); admins read it under Outbox.`);
   });
+  server.on('error', (err: NodeJS.ErrnoException) => {
+    console.error(err.code === 'EADDRINUSE'
+      ? `Gridset cannot start: port ${config.port} is taken by another program (another Gridset?). Stop it, or start with PORT=<another port>.`
+      : `Gridset cannot start: ${err.message}`);
+    process.exit(1);
+  });
+  // A request's error is answered by the error handler; one that escapes it (a promise no one awaited)
+  // is logged, and the server goes on serving the others rather than ending for everyone.
+  process.on('unhandledRejection', (reason) => console.error('Unhandled rejection (the server goes on):', reason));
   // Mails still being sent after their answer (password resets) finish before the database closes.
   const stop = () => server.close(() => app.locals.whenIdle().then(() => db.destroy()).then(() => process.exit(0)));
   process.on('SIGINT', stop);
   process.on('SIGTERM', stop);
 }
 
-main().catch((err) => {
-  console.error(err);
+main().catch((err: NodeJS.ErrnoException) => {
+  // A data folder the server cannot write is said in one line, not as a stack.
+  const folder = ['EACCES', 'EROFS', 'ENOSPC', 'EPERM', 'SQLITE_CANTOPEN', 'SQLITE_READONLY'].includes(String(err?.code));
+  console.error(folder ? `Gridset cannot start: its data folder cannot be written (${err.code}: ${err.message}). Check GRIDSET_DATA_DIR and its permissions and free space.` : err);
   process.exit(1);
 });

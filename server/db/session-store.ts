@@ -25,7 +25,15 @@ export class SessionStore extends ConnectSessionKnexStore {
     }
     if (this.lastTouch.size > 10_000) this.lastTouch.clear();
     this.lastTouch.set(sid, now);
-    return super.touch(sid, session, callback);
+    // connect-session-knex's touch has no catch: a failed write (disk full, read-only, busy) would be
+    // an unhandled rejection that ends the process. Passed to express-session instead, it becomes the
+    // request's error, answered 503 by the error handler.
+    try {
+      await super.touch(sid, session, callback);
+    } catch (err) {
+      this.lastTouch.delete(sid);
+      (callback as ((err?: unknown) => void) | undefined)?.(err);
+    }
   }
 
   override async destroy(sid: string, callback?: (err?: unknown) => void): Promise<number> {

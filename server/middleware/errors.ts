@@ -39,8 +39,37 @@ export const apiNotFound: RequestHandler = (req) => {
   throw new HttpError(404, 'not-found', `There is no API route ${req.method} ${req.path}.`);
 };
 
+/**
+ * Faults of the machine, not of the request: the disk is full or read-only, or the database is busy
+ * or locked past its timeout (Node's errno codes; SQLite result codes, sqlite.org/rescode.html).
+ * Retrying later can work, so they answer 503, never the 500 of a bug.
+ */
+const UNAVAILABLE: Record<string, string> = {
+  ENOSPC: 'The server is out of disk space, so nothing was saved; tell whoever runs Gridset, then try again.',
+  EDQUOT: 'The server is out of disk space, so nothing was saved; tell whoever runs Gridset, then try again.',
+  SQLITE_FULL: 'The server is out of disk space, so nothing was saved; tell whoever runs Gridset, then try again.',
+  EROFS: 'The server cannot write its data folder (it is read-only), so nothing was saved; tell whoever runs Gridset.',
+  EACCES: 'The server may not write its data folder, so nothing was saved; tell whoever runs Gridset.',
+  SQLITE_READONLY: 'The server cannot write its database (it is read-only), so nothing was saved; tell whoever runs Gridset.',
+  SQLITE_BUSY: 'The database is busy with other work; nothing was saved, so try again in a moment.',
+  SQLITE_LOCKED: 'The database is busy with other work; nothing was saved, so try again in a moment.',
+  SQLITE_IOERR: 'The server could not read or write its disk; nothing was saved. Tell whoever runs Gridset.',
+};
+
+/** The 503 sentence for a fault of the machine, or null. SQLite extended codes (SQLITE_IOERR_WRITE …) count as their primary. */
+export function unavailableMessage(err: unknown): string | null {
+  const code = typeof (err as { code?: unknown })?.code === 'string' ? (err as { code: string }).code : '';
+  return UNAVAILABLE[code] ?? UNAVAILABLE[code.split('_').slice(0, 2).join('_')] ?? null;
+}
+
 export function errorHandler(log: (err: unknown) => void = console.error): ErrorRequestHandler {
   return (err, _req, res, _next) => {
+    if (res.headersSent) {
+      // Part of a file went out already: all that is left is to end the answer, never the process.
+      log(err);
+      res.end();
+      return;
+    }
     if (err instanceof ZodError) {
       const e = validationError(err);
       res.status(e.status).json({ error: { code: e.code, message: e.message, details: e.details } });
@@ -60,6 +89,12 @@ export function errorHandler(log: (err: unknown) => void = console.error): Error
             ? 'The request body is too large.'
             : String(err.message || 'The request was refused.');
       res.status(status).json({ error: { code: err.code ? String(err.code).toLowerCase() : 'bad-request', message, details: null } });
+      return;
+    }
+    const unavailable = unavailableMessage(err);
+    if (unavailable) {
+      log(err);
+      res.status(503).set('Retry-After', '30').json({ error: { code: 'unavailable', message: unavailable, details: null } });
       return;
     }
     log(err);

@@ -5,6 +5,7 @@
 import type { NamingCheckResult, NamingProblem, NamingRule, NamingTarget, NamingToken } from '../schemas/naming';
 import { DXF_CHARS_IN_WORDS, DXF_NAME_MAX_LENGTH, dxfBadChars } from './dxf-names';
 import { bestSplit, describeMisses, diagnose, outranks, respellThrough, type CompiledPattern, type CompiledToken, type Segment, type Split } from './match-pattern';
+import { compileTokenMatcher } from './linear-regex';
 import { describeNumberFormat, fitsNumberFormat, formatNumber, parseNumberFormat, respellNumber } from './number-format';
 import { TOKEN_NAME, parsePattern } from './pattern';
 import { listInWords, listValues, plural, quote, showChar } from './words';
@@ -245,13 +246,11 @@ function compileToken(
         add(path, `Token ${name} has an empty regular expression; write one, such as [A-Z0-9]+.`);
         return null;
       }
-      let re: RegExp;
-      try {
-        // Compiled alone first: an unbalanced ")" would otherwise close the anchoring group.
-        new RegExp(token.regex);
-        re = new RegExp(`^(?:${token.regex})$`, 'i');
-      } catch (e) {
-        add(path, `Token ${name} has a regular expression that does not compile (${e instanceof Error ? e.message : String(e)}); fix it.`);
+      const matcher = compileTokenMatcher(token.regex);
+      if (!matcher.ok) {
+        add(path, matcher.reason === 'syntax'
+          ? `Token ${name} has a regular expression that does not compile (${matcher.message}); fix it.`
+          : `Token ${name} has a regular expression that cannot be checked safely: ${matcher.message}; write it without.`);
         return null;
       }
       if (hasNestedRepeat(token.regex)) {
@@ -262,7 +261,7 @@ function compileToken(
       return {
         name,
         check: (value) =>
-          re.test(value) ? null : hint ? `${name}: ${quote(value)} must be ${hint}.` : `${name}: ${quote(value)} does not match ${token.regex}.`,
+          matcher.test(value) ? null : hint ? `${name}: ${quote(value)} must be ${hint}.` : `${name}: ${quote(value)} does not match ${token.regex}.`,
         respell: () => null,
       };
     }

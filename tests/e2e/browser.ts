@@ -23,8 +23,12 @@ export interface E2E {
   close(): Promise<void>;
 }
 
-/** A real server on a free port over a fresh SQLite file, and a fresh Chromium profile. */
-export async function startE2E(): Promise<E2E> {
+/**
+ * A real server on a free port over a fresh SQLite file, and a fresh Chromium profile. With `host`,
+ * Chromium resolves that name to the server (as a shop's DNS would) and every page is opened
+ * through it, so the browser treats the site as any other plain-HTTP origin, not as localhost.
+ */
+export async function startE2E(options: { host?: string } = {}): Promise<E2E> {
   const dataDir = mkdtempSync(path.join(os.tmpdir(), 'gridset-e2e-'));
   const db = openDb(path.join(dataDir, 'e2e.sqlite'));
   await migrate(db);
@@ -33,9 +37,10 @@ export async function startE2E(): Promise<E2E> {
   const server: Server = await new Promise((resolve) => {
     const s = app.listen(0, '127.0.0.1', () => resolve(s));
   });
-  const baseUrl = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
+  const baseUrl = `http://${options.host ?? '127.0.0.1'}:${(server.address() as AddressInfo).port}`;
   const profile = mkdtempSync(path.join(os.tmpdir(), 'gridset-chromium-'));
-  const context = await chromium.launchPersistentContext(profile, { executablePath: CHROMIUM_PATH, headless: true, args: CHROMIUM_ARGS, viewport: { width: 1280, height: 900 } });
+  const args = options.host ? [...CHROMIUM_ARGS, `--host-resolver-rules=MAP ${options.host} 127.0.0.1`] : CHROMIUM_ARGS;
+  const context = await chromium.launchPersistentContext(profile, { executablePath: CHROMIUM_PATH, headless: true, args, viewport: { width: 1280, height: 900 } });
   return {
     baseUrl, db, context,
     async newPage() {

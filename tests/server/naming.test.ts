@@ -85,3 +85,29 @@ describe('drawing export and the naming convention', () => {
     expect((await programmer.get('/api/templates/2/versions/1/drawing.dxf')).status).toBe(200);
   });
 });
+
+describe('naming patterns that cannot freeze the server', () => {
+  it('checks a name against (A|A)+ at once: the server matches in linear time', async () => {
+    // (A|A)+ against A…AB backtracks through 2^n ways in a backtracking engine (Cox, "Regular
+    // Expression Matching Can Be Simple And Fast", 2007): at 40 characters that would outlast the
+    // test's time limit by days; V8's linear-time engine answers in one pass.
+    const { version: _v, ...rules } = DEMO_CONVENTION;
+    const evil = { ...rules, component: { ...rules.component, case: 'any' as const, patterns: ['{part}'], tokens: [{ name: 'part', type: 'regex', regex: '(A|A)+' }] } };
+    await lead.put('/api/naming/convention', evil).expect(200);
+    const res = await programmer.post('/api/naming/check', { target: 'component', name: `${'A'.repeat(39)}B` }).expect(200);
+    expect(res.body.ok).toBe(false);
+    expect((await programmer.post('/api/naming/check', { target: 'component', name: 'AAAA' }).expect(200)).body.ok).toBe(true);
+    // Case still folds: a lowercase name fits an uppercase pattern, as the rule's regex tokens always have.
+    expect((await programmer.post('/api/naming/check', { target: 'component', name: 'aaa' }).expect(200)).body.ok).toBe(true);
+    await lead.put('/api/naming/convention', rules).expect(200);
+  });
+
+  it('refuses a pattern the linear engine cannot run (a back-reference), saying why, and keeps the old rules', async () => {
+    const before = (await programmer.get('/api/naming/convention')).body.version;
+    const { version: _v, ...rules } = DEMO_CONVENTION;
+    const res = await lead.put('/api/naming/convention', { ...rules, layer: { ...rules.layer, patterns: ['{part}'], tokens: [{ name: 'part', type: 'regex', regex: '(A)\\1' }] } });
+    expect(res.status).toBe(400);
+    expect(JSON.stringify(res.body.error)).toMatch(/back-reference or a look-around/);
+    expect((await programmer.get('/api/naming/convention')).body.version).toBe(before);
+  });
+});
