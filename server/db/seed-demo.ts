@@ -183,7 +183,7 @@ async function seedDemoJob(db: Db, templates: ReturnType<typeof templatesService
   const job = await jobs.create(lead, {
     name: 'Bracket BR-1001, night run', partNumber: 'BR-1001', partRevision: 'B', templateId: 1, version: 1,
     stock: { width: 1, thickness: 0.5, length: 0.875, material: '6061-T6 bar' },
-    carrier: 0.25, clearance: 0.03, minBite: 0.06, cycleMinutes: 13, loadMinutes: 10, notes: 'Demo job: invented part.',
+    carrier: 0.25, clearance: 0.03, minBite: 0.06, cycleMinutes: 13, loadMinutes: 10, notes: 'Demo job: invented part.', partRotation: 0,
   });
   // 0.850 in along the rail × 1.000 in across the jaws (the width held), with a 0.100 in radius on the
   // far corners (bulge tan(22.5°) = 0.414214 for a quarter arc, DXF Reference group 42) and a 0.257 in
