@@ -36,7 +36,7 @@ export function JobDrawing({ job, plateCode, offsetName }: { job: JobDetail; pla
         ) : null}
         <span className="inline-flex items-center gap-1.5"><svg aria-hidden width="16" height="16"><path d="M2 8h12M8 2v12" stroke="#333" strokeWidth="1.5" /></svg>station datum and number</span>
         {job.stationsUsed.length < job.stations ? (
-          <span className="inline-flex items-center gap-1.5"><svg aria-hidden width="16" height="16"><path d="M2 8h12M8 2v12" stroke="#b4b4b4" strokeWidth="1.5" /></svg>greyed: station not used (its width held does not take this stock)</span>
+          <span className="inline-flex items-center gap-1.5"><svg aria-hidden width="16" height="16"><circle cx="8" cy="8" r="5" fill="none" stroke="#a0a0a0" strokeWidth="1.5" /></svg>grey ring, “unused”: station whose width held does not take this stock</span>
         ) : null}
         <span className="inline-flex items-center gap-1.5"><svg aria-hidden width="16" height="16"><path d="M0 8h16M8 0v16" stroke="#000" strokeWidth="1.5" /></svg>shared offset {offsetName} (origin)</span>
         <span className="inline-flex items-center gap-1.5"><svg aria-hidden width="24" height="14"><rect x="1" y="1" width="22" height="12" fill="none" stroke="#505050" strokeWidth="1.5" /></svg>rails and stops, labelled placement and code</span>
