@@ -196,8 +196,8 @@ async function seedDemoJob(db: Db, templates: ReturnType<typeof templatesService
   await jobs.setPartOutline(lead, job.id, outline, { name: 'BR-1001-rev-B.dxf', size: 0, sha256: 'demo', unit: 'in', datum: { x: 0, y: 0 } });
   const operator = (await usersRepo(db).findWithHashByEmail('operator@gridset.test'))!;
   const widths = [0.998, 1.004, 1.012, 1.021, 1.036, 0.991, 1.043, 0.962, 1.009, 1.028];
+  // No jawPlacement: the bars are checked against every rail the job uses (A-JR and C-JR, both 1.000 in).
   await jobs.stockCheck(operator, job.id, {
-    jawPlacement: 'A-JR',
     bars: widths.map((w, i) => ({ id: `L7-${String(i + 1).padStart(2, '0')}`, width: w, thickness: 0.5 + ((i % 3) - 1) * 0.004, cornerRadius: i === 7 ? 0.05 : 0.02 })),
   });
 }

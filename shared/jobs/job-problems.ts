@@ -5,7 +5,7 @@ import type { Point, Unit } from '../schemas/common';
 import type { Outline } from '../schemas/geometry';
 import type { Placement, Station, TemplateComponent } from '../schemas/template';
 import { componentGeometryIn } from '../geometry/component-geometry';
-import { boxOfPoints, footprintsOverlap, outlineFootprint, overlappingBoxPairs, type Polygon } from '../geometry/outline';
+import { boxOfPoints, footprintsOverlap, outlineBounds, outlineFootprint, overlappingBoxPairs, type Polygon } from '../geometry/outline';
 import { applyTransform, cosSinDeg, placementTransform } from '../geometry/transform';
 import { convert, formatLength } from '../units/units';
 import type { JobRail } from './stations-used';
@@ -56,7 +56,7 @@ export function settingsProblem(unit: Unit, rails: readonly JobRail[], job: JobS
   if (passes({ ...base, carrier: job.stock.thickness })) {
     let lo = job.carrier;
     let hi = job.stock.thickness;
-    for (let i = 0; i < 60 && hi - lo > step / 10; i++) {
+    for (let i = 0; i < 60 && hi - lo > step * 1e-7; i++) {
       const mid = (lo + hi) / 2;
       if (passes({ ...base, carrier: mid })) hi = mid; else lo = mid;
     }
@@ -67,7 +67,7 @@ export function settingsProblem(unit: Unit, rails: readonly JobRail[], job: JobS
   if (passes({ ...base, minBite: 0 })) {
     let lo = 0;
     let hi = job.minBite;
-    for (let i = 0; i < 60 && hi - lo > step / 10; i++) {
+    for (let i = 0; i < 60 && hi - lo > step * 1e-7; i++) {
       const mid = (lo + hi) / 2;
       if (passes({ ...base, minBite: mid })) lo = mid; else hi = mid;
     }
@@ -115,7 +115,13 @@ export function partOverlapProblems(layout: Layout, origin: Point, stations: rea
   const u = layout.unit;
   const tol = convert(0.001, 'in', u);
   const slack = convert(0.0001, 'in', u);
-  const local = outlineFootprint(turnOutline(part, rotation), tol);
+  const turned = turnOutline(part, rotation);
+  let local = outlineFootprint(turned, tol);
+  // A part drawn as loose lines (no closed path) encloses nothing the footprint code can see: its bounding box stands in for it.
+  if (!local.length && turned.paths.length) {
+    const b = outlineBounds(turned);
+    local = [[{ x: b.minX, y: b.minY }, { x: b.maxX, y: b.minY }, { x: b.maxX, y: b.maxY }, { x: b.minX, y: b.maxY }]];
+  }
   if (!local.length || !stations.length) return [];
   const shapes: { station: number | null; label: string; fp: Polygon[] }[] = [];
   let vertices = 0;
