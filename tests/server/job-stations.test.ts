@@ -106,7 +106,7 @@ describe('job problems and the multi-rail stock check', () => {
   });
 
   it('saves a stock width no rail accepts with one problem naming the width held', async () => {
-    // 1.250 in: above 1.000 + 0.030 = 1.030 and below 1.500 − 0.035 = 1.465; nearest width held 1.000 in (0.25 away vs 0.25 — tie: the first rail).
+    // 1.200 in: above 1.000 + 0.030 = 1.030 and below 1.500 − 0.035 = 1.465; nearest width held 1.000 in (0.200 in away against 0.300 in).
     const res = await programmer.post('/api/jobs', { ...base, stock: { ...base.stock, width: 1.2 } }).expect(201);
     expect(res.body.stationsUsed).toEqual([]);
     expect(res.body.runtimeMinutes).toBe(0);
