@@ -258,7 +258,7 @@ describe('template.json', () => {
   it("carries each component's seat height, and reads a file written before it as seat 0", async () => {
     const file = JSON.parse((await operator.get('/api/templates/1/versions/1/template.json').expect(200)).text);
     const cr8 = file.components.find((c: { code: string }) => c.code === 'CR-8');
-    expect(cr8).toMatchObject({ seatHeight: 0.5, jawTop: 0.25 });
+    expect(cr8).toMatchObject({ seatHeight: 0.5, jawTop: 0.19 });
     // Every CR-8 and SR-4 station sits on a 0.500 in seat; the shared offset (a hole) has Z0 on the deck.
     expect(new Set(file.stations.map((s: { z: number }) => s.z))).toEqual(new Set([0.5]));
     const older = structuredClone(file);
