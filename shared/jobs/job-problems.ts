@@ -53,9 +53,11 @@ export function settingsProblem(unit: Unit, rails: readonly JobRail[], job: JobS
   const step = 10 ** -displayDecimals(unit);
   const names = clamped.map((r) => r.jawPlacement).join(', ');
   const head = `No bar of ${len(job.stock.width)} × ${len(job.stock.thickness)} could pass the clamps of ${names} with carrier ${len(job.carrier)}, tool clearance ${len(job.clearance)} and minimum bite ${len(job.minBite)}`;
-  if (passes({ ...base, carrier: job.stock.thickness })) {
+  // The carrier must stay below the bar's thickness (a bar no thicker than its carrier is refused), so one display step under it.
+  const thickest = job.stock.thickness - step;
+  if (thickest > job.carrier && passes({ ...base, carrier: thickest })) {
     let lo = job.carrier;
-    let hi = job.stock.thickness;
+    let hi = thickest;
     for (let i = 0; i < 60 && hi - lo > step * 1e-7; i++) {
       const mid = (lo + hi) / 2;
       if (passes({ ...base, carrier: mid })) hi = mid; else lo = mid;
