@@ -43,11 +43,14 @@ describe('stock check in a real browser', () => {
     await page.getByRole('button', { name: 'Replace the table with these rows' }).click();
     expect(await page.getByLabel('Row 3 width').inputValue()).toBe('1.2');
 
+    // A rail set exactly where asked (accuracy 0): B2's one-point range can then be served. With the
+    // default ±0.002 in it could not (its range is narrower than the accuracy), as the API tests show.
+    await page.getByLabel('Rail setting accuracy (±)').fill('0');
     const posted = page.waitForRequest((r) => r.url().endsWith('/api/stock-check') && r.method() === 'POST');
     await page.getByRole('button', { name: 'Check the bars' }).click();
     // What leaves the browser is the job as typed and the catalog's clamp model, unchanged.
     expect((await posted).postDataJSON()).toMatchObject({
-      unit: 'in', nominalOpening: 1, carrier: 0.25, clearance: 0.03, minBite: 0.06,
+      unit: 'in', nominalOpening: 1, carrier: 0.25, clearance: 0.03, minBite: 0.06, settingAccuracy: 0,
       clamp: { acceptBelow: 0.03, acceptAbove: 0.03, topHeight: 0.16, topSlope: 0.5, gripLow: 0.04, gripHigh: 0.16, gripSlope: 0.5, slotSlop: 0.015 },
       bars: [{ id: 'B1', width: 1 }, { id: 'B2', width: 1.045 }, { id: 'B3', width: 1.2 }],
     });
@@ -63,6 +66,8 @@ describe('stock check in a real browser', () => {
     // Fewest settings: one shift, +0.015 in, serves B1 and B2 (both ranges hold it; opening 1.015 in).
     const settings = await page.getByTestId('setting-line').allTextContents();
     expect(settings).toEqual(['Setting 1: shift +0.0150 in — bars B1, B2']);
+    // Target opening = nominal + shift = 1.0150 in; no room beyond it, since B2 holds only at +0.015.
+    expect(await page.getByRole('list', { name: 'Sorting list' }).textContent()).toContain('target opening 1.0150 in ± 0.0000 in');
 
     const table = page.getByRole('table', { name: 'Stock check, bar by bar' });
     const b1 = await table.getByRole('row', { name: /^B1 / }).textContent();
