@@ -31,6 +31,7 @@ import { manifestRoutes } from './routes/manifest';
 import { manifestService } from './services/manifest';
 import { jobsRepo } from './db/jobs-repo';
 import { jobsService } from './services/jobs';
+import { loadListService } from './services/load-list';
 import { auditRepo } from './db/audit-repo';
 import { reviewsService } from './services/reviews';
 import { namingRepo } from './db/naming-repo';
@@ -146,7 +147,7 @@ export function createApp(deps: AppDeps): GridsetApp {
     ...namingRoutes(naming),
     ...reviewRoutes(reviews),
     ...auditRoutes(audit),
-    ...jobRoutes(jobs),
+    ...jobRoutes(jobs, loadListService({ db, jobs, audit })),
     ...manifestRoutes({ manifest: manifestService({ db, catalog: catalogRepo(db), naming, audit }), templates, dataDir: deps.dataDir, uploadLimitBytes: deps.uploadLimitBytes ?? 20 * 1024 * 1024 }),
     ...dxfRoutes({ dataDir: deps.dataDir, uploadLimitBytes: deps.uploadLimitBytes ?? 20 * 1024 * 1024, catalog, jobs, naming }),
   ];

@@ -21,6 +21,7 @@ import { JobDrawing } from '../features/jobs/components/job-drawing';
 import { JobFiles, JobSetupFacts, NewerReleaseNotice, RuntimeCard } from '../features/jobs/components/job-facts';
 import { JobForm } from '../features/jobs/components/job-form';
 import { JobProblems } from '../features/jobs/components/job-problems';
+import { LoadListPanel } from '../features/jobs/components/load-list-panel';
 import { PairingTable } from '../features/jobs/components/pairing-table';
 import { PartOutlineUpload } from '../features/jobs/components/part-outline-upload';
 import { useTemplates, versionFileUrl, versionQuery } from '../features/templates/api';
@@ -82,6 +83,7 @@ export function JobRoute() {
       {canEdit ? <PartOutlineUpload job={j} /> : null}
 
       {v ? <StockCheckSection job={j} version={v} /> : <p className="text-slate-700">Loading the template version…</p>}
+      <LoadListPanel job={j} canEdit={may(me.data?.role, 'editLoadLists')} />
     </Page>
   );
 }

@@ -5,6 +5,7 @@ import * as mail from '../../migrations/20261201020000_mail';
 import * as review from '../../migrations/20261201030000_review';
 import * as jobs from '../../migrations/20261201040000_jobs';
 import * as seatHeight from '../../migrations/20261205020000_seat_height';
+import * as loadLists from '../../migrations/20261205030000_load_lists';
 import * as jobPartRotation from '../../migrations/20261205040000_job_part_rotation';
 
 // Migrations are imported statically so the same list runs under tsx, vitest and the bench
@@ -16,6 +17,7 @@ const MIGRATIONS: Record<string, Knex.Migration> = {
   '20261201030000_review': review,
   '20261201040000_jobs': jobs,
   '20261205020000_seat_height': seatHeight,
+  '20261205030000_load_lists': loadLists,
   '20261205040000_job_part_rotation': jobPartRotation,
 };
 

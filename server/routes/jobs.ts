@@ -3,13 +3,15 @@ import { IdParamSchema } from '../../shared/schemas/common';
 import { JobInputSchema, JobStockCheckInputSchema } from '../../shared/schemas/job';
 import { currentUser } from '../middleware/auth';
 import type { JobsService } from '../services/jobs';
+import type { LoadListService } from '../services/load-list';
+import { LoadListInputSchema } from '../../shared/schemas/load-list';
 import { jobDrawingSvg, jobPackage, setupSheetHtml } from '../services/job-package';
 import { parseOr400 } from './parse';
 import type { RouteDef } from './route-table';
 
 const safe = (s: string) => s.replace(/[^A-Za-z0-9._-]+/g, '-').replace(/^-|-$/g, '') || 'job';
 
-export function jobRoutes(jobs: JobsService): RouteDef[] {
+export function jobRoutes(jobs: JobsService, loadLists: LoadListService): RouteDef[] {
   const id = (p: unknown) => parseOr400(IdParamSchema, p, 'address').id;
   return [
     { method: 'get', path: '/jobs', access: 'signed-in', handler: async (_req, res) => {
@@ -24,6 +26,14 @@ export function jobRoutes(jobs: JobsService): RouteDef[] {
     { method: 'put', path: '/jobs/:id', access: CAN.editTemplates, handler: async (req, res) => {
       const jobId = id(req.params);
       res.json(await jobs.update(currentUser(req), jobId, parseOr400(JobInputSchema, req.body, 'job')));
+    } },
+    // Which bar goes in which station this cycle: proposed from the latest stock check, kept when someone saves it.
+    { method: 'get', path: '/jobs/:id/load-list', access: 'signed-in', handler: async (req, res) => {
+      res.json(await loadLists.get(id(req.params)));
+    } },
+    { method: 'put', path: '/jobs/:id/load-list', access: CAN.editLoadLists, handler: async (req, res) => {
+      const jobId = id(req.params);
+      res.json(await loadLists.put(currentUser(req), jobId, parseOr400(LoadListInputSchema, req.body, 'load list')));
     } },
     // The operator records measured bars at the machine.
     { method: 'post', path: '/jobs/:id/stock-check', access: 'signed-in', handler: async (req, res) => {

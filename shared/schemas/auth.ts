@@ -71,5 +71,7 @@ export const CAN = {
   editTemplates: ['lead', 'programmer'] as Role[],
   releaseTemplates: ['lead'] as Role[],
   editNaming: ['lead'] as Role[],
+  /** The operator at the machine, and the job's authors. */
+  editLoadLists: ['lead', 'programmer', 'operator'] as Role[],
 } as const;
 export const may = (role: Role | undefined, action: keyof typeof CAN) => !!role && CAN[action].includes(role);

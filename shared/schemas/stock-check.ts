@@ -154,9 +154,10 @@ export const StockCheckBarResultSchema = z.object({
   /** Index into `settings` of the rail setting that serves this bar; null when unplaceable. */
   setting: z.number().int().min(0).nullable(),
   /** shiftRange narrowed by the setting accuracy on each side: where a rail set that closely still holds the bar. */
-  settableRange: ShiftRangeSchema.nullable(),
+  // Checks stored before these were answered lack them (read back as null / absent).
+  settableRange: ShiftRangeSchema.nullable().default(null),
   /** How far the bar's setting may be off either way before the bar leaves its settable range; null when unplaceable. */
-  room: z.number().nullable(),
+  room: z.number().nullable().default(null),
 });
 export type StockCheckBarResult = z.infer<typeof StockCheckBarResultSchema>;
 
@@ -165,9 +166,9 @@ export const RailSettingSchema = z.object({
   shift: z.number(),
   bars: z.array(z.string()),
   /** The opening to set: nominal opening + shift. */
-  targetOpening: z.number(),
+  targetOpening: z.number().optional(),
   /** ± how far the rail may be set off the target and still hold every bar of this setting (beyond the setting accuracy already allowed). */
-  room: z.number(),
+  room: z.number().optional(),
 });
 export type RailSetting = z.infer<typeof RailSettingSchema>;
 
@@ -176,8 +177,8 @@ export const StockCheckResponseSchema = z.object({
   settings: z.array(RailSettingSchema),
   unplaceable: z.array(z.string()),
   /** The setting accuracy the plan allowed for (given, or the default for the unit). */
-  settingAccuracy: z.number(),
+  settingAccuracy: z.number().optional(),
   /** Cautions about the setup as a whole, e.g. a fixed jaw whose top is above the carrier less the clearance. */
-  warnings: z.array(z.object({ code: z.string(), message: z.string() })),
+  warnings: z.array(z.object({ code: z.string(), message: z.string() })).default([]),
 });
 export type StockCheckResponse = z.infer<typeof StockCheckResponseSchema>;

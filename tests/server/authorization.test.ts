@@ -71,6 +71,8 @@ const EXPECTED: Record<string, typeof PUBLIC | readonly Role[]> = {
   'GET /jobs/:id': SIGNED_IN,
   'PUT /jobs/:id': EDITORS,
   'POST /jobs/:id/stock-check': SIGNED_IN,
+  'GET /jobs/:id/load-list': SIGNED_IN,
+  'PUT /jobs/:id/load-list': ['lead', 'programmer', 'operator'],
   'GET /jobs/:id/setup-sheet.html': SIGNED_IN,
   'GET /jobs/:id/package.zip': SIGNED_IN,
   'GET /jobs/:id/drawing.svg': SIGNED_IN,

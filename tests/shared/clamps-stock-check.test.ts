@@ -64,7 +64,7 @@ describe('checkStock — a hand-worked lot', () => {
     // ±0.0005 beyond the accuracy (half of [−0.018, −0.017] and of [0.017, 0.018]).
     expect(res.settings.map((s) => [s.shift, s.bars])).toEqual([[-0.0175, ['A', 'D', 'F']], [0.0175, ['E']]]);
     expect(res.settings.map((s) => s.targetOpening)).toEqual([1 - 0.0175, 1 + 0.0175]); // nominal + shift
-    for (const s of res.settings) expect(close(s.room, 0.0005)).toBe(true);
+    for (const s of res.settings) expect(close(s.room!, 0.0005)).toBe(true);
     expect(res.settingAccuracy).toBe(0.002);
     expect(res.unplaceable).toEqual(['B', 'C']);
     expect(res.bars.map((b) => b.setting)).toEqual([0, null, null, 0, 1, 0]);
@@ -77,7 +77,7 @@ describe('checkStock — a hand-worked lot', () => {
     // With 0 the old ranges are planned as they are: the same two settings, ±0.0025 each.
     const exact = checkStock(request({ bars: lot.bars, settingAccuracy: 0 }));
     expect(exact.settings.map((s) => s.bars)).toEqual([['A', 'D', 'F'], ['E']]);
-    for (const s of exact.settings) expect(close(s.room, 0.0025)).toBe(true);
+    for (const s of exact.settings) expect(close(s.room!, 0.0025)).toBe(true);
   });
 
   it('flags a fixed jaw whose top stands above the carrier less the clearance', () => {

@@ -5,6 +5,7 @@ import { UnitSchema, type Unit } from '../../../shared/schemas/common';
 import { JobDetailSchema, JobListSchema, JobStockCheckInputSchema, RailCheckSchema, type JobInput } from '../../../shared/schemas/job';
 import { StockCheckResponseSchema, type MeasuredBarInput } from '../../../shared/schemas/stock-check';
 import { api, uploadWithProgress } from '../../lib/api-client';
+import { LoadListSchema, type LoadListInput } from '../../../shared/schemas/load-list';
 
 export const jobKeys = {
   all: ['jobs'] as const,
@@ -99,3 +100,15 @@ export function useJobStockCheck(id: number) {
 }
 
 export const jobFileUrl = (id: number, file: 'package.zip' | 'setup-sheet.html' | 'drawing.svg') => `/api/jobs/${id}/${file}`;
+
+/** The load list of the job's next cycle; under the job's key, so a new stock check (which invalidates the job) refreshes it. */
+export const loadListQuery = (id: number) => queryOptions({ queryKey: [...jobKeys.detail(id), 'load-list'] as const, queryFn: () => api.get(`/api/jobs/${id}/load-list`, LoadListSchema), retry: false });
+export const useLoadList = (id: number, enabled: boolean) => useQuery({ ...loadListQuery(id), enabled });
+
+export function useSaveLoadList(id: number) {
+  const qc = useQueryClient();
+  return useMutation({
+    mutationFn: (input: LoadListInput) => api.put(`/api/jobs/${id}/load-list`, input, LoadListSchema),
+    onSuccess: (list) => qc.setQueryData(loadListQuery(id).queryKey, list),
+  });
+}

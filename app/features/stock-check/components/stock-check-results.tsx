@@ -70,7 +70,7 @@ export const StockCheckResults = forwardRef<HTMLHeadingElement, {
       {response.settings.length > 0 ? (
         <section aria-labelledby="sorting-title" className="rounded border border-slate-300 bg-white p-4">
           <h3 id="sorting-title" className="flex items-center gap-2 text-lg font-semibold"><ListOrdered aria-hidden className="h-5 w-5" />Sorting list</h3>
-          <p className="text-slate-700">Set the rail to each target opening in turn (shift + opens the jaw) and load the bars listed; every bar on a setting is accepted there if the rail is set within the ± room shown, beyond the setting accuracy of ±{formatLength(response.settingAccuracy, unit)} already allowed for.</p>
+          <p className="text-slate-700">Set the rail to each target opening in turn (shift + opens the jaw) and load the bars listed; every bar on a setting is accepted there if the rail is set within the ± room shown, beyond the setting accuracy{response.settingAccuracy === undefined ? '' : ` of ±${formatLength(response.settingAccuracy, unit)}`} already allowed for.</p>
           <ol aria-label="Sorting list" className="mt-2 flex flex-col divide-y divide-slate-200">
             {response.settings.map((s, k) => (
               <li key={k} className="py-2 text-lg">
@@ -79,7 +79,7 @@ export const StockCheckResults = forwardRef<HTMLHeadingElement, {
                   {' — '}{s.bars.length === 1 ? 'bar' : 'bars'} <span className="font-mono">{s.bars.join(', ')}</span>
                 </p>
                 <p className="text-base text-slate-700">
-                  target opening <span className="num font-semibold">{formatLength(s.targetOpening, unit)}</span> ± <span className="num">{formatLength(s.room, unit)}</span> · {plural(s.bars.length)}
+                  target opening <span className="num font-semibold">{formatLength(s.targetOpening ?? request.nominalOpening + s.shift, unit)}</span>{s.room === undefined ? '' : <> ± <span className="num">{formatLength(s.room, unit)}</span></>} · {plural(s.bars.length)}
                   {s.shift === 0 ? ' · the nominal setting' : ''}
                 </p>
               </li>

@@ -18,6 +18,14 @@ const FAMILY_LABELS: Record<ControlFamily, string> = {
   'shift-rotate': 'shift-rotate — G52 shift with G68 rotation',
 };
 
+/** What each family leaves set on the control, in a sentence. */
+const FAMILY_NOTES: Record<ControlFamily, string> = {
+  'ngc-g10': 'Sets one work offset per station (G10 L2 P X Y Z R, R0 included); the offsets stay set after the program ends.',
+  'ngc-g52': 'Shifts from the shared work offset station by station (G52) and clears the shift at the end; it cannot turn a station.',
+  'ext-l20': 'Sets one extended work offset per station (G10 L20 P X Y Z), selected by G54.1 P; no rotation. Check the register count of your control.',
+  'shift-rotate': 'Per station: cancels rotation (G69), shifts (G52), turns about the station datum (G68 X0 Y0 R); all cleared at the end.',
+};
+
 const threeNumbers = /^\s*-?\d+(\.\d+)?\s*,\s*-?\d+(\.\d+)?\s*,\s*-?\d+(\.\d+)?\s*$/;
 
 /** The files a programmer takes to CAM and to the control; each carries the version's content hash. */
@@ -71,13 +79,13 @@ export function Downloads({ templateId, version, dirty }: { templateId: number; 
         ) : null}
         {rules && rules.registers !== 'none' ? (
           <label className="flex flex-col text-sm font-semibold text-slate-700">Register of station 1 (optional)
-            <input className={`${inputClass} num w-40 text-left`} inputMode="numeric" placeholder={rules.registers === 'standard' ? 'after the shared' : '1'} value={first} onChange={(e) => setFirst(e.target.value)} />
+            <input className={`${inputClass} num w-40 text-left`} inputMode="numeric" placeholder={rules.registers === 'standard' ? 'next free' : '1'} value={first} onChange={(e) => setFirst(e.target.value)} />
           </label>
         ) : null}
         <Button type="button" variant="secondary" disabled={!ready || busy} onClick={download}><Download aria-hidden className="h-4 w-4" />offsets.nc</Button>
       </fieldset>
       {family && rules?.setsOffsets && !baseOk ? <p className="text-sm text-slate-600">Enter x,y,z: the machine position of the shared offset, entered or probed once.</p> : null}
-      {rules ? <p className="text-sm text-slate-700">{rules.note.charAt(0) + rules.note.slice(1).toLowerCase()}.</p> : null}
+      {family ? <p className="text-sm text-slate-700">{FAMILY_NOTES[family]}</p> : null}
       <ErrorText error={error} />
       <p className="text-sm text-slate-600">Advice only: check every block against your control's programming manual and prove the file out without stock. Content hash <span className="font-mono">{version.contentHash.slice(0, 16)}…</span></p>
     </section>

@@ -1,0 +1,64 @@
+import type { User } from '../../shared/schemas/auth';
+import type { JobDetail } from '../../shared/schemas/job';
+import type { LoadList, LoadListInput } from '../../shared/schemas/load-list';
+import { checkLoadList, proposeLoadList, type LoadRail } from '../../shared/clamps/load-list';
+import type { Db } from '../db/knex';
+import type { AuditRepo } from '../db/audit-repo';
+import { HttpError, conflict } from '../middleware/errors';
+import type { JobsService } from './jobs';
+
+/** The used stations of each jaw rail, in numbering order: what a load list fills. */
+function railsOf(job: JobDetail): LoadRail[] {
+  const used = new Set(job.stationsUsed);
+  const numberOf = new Map(job.stationList.map((s) => [s.id, s.number]));
+  const rails = new Map<string, number[]>();
+  for (const p of job.pairings) {
+    const list = rails.get(p.jawPlacement) ?? rails.set(p.jawPlacement, []).get(p.jawPlacement)!;
+    for (const id of p.stations) {
+      const n = numberOf.get(id);
+      if (n !== undefined && used.has(n)) list.push(n);
+    }
+  }
+  return [...rails].filter(([, st]) => st.length).map(([jawPlacement, stations]) => ({ jawPlacement, stations: stations.sort((a, b) => a - b) }));
+}
+
+/**
+ * Load lists: Gridset's proposal from the job's latest stock check until someone keeps one; a kept
+ * list holds until the bars are checked again (a new check proposes afresh).
+ */
+export function loadListService(deps: { db: Db; jobs: JobsService; audit: AuditRepo }) {
+  const { db, jobs, audit } = deps;
+
+  async function basis(jobId: number) {
+    const job = await jobs.detail(jobId);
+    const check = job.stockChecks[0];
+    if (!check) throw new HttpError(409, 'no-stock-check', 'This job has no stock check yet: measure and check the bars first, then Gridset proposes which bar goes in which station.');
+    const checks = check.rails.length ? check.rails : [{ jawPlacement: check.jawPlacement, nominalOpening: check.nominalOpening, result: check.result }];
+    return { job, check, checks, rails: railsOf(job) };
+  }
+
+  return {
+    async get(jobId: number): Promise<LoadList> {
+      const { check, checks, rails } = await basis(jobId);
+      const row = await db('job_load_lists').where({ job_id: jobId }).first();
+      if (row && row.stock_check_id === check.id) return { proposed: false, revision: row.revision, stockCheckId: check.id, ...JSON.parse(row.content) };
+      return { proposed: true, revision: row?.revision ?? 0, stockCheckId: check.id, ...proposeLoadList(rails, checks) };
+    },
+    async put(user: User, jobId: number, input: LoadListInput): Promise<LoadList> {
+      const { check, checks, rails } = await basis(jobId);
+      const checked = checkLoadList(input, rails, checks);
+      if (!checked.ok) throw new HttpError(400, 'load-list', checked.message);
+      return db.transaction(async (trx) => {
+        const row = await trx('job_load_lists').where({ job_id: jobId }).first();
+        const current = row?.revision ?? 0;
+        if (input.revision !== undefined && input.revision !== current) throw conflict(`Someone saved this load list after you opened it (revision ${current}); reload it and make your change again.`);
+        const content = JSON.stringify(checked.list);
+        if (row) await trx('job_load_lists').where({ job_id: jobId, revision: current }).update({ content, stock_check_id: check.id, revision: current + 1, updated_by: user.id, updated_at: trx.fn.now() });
+        else await trx('job_load_lists').insert({ job_id: jobId, stock_check_id: check.id, content, revision: 1, updated_by: user.id });
+        await audit.record({ userId: user.id, action: 'job.load-list', objectType: 'job', objectId: jobId, summary: `Kept the load list: ${checked.list.rails.map((r) => `${r.jawPlacement} at setting ${r.setting + 1}`).join(', ')}; empty stations ${checked.list.emptyStations.join(', ') || 'none'}`, after: checked.list }, trx);
+        return { proposed: false, revision: current + 1, stockCheckId: check.id, ...checked.list };
+      });
+    },
+  };
+}
+export type LoadListService = ReturnType<typeof loadListService>;
