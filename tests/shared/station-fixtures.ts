@@ -59,7 +59,9 @@ export function content(over: Loose = {}): TemplateContent {
  */
 export function railBands(bands: number): TemplateContent {
   const cr16 = { ...centerRail('CR-16', rect(-0.5, -0.375, 16.5, 0.375)), dowels: [{ x: 0, y: 0 }, { x: 16, y: 0 }], stops: Array.from({ length: 16 }, (_, k) => ({ x: 0.5 + k, y: 0.375 })) };
-  const jr16 = { ...jawRail('JR-16', rect(-0.5, -0.375, 16.5, 0.375)), dowels: [{ x: 0, y: 0 }, { x: 16, y: 0 }] };
+  // With a clamp model, so the layout holds every part and measures the engine, not 16,000 problem messages.
+  const clamp = { acceptBelow: 0.03, acceptAbove: 0.03, topHeight: 0.16, topSlope: 0.5, gripLow: 0.04, gripHigh: 0.16, gripSlope: 0.5, slotSlop: 0.015 };
+  const jr16 = { ...jawRail('JR-16', rect(-0.5, -0.375, 16.5, 0.375)), dowels: [{ x: 0, y: 0 }, { x: 16, y: 0 }], clamp };
   const placements = [];
   for (let band = 0; band < bands; band++) {
     for (let k = 0; k < 10; k++) {
