@@ -26,6 +26,8 @@ import { reviewRoutes } from './routes/reviews';
 import { auditRoutes } from './routes/audit';
 import { jobRoutes } from './routes/jobs';
 import { dxfRoutes } from './routes/dxf';
+import { partProgramRoutes } from './routes/part-programs';
+import { partProgramsService } from './services/part-programs';
 import { manifestRoutes } from './routes/manifest';
 import { manifestService } from './services/manifest';
 import { jobsRepo } from './db/jobs-repo';
@@ -140,6 +142,7 @@ export function createApp(deps: AppDeps): GridsetApp {
     ...jobRoutes(jobs),
     ...manifestRoutes({ manifest: manifestService({ db, catalog: catalogRepo(db), naming, audit }), templates, dataDir: deps.dataDir, uploadLimitBytes: deps.uploadLimitBytes ?? 20 * 1024 * 1024 }),
     ...dxfRoutes({ dataDir: deps.dataDir, uploadLimitBytes: deps.uploadLimitBytes ?? 20 * 1024 * 1024, catalog, jobs, naming }),
+    ...partProgramRoutes({ dataDir: deps.dataDir, uploadLimitBytes: deps.uploadLimitBytes ?? 20 * 1024 * 1024, programs: partProgramsService({ db, jobs, audit }) }),
   ];
   mount(api, routes);
   api.use(apiNotFound);

@@ -4,6 +4,7 @@ import * as naming from '../../migrations/20261201010000_naming';
 import * as mail from '../../migrations/20261201020000_mail';
 import * as review from '../../migrations/20261201030000_review';
 import * as jobs from '../../migrations/20261201040000_jobs';
+import * as partPrograms from '../../migrations/20261205080000_part_programs';
 
 // Migrations are imported statically so the same list runs under tsx, vitest and the bench
 // scripts; knex's directory loader cannot import .ts files by itself.
@@ -13,6 +14,7 @@ const MIGRATIONS: Record<string, Knex.Migration> = {
   '20261201020000_mail': mail,
   '20261201030000_review': review,
   '20261201040000_jobs': jobs,
+  '20261205080000_part_programs': partPrograms,
 };
 
 export const migrationSource: Knex.MigrationSource<string> = {

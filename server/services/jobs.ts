@@ -13,6 +13,9 @@ import type { JobRow, JobsRepo } from '../db/jobs-repo';
 import type { AuditRepo } from '../db/audit-repo';
 import { badRequest, notFound } from '../middleware/errors';
 import type { TemplatesService } from './templates';
+import { partProgramsRepo } from '../db/part-programs-repo';
+import type { PartProgramInfo } from '../../shared/schemas/part-program';
+import { minimumSafeZ } from '../../shared/gcode/safe-z';
 
 /** Clamp lengths from the jaw rail's unit into the template's; slopes are ratios and stay. */
 function clampIn(clamp: ClampModel, from: Unit, to: Unit): ClampModel {
@@ -22,6 +25,7 @@ function clampIn(clamp: ClampModel, from: Unit, to: Unit): ClampModel {
 
 export function jobsService(deps: { db: Db; jobs: JobsRepo; templates: TemplatesService; audit: AuditRepo }) {
   const { db, jobs, templates, audit } = deps;
+  const programs = partProgramsRepo(db);
 
   async function releasedVersion(templateId: number, number: number): Promise<TemplateVersion> {
     const v = await templates.version(templateId, number);
@@ -50,6 +54,14 @@ export function jobsService(deps: { db: Db; jobs: JobsRepo; templates: Templates
     return r;
   }
 
+  /** The lowest safe Z for this job's whole-table program (template unit). */
+  const safeZFloor = (r: JobRow, v: TemplateVersion) => minimumSafeZ({ unit: v.unit, stations: v.stations, components: v.components, stockThickness: fields(r).stock.thickness, clearance: r.clearance });
+
+  async function partProgram(r: JobRow, v: TemplateVersion): Promise<PartProgramInfo | null> {
+    const p = await programs.head(r.id);
+    return p ? { ...JSON.parse(p.summary), sha256: p.sha256, updatedAt: String(p.updated_at), minimumSafeZ: safeZFloor(r, v) } : null;
+  }
+
   async function detail(id: number): Promise<JobDetail & { version: number }> {
     const r = await requireJob(id);
     const v = await templates.version(r.template_id, r.number);
@@ -63,6 +75,7 @@ export function jobsService(deps: { db: Db; jobs: JobsRepo; templates: Templates
       partOutline: r.part_outline ? (JSON.parse(r.part_outline) as Outline) : null,
       partFile: r.part_file ? JSON.parse(r.part_file) : null,
       stationList: v.stations, pairings: v.pairings, stockChecks,
+      partProgram: await partProgram(r, v),
     };
   }
 
@@ -126,6 +139,7 @@ export function jobsService(deps: { db: Db; jobs: JobsRepo; templates: Templates
       return { ...result, jawPlacement: pairing.jawPlacement, nominalOpening: pairing.width, unit: v.unit, appliesTo };
     },
     requireJob,
+    safeZFloor,
   };
 }
 export type JobsService = ReturnType<typeof jobsService>;

@@ -4,6 +4,7 @@ import { OutlineSchema } from './geometry';
 import { PairingSchema, StationSchema } from './template';
 import { MeasuredBarSchema, StockCheckResponseSchema } from './stock-check';
 import { VersionStateSchema } from './template-api';
+import { PartProgramInfoSchema } from './part-program';
 
 const text = (label: string, max: number) => z.string({ message: `${label} is required.` }).trim().min(1, `${label} is required.`).max(max, `${label} must be ${max} characters or fewer.`);
 
@@ -70,6 +71,8 @@ export const JobDetailSchema = JobSummarySchema.extend({
   stationList: z.array(StationSchema),
   pairings: z.array(PairingSchema),
   stockChecks: z.array(JobStockCheckSchema),
+  /** The single-part program, when one was uploaded. */
+  partProgram: PartProgramInfoSchema.nullable().default(null),
 });
 export type JobDetail = z.infer<typeof JobDetailSchema>;
 

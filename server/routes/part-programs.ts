@@ -1,0 +1,24 @@
+import { CAN } from '../../shared/schemas/auth';
+import { IdParamSchema } from '../../shared/schemas/common';
+import { TableProgramQuerySchema } from '../../shared/schemas/part-program';
+import { currentUser } from '../middleware/auth';
+import { singleFileUpload, usingUpload } from '../middleware/upload';
+import type { PartProgramsService } from '../services/part-programs';
+import { parseOr400 } from './parse';
+import type { RouteDef } from './route-table';
+
+export function partProgramRoutes(deps: { dataDir: string; uploadLimitBytes: number; programs: PartProgramsService }): RouteDef[] {
+  const { programs } = deps;
+  const upload = singleFileUpload(deps.dataDir, deps.uploadLimitBytes);
+  const id = (p: unknown) => parseOr400(IdParamSchema, p, 'address').id;
+  return [
+    { method: 'post', path: '/jobs/:id/part-program', access: CAN.editTemplates, before: upload, handler: (req, res) => usingUpload(req.file, async (file) => {
+      res.json(await programs.upload(currentUser(req), id(req.params), { name: file.originalname, size: file.size, path: file.path }));
+    }) },
+    { method: 'get', path: '/jobs/:id/program.nc', access: 'signed-in', handler: async (req, res) => {
+      const jobId = id(req.params);
+      const { text, fileName } = await programs.tableProgram(jobId, parseOr400(TableProgramQuerySchema, req.query, 'program'));
+      res.type('text/plain').attachment(`job-${jobId}-${fileName}.nc`).send(text);
+    } },
+  ];
+}
