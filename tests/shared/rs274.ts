@@ -1,0 +1,47 @@
+// LinuxCNC's interpreter as the outside reader of G-code (STACK-NOTES, "LinuxCNC's interpreter as a G-code reference"):
+// `rs274 -t tools.tbl -g file.ngc` prints one canonical machine command per line, or an error line and the offending block.
+import { execFileSync } from 'node:child_process';
+import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
+
+export interface Canon { kind: string; args: number[]; text: string }
+
+/** A tool table line per LinuxCNC's format: `T1 P1 Z1.0 D0.25`. */
+export function runRs274(program: string, tools: { t: number; z: number; d: number }[]): { canon: Canon[]; errors: string[] } {
+  const dir = mkdtempSync(path.join(os.tmpdir(), 'rs274-'));
+  try {
+    writeFileSync(path.join(dir, 'tools.tbl'), tools.map((t) => `T${t.t} P${t.t} Z${t.z} D${t.d} ;test tool`).join('\n') + '\n');
+    writeFileSync(path.join(dir, 'p.ngc'), program);
+    const out = execFileSync('/usr/bin/rs274', ['-t', path.join(dir, 'tools.tbl'), '-g', path.join(dir, 'p.ngc')], { encoding: 'utf8', maxBuffer: 512 * 1024 * 1024, stdio: ['ignore', 'pipe', 'pipe'] });
+    const canon: Canon[] = [];
+    const errors: string[] = [];
+    for (const line of out.split('\n')) {
+      const m = /^\s*\d+ N\.{5} ([A-Z0-9_]+)\((.*)\)\s*$/.exec(line);
+      if (m) {
+        const args = m[2]!.split(/[ ,]+/).map(Number).filter((v) => !Number.isNaN(v));
+        canon.push({ kind: m[1]!, args, text: m[2]! });
+      } else if (line.trim() && line.trim() !== 'executing') errors.push(line);
+    }
+    return { canon, errors };
+  } finally {
+    rmSync(dir, { recursive: true, force: true });
+  }
+}
+
+export interface Move { kind: 'traverse' | 'feed' | 'arc'; x: number; y: number; z: number; cx?: number; cy?: number; turn?: number }
+
+/** Moves in order, with the tool-change count before each (CHANGE_TOOL lines). */
+export function movesOf(canon: Canon[]): { moves: Move[]; toolChanges: number[]; changeIndex: number[] } {
+  const moves: Move[] = [];
+  const toolChanges: number[] = [];
+  const changeIndex: number[] = [];
+  for (const c of canon) {
+    if (c.kind === 'STRAIGHT_TRAVERSE') moves.push({ kind: 'traverse', x: c.args[0]!, y: c.args[1]!, z: c.args[2]! });
+    else if (c.kind === 'STRAIGHT_FEED') moves.push({ kind: 'feed', x: c.args[0]!, y: c.args[1]!, z: c.args[2]! });
+    // ARC_FEED(first_end, second_end, first_axis, second_axis, rotation, axis_end_point, a, b, c)
+    else if (c.kind === 'ARC_FEED') moves.push({ kind: 'arc', x: c.args[0]!, y: c.args[1]!, cx: c.args[2]!, cy: c.args[3]!, turn: c.args[4]!, z: c.args[5]! });
+    else if (c.kind === 'CHANGE_TOOL') { toolChanges.push(c.args[0]!); changeIndex.push(moves.length); }
+  }
+  return { moves, toolChanges, changeIndex };
+}

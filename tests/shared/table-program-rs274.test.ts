@@ -1,0 +1,173 @@
+// The whole-table program read back by LinuxCNC's interpreter (rs274): every feed move of the table program is a feed
+// move of the single-part program carried to its station, computed here with plain trigonometry (a rotation by C
+// counter-clockwise about the part datum, then the station's translation), independently of shared/gcode.
+// Canned cycles and arcs mean what the LinuxCNC G-code reference says (G81–G89, G73: X Y hole, R plane, Z depth;
+// G2/G3 with I J from the start or R).
+import { describe, expect, it } from 'vitest';
+import { evaluateTemplate } from '../../shared/stations/evaluate-template';
+import { readPartProgram } from '../../shared/gcode/read-part-program';
+import { expandedProgram, type ProgramOrder } from '../../shared/gcode/expand-program';
+import type { Station } from '../../shared/schemas/template';
+import type { Unit } from '../../shared/schemas/common';
+import { centerRail, content } from './station-fixtures';
+import { movesOf, runRs274, type Move } from './rs274';
+
+function prng(seed: number) {
+  let a = seed >>> 0;
+  return () => {
+    a = (a + 0x6d2b79f5) >>> 0;
+    let t = a;
+    t = Math.imul(t ^ (t >>> 15), t | 1);
+    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
+    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
+  };
+}
+
+const TOOLS = [{ t: 1, z: 1.0, d: 0.25 }, { t: 2, z: 2.0, d: 0.125 }, { t: 3, z: 1.5, d: 0.25 }];
+
+/** A random layout of 8 in center rails on the test plate, turned 0/90/180/270 (turned stations included). */
+function randomStations(rand: () => number): Station[] {
+  const slots = [
+    ...[0, 2, 4, 6, 8].map((row) => (rand() < 0.5 ? { hole: { col: 0, row }, rotation: 0 as const } : { hole: { col: 4, row }, rotation: 180 as const })),
+    ...[10, 12, 14].map((col) => (rand() < 0.5 ? { hole: { col, row: 0 }, rotation: 90 as const } : { hole: { col, row: 4 }, rotation: 270 as const })),
+  ];
+  const placements = slots.filter(() => rand() < 0.6).map((s, k) => ({ id: `P${k}`, component: 'CR-8', ...s, stopsInUse: [0, 1, 2, 3, 4, 5, 6, 7].filter(() => rand() < 0.35) }));
+  if (!placements.some((p) => p.stopsInUse.length)) placements.push({ id: 'PX', component: 'CR-8', hole: { col: 12, row: 5 }, rotation: 90, stopsInUse: [1, 4] });
+  const c = content({ components: [centerRail()], placements, sharedOffset: { kind: 'point', x: Math.round(rand() * 20) / 2, y: Math.round(rand() * 16) / 2, z: -Math.round(rand() * 8) / 8 } });
+  return evaluateTemplate(c).stations;
+}
+
+const f4 = (v: number) => v.toFixed(4);
+
+/** A part program a CAM system might post: a contour with arcs (I J and R), G91 moves, drilling cycles, cutter compensation. */
+function randomPart(rand: () => number): string {
+  const r = (lo: number, hi: number) => lo + rand() * (hi - lo);
+  const x0 = r(0.1, 0.4), y0 = r(0.1, 0.4);
+  const cx = x0 + r(0.2, 0.4), cy = y0;
+  const rad = cx - x0;
+  const a = r(0.3, 2.5);
+  const ex = cx + rad * Math.cos(a), ey = cy + rad * Math.sin(a);
+  const rr = r(0.3, 0.5);
+  const lines = [
+    '%', 'O0100 (RANDOM PART)', 'G20 G17 G40 G49 G80 G90 G94', 'G54',
+    'T1 M6', 'S8000 M3', `G0 X${f4(x0)} Y${f4(y0)}`, 'G43 H1 Z0.5', 'M8',
+    `G1 Z${f4(-r(0.02, 0.1))} F20.`,
+    `G3 X${f4(ex)} Y${f4(ey)} I${f4(rad)} J0.`,
+    `G2 X${f4(ex + rr)} Y${f4(ey + 0.1)} R${f4(rr)}`,
+    `G91 G1 X${f4(r(0.05, 0.2))} Y${f4(-r(0.05, 0.2))}`,
+    `X${f4(r(0.05, 0.2))}`,
+    'G90',
+    `G1 Y${f4(r(0.2, 0.8))}`,
+    `G1 X${f4(r(0.2, 0.8))} Y${f4(r(0.2, 0.8))} Z${f4(-r(0.02, 0.1))}`,
+    'G0 Z0.5', 'M9', 'G91 G28 Z0', 'G90',
+    'T2 M6', 'S3000 M3', `G0 X${f4(r(0.1, 0.5))} Y${f4(r(0.1, 0.5))}`, 'G43 H2 Z0.5',
+    `G98 G81 X${f4(r(0.1, 0.9))} Y${f4(r(0.1, 0.9))} Z${f4(-r(0.2, 0.4))} R0.1 F10.`,
+    `X${f4(r(0.1, 0.9))} Y${f4(r(0.1, 0.9))}`,
+    `Y${f4(r(0.1, 0.9))}`,
+    `G99 G83 X${f4(r(0.1, 0.9))} Y${f4(r(0.1, 0.9))} Z-0.5 R0.05 Q0.15`,
+    `G73 X${f4(r(0.1, 0.9))} Y${f4(r(0.1, 0.9))} Z-0.4 R0.05 Q0.1`,
+    'G80', 'G0 Z0.5',
+    `G91 G81 X0.2 Y${f4(r(-0.1, 0.1))} R-0.4 Z-0.35 L3`,
+    'G90 G80', 'G0 Z0.5', 'G53 G0 Z0',
+    'T3 M6', 'S9000 M3', `G0 X${f4(r(1.2, 1.4))} Y${f4(r(0.2, 0.4))}`, 'G43 H3 Z0.5', `G1 Z${f4(-r(0.05, 0.1))} F15.`,
+    'G41 D3 G1 X1.0 Y0.2', 'G1 X1.0 Y0.8', `G2 X1.4 Y0.8 I0.2 J0.`, 'G1 X1.4 Y0.2', 'G40 G1 X1.6 Y0.1',
+    'G0 Z0.5', 'M5', 'G91 G28 Z0', 'G90', 'M30', '%',
+  ];
+  return lines.join('\n') + '\n';
+}
+
+/** Feed moves of the part program, by tool segment (split at CHANGE_TOOL). */
+function partFeeds(text: string): Move[][] {
+  const { canon, errors } = runRs274(text, TOOLS);
+  expect(errors, 'rs274 reads the part program without error').toEqual([]);
+  const { moves, changeIndex } = movesOf(canon);
+  const bounds = [...changeIndex, moves.length];
+  const segments: Move[][] = [];
+  for (let k = 0; k < changeIndex.length; k++) segments.push(moves.slice(bounds[k], bounds[k + 1]).filter((m) => m.kind !== 'traverse'));
+  return segments;
+}
+
+/** The station's placement of a part point: R(C) p + (X, Y), Z + station Z. */
+function carry(m: Move, s: Station): Move {
+  const rad = (s.c * Math.PI) / 180;
+  const cos = Math.cos(rad), sin = Math.sin(rad);
+  const at = (x: number, y: number) => ({ x: s.x + cos * x - sin * y, y: s.y + sin * x + cos * y });
+  const e = at(m.x, m.y);
+  const out: Move = { kind: m.kind, x: e.x, y: e.y, z: m.z + s.z };
+  if (m.kind === 'arc') {
+    const c = at(m.cx!, m.cy!);
+    out.cx = c.x; out.cy = c.y; out.turn = m.turn;
+  }
+  return out;
+}
+
+function checkTable(opts: { part: string; stations: Station[]; skip: number[]; order: ProgramOrder; unit: Unit; safeZ: number; tol: number }) {
+  const read = readPartProgram(opts.part, opts.unit);
+  if (!read.ok) throw new Error(JSON.stringify(read.error));
+  const used = opts.stations.filter((s) => !opts.skip.includes(s.number)).sort((a, b) => a.number - b.number);
+  const table = expandedProgram({ program: read.program, unit: opts.unit, stations: used, order: opts.order, safeZ: opts.safeZ, header: { templateName: 'Random', version: 1, contentHash: 'x', jobId: 1, jobName: 'J', partNumber: 'P', programSha256: 'y', family: 'EXPANDED', skipped: opts.skip } });
+  if (!table.ok) throw new Error(table.message);
+  const { canon, errors } = runRs274(table.text, TOOLS);
+  expect(errors, 'rs274 reads the whole-table program without error').toEqual([]);
+  expect(canon.at(-2)?.kind === 'PROGRAM_END' || canon.some((c) => c.kind === 'PROGRAM_END')).toBe(true);
+  const segs = partFeeds(opts.part);
+  // The expected sequence of (station, segment) groups.
+  const groups: { station: Station; k: number; moves: Move[] }[] = [];
+  if (opts.order === 'station') for (const s of used) segs.forEach((m, k) => groups.push({ station: s, k, moves: m.map((v) => carry(v, s)) }));
+  else segs.forEach((m, k) => { for (const s of used) groups.push({ station: s, k, moves: m.map((v) => carry(v, s)) }); });
+  const { moves, toolChanges } = movesOf(canon);
+  // One tool change per segment in tool order; one per segment and station in station order.
+  expect(toolChanges).toEqual(opts.order === 'tool' ? [1, 2, 3] : used.flatMap(() => [1, 2, 3]));
+  let g = 0, i = 0, boundary = true;
+  let last: Move | null = null;
+  const feeds = moves.filter((m) => m.kind !== 'traverse').length;
+  expect(feeds).toBe(groups.reduce((n, gr) => n + gr.moves.length, 0));
+  for (const m of moves) {
+    const changesXY = !last || Math.abs(m.x - last.x) > 1e-9 || Math.abs(m.y - last.y) > 1e-9;
+    if (boundary && changesXY) {
+      // The first X Y move after a station change or tool change is a rapid at or above safe Z, start and end.
+      expect(m.kind, `first X Y move of group ${g}`).toBe('traverse');
+      expect(Math.min(last?.z ?? Infinity, m.z), `height of the rapid into group ${g}`).toBeGreaterThanOrEqual(opts.safeZ - opts.tol);
+      boundary = false;
+    }
+    last = m;
+    if (m.kind === 'traverse') continue;
+    const want = groups[g]!.moves[i]!;
+    const where = `station ${groups[g]!.station.number} segment ${groups[g]!.k + 1} feed ${i}`;
+    expect(m.kind, where).toBe(want.kind);
+    expect(Math.abs(m.x - want.x), `${where} x`).toBeLessThanOrEqual(opts.tol);
+    expect(Math.abs(m.y - want.y), `${where} y`).toBeLessThanOrEqual(opts.tol);
+    expect(Math.abs(m.z - want.z), `${where} z`).toBeLessThanOrEqual(opts.tol);
+    if (m.kind === 'arc') {
+      expect(Math.abs(m.cx! - want.cx!), `${where} center x`).toBeLessThanOrEqual(opts.tol);
+      expect(Math.abs(m.cy! - want.cy!), `${where} center y`).toBeLessThanOrEqual(opts.tol);
+      expect(m.turn, `${where} direction`).toBe(want.turn);
+    }
+    i++;
+    while (g < groups.length && i >= groups[g]!.moves.length) { g++; i = 0; boundary = true; }
+  }
+  expect(g, 'every station of every segment appears once').toBe(groups.length);
+  return { used, groups };
+}
+
+describe('whole-table program read back by rs274 (LinuxCNC interpreter)', () => {
+  // 20 cases: random layouts and skip sets, both orders; 3 rs274 runs each (part, table, part again is cached below).
+  for (let seed = 1; seed <= 10; seed++) {
+    for (const order of ['station', 'tool'] as const) {
+      it(`seed ${seed}, ${order} order: every feed is a part feed carried to its station; skipped stations never appear`, () => {
+        const rand = prng(seed * 7919);
+        const stations = randomStations(rand);
+        const skip = stations.filter(() => rand() < 0.25).map((s) => s.number).slice(0, Math.max(0, stations.length - 1));
+        const part = randomPart(rand);
+        const { used, groups } = checkTable({ part, stations, skip, order, unit: 'in', safeZ: 1.25, tol: 1e-4 });
+        expect(new Set(groups.map((gr) => gr.station.number))).toEqual(new Set(used.map((s) => s.number)));
+        for (const n of skip) expect(used.some((s) => s.number === n)).toBe(false);
+        if (order === 'tool') {
+          // All of tool n's moves come before tool n+1's.
+          const ks = groups.map((gr) => gr.k);
+          expect([...ks].sort((a, b) => a - b)).toEqual(ks);
+        }
+      });
+    }
+  }
+});
