@@ -67,7 +67,12 @@ export function lineWords(raw: string): LineResult {
       text += c;
       j++;
     }
-    if (text === '' ) return { ok: false, message: `the letter ${upper} has no number after it.` };
+    if (text === '') {
+      const next = trimmed[j];
+      if (next === '[') return { ok: false, message: 'expressions ([ ]) are not in the supported subset: post the part program with numbers only.' };
+      if (next === '#') return { ok: false, message: 'parameters (#) are not in the supported subset: post the part program with numbers only.' };
+      return { ok: false, message: `the letter ${upper} has no number after it.` };
+    }
     if (!/^[+-]?(\d+\.?\d*|\.\d+)$/.test(text)) return { ok: false, message: `"${upper}${text}" is not a number G-code can read.` };
     const value = Number(text);
     if (!Number.isFinite(value) || Math.abs(value) > 1e6) return { ok: false, message: `${upper}${text} is out of range.` };

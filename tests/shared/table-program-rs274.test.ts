@@ -37,11 +37,12 @@ function randomStations(rand: () => number): Station[] {
   return evaluateTemplate(c).stations;
 }
 
-const f4 = (v: number) => v.toFixed(4);
 
 /** A part program a CAM system might post: a contour with arcs (I J and R), G91 moves, drilling cycles, cutter compensation. */
-function randomPart(rand: () => number): string {
+function randomPart(rand: () => number, unit: Unit = 'in'): string {
   const r = (lo: number, hi: number) => lo + rand() * (hi - lo);
+  // Every length is drawn in inches and written in the program's unit (1 in = 25.4 mm).
+  const f = (v: number) => (unit === 'mm' ? (v * 25.4).toFixed(3) : v.toFixed(4));
   const x0 = r(0.1, 0.4), y0 = r(0.1, 0.4);
   const cx = x0 + r(0.2, 0.4), cy = y0;
   const rad = cx - x0;
@@ -49,29 +50,29 @@ function randomPart(rand: () => number): string {
   const ex = cx + rad * Math.cos(a), ey = cy + rad * Math.sin(a);
   const rr = r(0.3, 0.5);
   const lines = [
-    '%', 'O0100 (RANDOM PART)', 'G20 G17 G40 G49 G80 G90 G94', 'G54',
-    'T1 M6', 'S8000 M3', `G0 X${f4(x0)} Y${f4(y0)}`, 'G43 H1 Z0.5', 'M8',
-    `G1 Z${f4(-r(0.02, 0.1))} F20.`,
-    `G3 X${f4(ex)} Y${f4(ey)} I${f4(rad)} J0.`,
-    `G2 X${f4(ex + rr)} Y${f4(ey + 0.1)} R${f4(rr)}`,
-    `G91 G1 X${f4(r(0.05, 0.2))} Y${f4(-r(0.05, 0.2))}`,
-    `X${f4(r(0.05, 0.2))}`,
+    '%', 'O0100 (RANDOM PART)', `${unit === 'mm' ? 'G21' : 'G20'} G17 G40 G49 G80 G90 G94`, 'G54',
+    'T1 M6', 'S8000 M3', `G0 X${f(x0)} Y${f(y0)}`, `G43 H1 Z${f(0.5)}`, 'M8',
+    `G1 Z${f(-r(0.02, 0.1))} F20.`,
+    `G3 X${f(ex)} Y${f(ey)} I${f(rad)} J0.`,
+    `G2 X${f(ex + rr)} Y${f(ey + 0.1)} R${f(rr)}`,
+    `G91 G1 X${f(r(0.05, 0.2))} Y${f(-r(0.05, 0.2))}`,
+    `X${f(r(0.05, 0.2))}`,
     'G90',
-    `G1 Y${f4(r(0.2, 0.8))}`,
-    `G1 X${f4(r(0.2, 0.8))} Y${f4(r(0.2, 0.8))} Z${f4(-r(0.02, 0.1))}`,
-    'G0 Z0.5', 'M9', 'G91 G28 Z0', 'G90',
-    'T2 M6', 'S3000 M3', `G0 X${f4(r(0.1, 0.5))} Y${f4(r(0.1, 0.5))}`, 'G43 H2 Z0.5',
-    `G98 G81 X${f4(r(0.1, 0.9))} Y${f4(r(0.1, 0.9))} Z${f4(-r(0.2, 0.4))} R0.1 F10.`,
-    `X${f4(r(0.1, 0.9))} Y${f4(r(0.1, 0.9))}`,
-    `Y${f4(r(0.1, 0.9))}`,
-    `G99 G83 X${f4(r(0.1, 0.9))} Y${f4(r(0.1, 0.9))} Z-0.5 R0.05 Q0.15`,
-    `G73 X${f4(r(0.1, 0.9))} Y${f4(r(0.1, 0.9))} Z-0.4 R0.05 Q0.1`,
-    'G80', 'G0 Z0.5',
-    `G91 G81 X0.2 Y${f4(r(-0.1, 0.1))} R-0.4 Z-0.35 L3`,
-    'G90 G80', 'G0 Z0.5', 'G53 G0 Z0',
-    'T3 M6', 'S9000 M3', `G0 X${f4(r(1.2, 1.4))} Y${f4(r(0.2, 0.4))}`, 'G43 H3 Z0.5', `G1 Z${f4(-r(0.05, 0.1))} F15.`,
-    'G41 D3 G1 X1.0 Y0.2', 'G1 X1.0 Y0.8', `G2 X1.4 Y0.8 I0.2 J0.`, 'G1 X1.4 Y0.2', 'G40 G1 X1.6 Y0.1',
-    'G0 Z0.5', 'M5', 'G91 G28 Z0', 'G90', 'M30', '%',
+    `G1 Y${f(r(0.2, 0.8))}`,
+    `G1 X${f(r(0.2, 0.8))} Y${f(r(0.2, 0.8))} Z${f(-r(0.02, 0.1))}`,
+    `G0 Z${f(0.5)}`, 'M9', 'G91 G28 Z0', 'G90',
+    'T2 M6', 'S3000 M3', `G0 X${f(r(0.1, 0.5))} Y${f(r(0.1, 0.5))}`, `G43 H2 Z${f(0.5)}`,
+    `G98 G81 X${f(r(0.1, 0.9))} Y${f(r(0.1, 0.9))} Z${f(-r(0.2, 0.4))} R${f(0.1)} F10.`,
+    `X${f(r(0.1, 0.9))} Y${f(r(0.1, 0.9))}`,
+    `Y${f(r(0.1, 0.9))}`,
+    `G99 G83 X${f(r(0.1, 0.9))} Y${f(r(0.1, 0.9))} Z${f(-0.5)} R${f(0.05)} Q${f(0.15)}`,
+    `G73 X${f(r(0.1, 0.9))} Y${f(r(0.1, 0.9))} Z${f(-0.4)} R${f(0.05)} Q${f(0.1)}`,
+    'G80', `G0 Z${f(0.5)}`,
+    `G91 G81 X${f(0.2)} Y${f(r(-0.1, 0.1))} R${f(-0.4)} Z${f(-0.35)} L3`,
+    'G90 G80', `G0 Z${f(0.5)}`, 'G53 G0 Z0',
+    'T3 M6', 'S9000 M3', `G0 X${f(r(1.2, 1.4))} Y${f(r(0.2, 0.4))}`, `G43 H3 Z${f(0.5)}`, `G1 Z${f(-r(0.05, 0.1))} F15.`,
+    `G41 D3 G1 X${f(1)} Y${f(0.2)}`, `G1 X${f(1)} Y${f(0.8)}`, `G2 X${f(1.4)} Y${f(0.8)} I${f(0.2)} J0.`, `G1 X${f(1.4)} Y${f(0.2)}`, `G40 G1 X${f(1.6)} Y${f(0.1)}`,
+    `G0 Z${f(0.5)}`, 'M5', 'G91 G28 Z0', 'G90', 'M30', '%',
   ];
   return lines.join('\n') + '\n';
 }
@@ -169,5 +170,15 @@ describe('whole-table program read back by rs274 (LinuxCNC interpreter)', () => 
         }
       });
     }
+  }
+
+  // Stations at any angle, not only quarter turns, and a metric program: within 0.002 mm.
+  for (const order of ['station', 'tool'] as const) {
+    it(`millimetres, stations turned 30°, 135° and 0°, ${order} order`, () => {
+      const rand = prng(order === 'tool' ? 4242 : 2424);
+      const st = (number: number, x: number, y: number, z: number, c: number): Station => ({ id: `S:${number}`, number, placement: 'S', stop: 0, x, y, z, c, nominalWidth: null });
+      const stations = [st(1, 0, 0, 0, 0), st(2, 120.5, 30.25, 6.35, 30), st(3, -80, 210, 0, 135), st(4, 300, -40, 12.7, 270)];
+      checkTable({ part: randomPart(rand, 'mm'), stations, skip: [4], order, unit: 'mm', safeZ: 40, tol: 0.002 });
+    });
   }
 });
