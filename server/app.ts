@@ -80,6 +80,7 @@ export function createApp(deps: AppDeps): GridsetApp {
   const jobs = jobsService({ db, jobs: jobsRepo(db), templates, audit });
   const reviews = reviewsService({ db, templates, templatesRepo: templatesRepo(db), users: userRows, naming, audit, mailer, publicUrl: deps.publicUrl ?? 'http://localhost:3000' });
   const settings = settingsRepo(db);
+  const programs = partProgramsService({ db, jobs, audit });
 
   const app = express() as GridsetApp;
   app.disable('x-powered-by');
@@ -139,10 +140,10 @@ export function createApp(deps: AppDeps): GridsetApp {
     ...namingRoutes(naming),
     ...reviewRoutes(reviews),
     ...auditRoutes(audit),
-    ...jobRoutes(jobs),
+    ...jobRoutes(jobs, programs),
     ...manifestRoutes({ manifest: manifestService({ db, catalog: catalogRepo(db), naming, audit }), templates, dataDir: deps.dataDir, uploadLimitBytes: deps.uploadLimitBytes ?? 20 * 1024 * 1024 }),
     ...dxfRoutes({ dataDir: deps.dataDir, uploadLimitBytes: deps.uploadLimitBytes ?? 20 * 1024 * 1024, catalog, jobs, naming }),
-    ...partProgramRoutes({ dataDir: deps.dataDir, uploadLimitBytes: deps.uploadLimitBytes ?? 20 * 1024 * 1024, programs: partProgramsService({ db, jobs, audit }) }),
+    ...partProgramRoutes({ dataDir: deps.dataDir, uploadLimitBytes: deps.uploadLimitBytes ?? 20 * 1024 * 1024, programs }),
   ];
   mount(api, routes);
   api.use(apiNotFound);

@@ -105,7 +105,7 @@ ${clamps.length ? clamps.map((p) => `<p><span class="box"></span>${esc(p.id)} ($
  * The job package: everything the programmer and the operator need in one download, with a
  * manifest holding the pinned version's content hash and the SHA-256 of every file.
  */
-export async function jobPackage(job: JobDetail, v: TemplateVersion): Promise<Buffer> {
+export async function jobPackage(job: JobDetail, v: TemplateVersion, programFiles: [string, string][] = []): Promise<Buffer> {
   const drawing = jobDrawing(job, v);
   const files: [string, string | Buffer][] = [
     ['stations.csv', stationsCsv(v.unit, v.stations)],
@@ -116,6 +116,7 @@ export async function jobPackage(job: JobDetail, v: TemplateVersion): Promise<Bu
     ['setup-sheet.html', setupSheetHtml(job, v)],
   ];
   if (job.stockChecks.length) files.push(['stock-check.json', JSON.stringify(job.stockChecks[0], null, 2)]);
+  files.push(...programFiles);
   const zip = new JSZip();
   const listed = files.map(([name, body]) => {
     zip.file(name, body);

@@ -27,6 +27,31 @@ export function partProgramsService(deps: { db: Db; jobs: JobsService; audit: Au
     return { program: read.program, sha256: row.sha256 };
   }
 
+  async function tableProgram(jobId: number, q: TableProgramQuery): Promise<{ text: string; fileName: string }> {
+    const job = await jobs.detail(jobId);
+    const stored = await program(jobId, job.unit);
+    if (!stored || !job.partProgram) throw new HttpError(404, 'no-part-program', `Job ${jobId} has no part program yet; upload the program for one part first.`);
+    const numbers = new Set(job.stationList.map((s) => s.number));
+    const unknown = q.skip.find((n) => !numbers.has(n));
+    if (unknown !== undefined) throw badRequest(`skip: station ${unknown} is not a station of this job; skip only stations ${[...numbers].sort((a, b) => a - b).join(', ')}.`, null, 'skip');
+    const skipped = [...new Set(q.skip)].sort((a, b) => a - b);
+    const stations = job.stationList.filter((s) => !skipped.includes(s.number)).sort((a, b) => a.number - b.number);
+    const floor = job.partProgram.minimumSafeZ;
+    const safeZ = q.safeZ ?? floor;
+    if (safeZ < floor - 1e-9) {
+      throw badRequest(`safeZ ${formatLength(safeZ, job.unit)} is below this job's lowest safe height of ${formatLength(floor, job.unit)} (the stock top or tallest clamp plus a clearance); raise it.`, { minimumSafeZ: floor }, 'safe-z');
+    }
+    const result = expandedProgram({
+      program: stored.program, unit: job.unit, stations, order: q.order, safeZ,
+      header: {
+        templateName: job.templateName, version: job.version, contentHash: job.contentHash, jobId: job.id, jobName: job.name,
+        partNumber: job.partNumber, programSha256: stored.sha256, family: 'EXPANDED - EVERY COORDINATE REWRITTEN, ONLY THE SHARED WORK OFFSET ACTIVE', skipped,
+      },
+    });
+    if (!result.ok) throw badRequest(result.message, null, 'table-program');
+    return { text: result.text, fileName: `${q.family}-${q.order}` };
+  }
+
   return {
     async upload(user: User, jobId: number, file: { name: string; size: number; path: string }) {
       const job = await jobs.detail(jobId);
@@ -47,30 +72,21 @@ export function partProgramsService(deps: { db: Db; jobs: JobsService; audit: Au
       return jobs.detail(jobId);
     },
 
-    async tableProgram(jobId: number, q: TableProgramQuery): Promise<{ text: string; fileName: string }> {
-      const job = await jobs.detail(jobId);
-      const stored = await program(jobId, job.unit);
-      if (!stored || !job.partProgram) throw new HttpError(404, 'no-part-program', `Job ${jobId} has no part program yet; upload the program for one part first.`);
-      const numbers = new Set(job.stationList.map((s) => s.number));
-      const unknown = q.skip.find((n) => !numbers.has(n));
-      if (unknown !== undefined) throw badRequest(`skip: station ${unknown} is not a station of this job; skip only stations ${[...numbers].sort((a, b) => a - b).join(', ')}.`, null, 'skip');
-      const skipped = [...new Set(q.skip)].sort((a, b) => a - b);
-      const stations = job.stationList.filter((s) => !skipped.includes(s.number)).sort((a, b) => a.number - b.number);
-      const floor = job.partProgram.minimumSafeZ;
-      const safeZ = q.safeZ ?? floor;
-      if (safeZ < floor - 1e-9) {
-        throw badRequest(`safeZ ${formatLength(safeZ, job.unit)} is below this job's lowest safe height of ${formatLength(floor, job.unit)} (the stock top or tallest clamp plus a clearance); raise it.`, { minimumSafeZ: floor }, 'safe-z');
+    /** For the job package: the part program as stored and the whole-table program with the defaults (expanded, station order, every station). */
+    async packageFiles(jobId: number): Promise<[string, string][]> {
+      const row = await repo.get(jobId);
+      if (!row) return [];
+      const files: [string, string][] = [['part-program.nc', row.text]];
+      try {
+        const table = await tableProgram(jobId, { family: 'expanded', order: 'station', skip: [] });
+        files.push(['whole-table-program.nc', table.text]);
+      } catch (e) {
+        if (!(e instanceof HttpError)) throw e;
       }
-      const result = expandedProgram({
-        program: stored.program, unit: job.unit, stations, order: q.order, safeZ,
-        header: {
-          templateName: job.templateName, version: job.version, contentHash: job.contentHash, jobId: job.id, jobName: job.name,
-          partNumber: job.partNumber, programSha256: stored.sha256, family: 'EXPANDED - EVERY COORDINATE REWRITTEN, ONLY THE SHARED WORK OFFSET ACTIVE', skipped,
-        },
-      });
-      if (!result.ok) throw badRequest(result.message, null, 'table-program');
-      return { text: result.text, fileName: `${q.family}-${q.order}` };
+      return files;
     },
+
+    tableProgram,
   };
 }
 export type PartProgramsService = ReturnType<typeof partProgramsService>;

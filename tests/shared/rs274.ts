@@ -13,9 +13,16 @@ export function runRs274(program: string, tools: { t: number; z: number; d: numb
   try {
     writeFileSync(path.join(dir, 'tools.tbl'), tools.map((t) => `T${t.t} P${t.t} Z${t.z} D${t.d} ;test tool`).join('\n') + '\n');
     writeFileSync(path.join(dir, 'p.ngc'), program);
-    const out = execFileSync('/usr/bin/rs274', ['-t', path.join(dir, 'tools.tbl'), '-g', path.join(dir, 'p.ngc')], { encoding: 'utf8', maxBuffer: 512 * 1024 * 1024, stdio: ['ignore', 'pipe', 'pipe'] });
     const canon: Canon[] = [];
     const errors: string[] = [];
+    let out: string;
+    try {
+      out = execFileSync('/usr/bin/rs274', ['-t', path.join(dir, 'tools.tbl'), '-g', path.join(dir, 'p.ngc')], { encoding: 'utf8', maxBuffer: 512 * 1024 * 1024, stdio: ['ignore', 'pipe', 'pipe'] });
+    } catch (e) {
+      const err = e as { stdout?: string; stderr?: string; status?: number };
+      out = `${err.stdout ?? ''}\n${err.stderr ?? ''}`;
+      errors.push(`rs274 exited with status ${err.status}`);
+    }
     for (const line of out.split('\n')) {
       const m = /^\s*\d+ N\.{5} ([A-Z0-9_]+)\((.*)\)\s*$/.exec(line);
       if (m) {
@@ -36,12 +43,15 @@ export function movesOf(canon: Canon[]): { moves: Move[]; toolChanges: number[];
   const moves: Move[] = [];
   const toolChanges: number[] = [];
   const changeIndex: number[] = [];
+  let selected = NaN;
   for (const c of canon) {
     if (c.kind === 'STRAIGHT_TRAVERSE') moves.push({ kind: 'traverse', x: c.args[0]!, y: c.args[1]!, z: c.args[2]! });
     else if (c.kind === 'STRAIGHT_FEED') moves.push({ kind: 'feed', x: c.args[0]!, y: c.args[1]!, z: c.args[2]! });
     // ARC_FEED(first_end, second_end, first_axis, second_axis, rotation, axis_end_point, a, b, c)
     else if (c.kind === 'ARC_FEED') moves.push({ kind: 'arc', x: c.args[0]!, y: c.args[1]!, cx: c.args[2]!, cy: c.args[3]!, turn: c.args[4]!, z: c.args[5]! });
-    else if (c.kind === 'CHANGE_TOOL') { toolChanges.push(c.args[0]!); changeIndex.push(moves.length); }
+    // CHANGE_TOOL names the tool-table slot; the tool number is the one SELECT_TOOL (the T word) chose before it.
+    else if (c.kind === 'SELECT_TOOL') selected = c.args[0]!;
+    else if (c.kind === 'CHANGE_TOOL') { toolChanges.push(selected); changeIndex.push(moves.length); }
   }
   return { moves, toolChanges, changeIndex };
 }
