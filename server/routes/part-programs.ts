@@ -15,6 +15,10 @@ export function partProgramRoutes(deps: { dataDir: string; uploadLimitBytes: num
     { method: 'post', path: '/jobs/:id/part-program', access: CAN.editTemplates, before: upload, handler: (req, res) => usingUpload(req.file, async (file) => {
       res.json(await programs.upload(currentUser(req), id(req.params), { name: file.originalname, size: file.size, path: file.path }));
     }) },
+    { method: 'get', path: '/jobs/:id/part-program.nc', access: 'signed-in', handler: async (req, res) => {
+      const jobId = id(req.params);
+      res.type('text/plain').attachment(`job-${jobId}-part-program.nc`).send(await programs.partText(jobId));
+    } },
     { method: 'get', path: '/jobs/:id/program.nc', access: 'signed-in', handler: async (req, res) => {
       const jobId = id(req.params);
       const { text, fileName } = await programs.tableProgram(jobId, parseOr400(TableProgramQuerySchema, req.query, 'program'));

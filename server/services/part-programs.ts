@@ -87,6 +87,13 @@ export function partProgramsService(deps: { db: Db; jobs: JobsService; audit: Au
     },
 
     tableProgram,
+    /** The program as it was sent. */
+    async partText(jobId: number): Promise<string> {
+      await jobs.requireJob(jobId);
+      const row = await repo.get(jobId);
+      if (!row) throw new HttpError(404, 'no-part-program', `Job ${jobId} has no part program yet; upload the program for one part first.`);
+      return row.text;
+    },
   };
 }
 export type PartProgramsService = ReturnType<typeof partProgramsService>;
