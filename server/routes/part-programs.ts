@@ -17,12 +17,14 @@ export function partProgramRoutes(deps: { dataDir: string; uploadLimitBytes: num
     }) },
     { method: 'get', path: '/jobs/:id/part-program.nc', access: 'signed-in', handler: async (req, res) => {
       const jobId = id(req.params);
-      res.type('text/plain').attachment(`job-${jobId}-part-program.nc`).send(await programs.partText(jobId));
+      // Read before any header is set, so a refusal still answers as a JSON error.
+      const text = await programs.partText(jobId);
+      res.attachment(`job-${jobId}-part-program.nc`).type('text/plain').send(text);
     } },
     { method: 'get', path: '/jobs/:id/program.nc', access: 'signed-in', handler: async (req, res) => {
       const jobId = id(req.params);
       const { text, fileName } = await programs.tableProgram(jobId, parseOr400(TableProgramQuerySchema, req.query, 'program'));
-      res.type('text/plain').attachment(`job-${jobId}-${fileName}.nc`).send(text);
+      res.attachment(`job-${jobId}-${fileName}.nc`).type('text/plain').send(text);
     } },
   ];
 }

@@ -61,6 +61,7 @@ describe('part program on a job', () => {
     const res = await operator.get(`/api/jobs/${id}/program.nc?order=tool&skip=3,7`).expect(200);
     const text = res.text;
     expect(res.headers['content-disposition']).toMatch(/attachment/);
+    expect(res.headers['content-type']).toMatch(/^text\/plain/);
     expect(text).toMatch(/\(TEMPLATE: .+ VERSION 1\)/);
     expect(text).toMatch(/\(CONTENT HASH: [0-9a-f]{64}\)/);
     expect(text).toContain('(SKIPPED STATIONS: 3 7)');
@@ -95,6 +96,7 @@ describe('part program on a job', () => {
     }).expect(200);
     const zip = await JSZip.loadAsync(zipRes.body as Buffer);
     expect(await zip.file('part-program.nc')!.async('string')).toBe(part);
+    expect((await operator.get(`/api/jobs/${id}/part-program.nc`).expect(200)).text).toBe(part);
     const table = await zip.file('whole-table-program.nc')!.async('string');
     expect(table).toContain('(ORDER: STATION');
     const manifest = JSON.parse(await zip.file('manifest.json')!.async('string'));
