@@ -64,6 +64,14 @@ function countText(q: number, d: number): string {
   return `${neg ? '-' : ''}${s.slice(0, s.length - d)}.${s.slice(s.length - d)}`;
 }
 
+/** Table X and Y of a part point at a station, counted in the last written decimal. */
+function qx(p: Placed, q: XY, d: number): number {
+  return counts(p.station.x + p.cos * q.x - p.sin * q.y, d);
+}
+function qy(p: Placed, q: XY, d: number): number {
+  return counts(p.station.y + p.sin * q.x + p.cos * q.y, d);
+}
+
 /** Part X Y to table X Y for one station. */
 export function toTable(p: XY, s: { x: number; y: number; c: number }): XY {
   const { cos, sin } = cosSinDeg(s.c);
@@ -114,52 +122,52 @@ export function expandedProgram(req: TableProgramRequest): TableProgramResult {
 
   const move = (b: Block, p: Placed, forceMotion: boolean): string => {
     const { station: s, cos, sin } = p;
-    const T = (q: XY) => ({ x: s.x + cos * q.x - sin * q.y, y: s.y + sin * q.x + cos * q.y });
     const parts: string[] = [];
     if (forceMotion && !b.explicitMotion && b.motion !== null) parts.push(`G${b.motion}`);
     const isCycle = b.kind === 'cycle';
     let xyDone = false;
     let ijDone = false;
     for (const w of b.words) {
+      let word: string;
       switch (w.letter) {
         case 'X':
         case 'Y': {
-          if (xyDone) break;
+          if (xyDone) continue;
           xyDone = true;
           if (b.abs) {
-            const e = T(b.end!);
-            parts.push(`X${num(e.x)}`, `Y${num(e.y)}`);
+            word = `X${countText(qx(p, b.end!, d), d)} Y${countText(qy(p, b.end!, d), d)}`;
           } else if (isCycle) {
-            const dx = b.words.find((v) => v.letter === 'X')?.value ?? 0;
-            const dy = b.words.find((v) => v.letter === 'Y')?.value ?? 0;
-            parts.push(`X${num(cos * dx - sin * dy)}`, `Y${num(sin * dx + cos * dy)}`);
+            let dx = 0;
+            let dy = 0;
+            for (const v of b.words) {
+              if (v.letter === 'X') dx = v.value;
+              else if (v.letter === 'Y') dy = v.value;
+            }
+            word = `X${num(cos * dx - sin * dy)} Y${num(sin * dx + cos * dy)}`;
           } else {
-            const e = T(b.end!);
-            const st = T(b.start!);
-            parts.push(`X${countText(counts(e.x, d) - counts(st.x, d), d)}`, `Y${countText(counts(e.y, d) - counts(st.y, d), d)}`);
+            word = `X${countText(qx(p, b.end!, d) - qx(p, b.start!, d), d)} Y${countText(qy(p, b.end!, d) - qy(p, b.start!, d), d)}`;
           }
           break;
         }
         case 'I':
-        case 'J': {
-          if (ijDone) break;
+        case 'J':
+          if (ijDone) continue;
           ijDone = true;
-          const c = T(b.center!);
-          const st = T(b.start!);
-          parts.push(`I${countText(counts(c.x, d) - counts(st.x, d), d)}`, `J${countText(counts(c.y, d) - counts(st.y, d), d)}`);
+          word = `I${countText(qx(p, b.center!, d) - qx(p, b.start!, d), d)} J${countText(qy(p, b.center!, d) - qy(p, b.start!, d), d)}`;
           break;
-        }
         case 'Z':
-          parts.push(b.abs ? `Z${num(w.value + s.z)}` : `Z${w.text}`);
+          word = b.abs ? `Z${num(w.value + s.z)}` : `Z${w.text}`;
           break;
         case 'R':
-          parts.push(isCycle && b.abs ? `R${num(w.value + s.z)}` : `R${w.text}`);
+          word = isCycle && b.abs ? `R${num(w.value + s.z)}` : `R${w.text}`;
           break;
         default:
-          parts.push(`${w.letter}${w.text}`);
+          word = `${w.letter}${w.text}`;
       }
+      parts.push(word);
     }
-    return `${parts.join(' ')}${writeComments(b)}`;
+    const line = parts.join(' ');
+    return b.comments.length ? `${line}${writeComments(b)}` : line;
   };
 
   const transition = (seg: Segment, p: Placed) => {
