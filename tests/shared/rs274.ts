@@ -8,6 +8,7 @@ import path from 'node:path';
 export interface Canon { kind: string; args: number[]; text: string }
 
 /** A tool table line per LinuxCNC's format: `T1 P1 Z1.0 D0.25`. */
+/** Each run has its own HOME and folder: rs274 keeps its tool table in $HOME/.tool.mmap, which parallel runs would share. */
 export function runRs274(program: string, tools: { t: number; z: number; d: number }[]): { canon: Canon[]; errors: string[] } {
   const dir = mkdtempSync(path.join(os.tmpdir(), 'rs274-'));
   try {
@@ -17,7 +18,7 @@ export function runRs274(program: string, tools: { t: number; z: number; d: numb
     const errors: string[] = [];
     let out: string;
     try {
-      out = execFileSync('/usr/bin/rs274', ['-t', path.join(dir, 'tools.tbl'), '-g', path.join(dir, 'p.ngc')], { encoding: 'utf8', maxBuffer: 512 * 1024 * 1024, stdio: ['ignore', 'pipe', 'pipe'] });
+      out = execFileSync('/usr/bin/rs274', ['-t', path.join(dir, 'tools.tbl'), '-g', path.join(dir, 'p.ngc')], { encoding: 'utf8', maxBuffer: 512 * 1024 * 1024, stdio: ['ignore', 'pipe', 'pipe'], cwd: dir, env: { ...process.env, HOME: dir } });
     } catch (e) {
       const err = e as { stdout?: string; stderr?: string; status?: number };
       out = `${err.stdout ?? ''}\n${err.stderr ?? ''}`;
