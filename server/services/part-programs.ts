@@ -56,7 +56,8 @@ export function partProgramsService(deps: { db: Db; jobs: JobsService; audit: Au
     async upload(user: User, jobId: number, file: { name: string; size: number; path: string }) {
       const job = await jobs.detail(jobId);
       if (file.size > MAX_PROGRAM_BYTES) throw badRequest(`The part program is ${(file.size / 1048576).toFixed(1)} MB; one part's program may be at most ${MAX_PROGRAM_BYTES / 1048576} MB.`, null, 'part-program');
-      const text = readFileSync(file.path, 'latin1');
+      // Read byte for byte; a UTF-8 byte-order mark some editors write is dropped, anything else not ASCII is refused by line.
+      const text = readFileSync(file.path, 'latin1').replace(/^\xEF\xBB\xBF/, '');
       const read = readPartProgram(text, job.unit);
       if (!read.ok) throw refused(read.error);
       const sha256 = createHash('sha256').update(text, 'latin1').digest('hex');

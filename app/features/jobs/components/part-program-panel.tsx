@@ -134,7 +134,7 @@ function ProgramPreview({ job, skip }: { job: JobDetail; skip: number[] }) {
   if (text.error) return <ErrorText error={text.error} />;
   if (!preview?.bounds) return <p className="text-slate-700">{text.isPending ? 'Loading the preview…' : 'Nothing to preview.'}</p>;
   const b = preview.bounds;
-  const pad = Math.max(b.maxX - b.minX, b.maxY - b.minY) * 0.04 || 1;
+  const pad = Math.max(b.maxX - b.minX, b.maxY - b.minY) * 0.07 || 1;
   const w = b.maxX - b.minX + 2 * pad;
   const h = b.maxY - b.minY + 2 * pad;
   const stroke = Math.max(w, h) / 600;
@@ -155,7 +155,7 @@ function ProgramPreview({ job, skip }: { job: JobDetail; skip: number[] }) {
           })}
         </g>
         {preview.stations.map((s) => (
-          <text key={`n${s.number}`} x={s.at.x + stroke * 8} y={-s.at.y - stroke * 8} fontSize={stroke * 18} className="fill-slate-900 font-mono">{s.number}</text>
+          <text key={`n${s.number}`} x={s.at.x + stroke * 8} y={-s.at.y - stroke * 8} fontSize={stroke * 14} className="fill-slate-900 font-mono">{s.number}</text>
         ))}
       </svg>
       <figcaption className="text-sm text-slate-700">Cutting moves and holes of every station from the shared work offset (crosses: station datums). Skipped stations are faint. A sketch for checking, not a simulation.</figcaption>
