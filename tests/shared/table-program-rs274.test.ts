@@ -6,7 +6,8 @@
 import { describe, expect, it } from 'vitest';
 import { evaluateTemplate } from '../../shared/stations/evaluate-template';
 import { readPartProgram } from '../../shared/gcode/read-part-program';
-import { expandedProgram, type ProgramOrder } from '../../shared/gcode/expand-program';
+import { expandedProgram } from '../../shared/gcode/expand-program';
+import type { ProgramOrder } from '../../shared/gcode/table-program';
 import type { Station } from '../../shared/schemas/template';
 import type { Unit } from '../../shared/schemas/common';
 import { centerRail, content } from './station-fixtures';
