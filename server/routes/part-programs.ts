@@ -5,6 +5,7 @@ import { currentUser } from '../middleware/auth';
 import { singleFileUpload, usingUpload } from '../middleware/upload';
 import type { PartProgramsService } from '../services/part-programs';
 import { parseOr400 } from './parse';
+import { sendChunks } from './send-chunks';
 import type { RouteDef } from './route-table';
 
 export function partProgramRoutes(deps: { dataDir: string; uploadLimitBytes: number; programs: PartProgramsService }): RouteDef[] {
@@ -23,8 +24,9 @@ export function partProgramRoutes(deps: { dataDir: string; uploadLimitBytes: num
     } },
     { method: 'get', path: '/jobs/:id/program.nc', access: 'signed-in', handler: async (req, res) => {
       const jobId = id(req.params);
-      const { text, fileName } = await programs.tableProgram(jobId, parseOr400(TableProgramQuerySchema, req.query, 'program'));
-      res.attachment(`job-${jobId}-${fileName}.nc`).type('text/plain').send(text);
+      // Checked whole before the first byte, then sent as it is written.
+      const { chunks, fileName } = await programs.tableProgram(jobId, parseOr400(TableProgramQuerySchema, req.query, 'program'));
+      await sendChunks(res.attachment(`job-${jobId}-${fileName}.nc`).type('text/plain'), chunks);
     } },
   ];
 }

@@ -3,7 +3,8 @@ import { readFileSync } from 'node:fs';
 import type { User } from '../../shared/schemas/auth';
 import type { TableProgramQuery } from '../../shared/schemas/part-program';
 import { MAX_PROGRAM_BYTES, readPartProgram, type PartProgram } from '../../shared/gcode/read-part-program';
-import { expandedProgram } from '../../shared/gcode/expand-program';
+import { expandedFrame } from '../../shared/gcode/expand-program';
+import { refuseTableRequest, tableProgramChunks, type StationFrame, type TableProgramRequest } from '../../shared/gcode/table-program';
 import { formatLength } from '../../shared/units/units';
 import type { Db } from '../db/knex';
 import type { AuditRepo } from '../db/audit-repo';
@@ -27,7 +28,8 @@ export function partProgramsService(deps: { db: Db; jobs: JobsService; audit: Au
     return { program: read.program, sha256: row.sha256 };
   }
 
-  async function tableProgram(jobId: number, q: TableProgramQuery): Promise<{ text: string; fileName: string }> {
+  /** Everything checked before a byte is written: the program, the skipped stations, safe Z, the size. */
+  async function prepareTable(jobId: number, q: TableProgramQuery): Promise<{ request: TableProgramRequest; frame: StationFrame; fileName: string }> {
     const job = await jobs.detail(jobId);
     const stored = await program(jobId, job.unit);
     if (!stored || !job.partProgram) throw new HttpError(404, 'no-part-program', `Job ${jobId} has no part program yet; upload the program for one part first.`);
@@ -41,15 +43,22 @@ export function partProgramsService(deps: { db: Db; jobs: JobsService; audit: Au
     if (safeZ < floor - 1e-9) {
       throw badRequest(`safeZ ${formatLength(safeZ, job.unit)} is below this job's lowest safe height of ${formatLength(floor, job.unit)} (the stock top or tallest clamp plus a clearance); raise it.`, { minimumSafeZ: floor }, 'safe-z');
     }
-    const result = expandedProgram({
+    const request: TableProgramRequest = {
       program: stored.program, unit: job.unit, stations, order: q.order, safeZ,
       header: {
         templateName: job.templateName, version: job.version, contentHash: job.contentHash, jobId: job.id, jobName: job.name,
         partNumber: job.partNumber, programSha256: stored.sha256, family: 'EXPANDED - EVERY COORDINATE REWRITTEN, ONLY THE SHARED WORK OFFSET ACTIVE', skipped,
       },
-    });
-    if (!result.ok) throw badRequest(result.message, null, 'table-program');
-    return { text: result.text, fileName: `${q.family}-${q.order}` };
+    };
+    const refusal = refuseTableRequest(request);
+    if (refusal) throw badRequest(refusal, null, 'table-program');
+    return { request, frame: expandedFrame(job.unit), fileName: `${q.family}-${q.order}` };
+  }
+
+  /** The whole-table program in pieces, checked before the first piece. */
+  async function tableProgram(jobId: number, q: TableProgramQuery): Promise<{ chunks: Iterable<string>; fileName: string }> {
+    const { request, frame, fileName } = await prepareTable(jobId, q);
+    return { chunks: tableProgramChunks(request, frame), fileName };
   }
 
   return {
@@ -80,7 +89,7 @@ export function partProgramsService(deps: { db: Db; jobs: JobsService; audit: Au
       const files: [string, string][] = [['part-program.nc', row.text]];
       try {
         const table = await tableProgram(jobId, { family: 'expanded', order: 'station', skip: [] });
-        files.push(['whole-table-program.nc', table.text]);
+        files.push(['whole-table-program.nc', [...table.chunks].join('')]);
       } catch (e) {
         if (!(e instanceof HttpError)) throw e;
       }

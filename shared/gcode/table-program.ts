@@ -39,7 +39,7 @@ export interface TableProgramRequest {
   header: TableProgramHeader;
 }
 
-export type TableProgramResult = { ok: true; text: string; blocks: number } | { ok: false; message: string };
+export type TableProgramResult = { ok: true; text: string } | { ok: false; message: string };
 
 /** How one station's copy is made active and written. */
 export interface StationFrame {
@@ -87,14 +87,35 @@ export function plainWords(b: Block, tool: number | null = null, keep: (letter: 
   return `${words.join(' ')}${words.length || b.comments.length ? writeComments(b) : ''}`.trim();
 }
 
+/** Why a request cannot be written, before any of it is: a sentence, or null. */
+export function refuseTableRequest(req: TableProgramRequest): string | null {
+  const total = req.program.blocks.length * Math.max(1, req.stations.length);
+  if (!req.stations.length) return 'Every station is skipped; leave at least one station to machine.';
+  if (total > MAX_TABLE_BLOCKS) return `The whole-table program would hold about ${total.toLocaleString('en-US')} blocks, more than ${MAX_TABLE_BLOCKS.toLocaleString('en-US')}; skip stations or shorten the part program.`;
+  return null;
+}
+
+/** The whole file at once (tests, the job package). */
 export function writeTableProgram(req: TableProgramRequest, frame: StationFrame): TableProgramResult {
+  const refused = refuseTableRequest(req);
+  if (refused) return { ok: false, message: refused };
+  return { ok: true, text: [...tableProgramChunks(req, frame)].join('') };
+}
+
+/**
+ * The file in pieces of about one station's copy each, so a server can send it as it is written
+ * and let other requests run between pieces. Call refuseTableRequest first.
+ */
+export function* tableProgramChunks(req: TableProgramRequest, frame: StationFrame): Generator<string> {
   const { program, unit, order, safeZ } = req;
   const d = DECIMALS[unit];
-  const total = program.blocks.length * Math.max(1, req.stations.length);
-  if (!req.stations.length) return { ok: false, message: 'Every station is skipped; leave at least one station to machine.' };
-  if (total > MAX_TABLE_BLOCKS) return { ok: false, message: `The whole-table program would hold about ${total.toLocaleString('en-US')} blocks, more than ${MAX_TABLE_BLOCKS.toLocaleString('en-US')}; skip stations or shorten the part program.` };
-  const num = (v: number) => countText(counts(v, d), d);
   const out: string[] = [];
+  const flush = () => {
+    const chunk = `${out.join('\n')}\n`;
+    out.length = 0;
+    return chunk;
+  };
+  const num = (v: number) => countText(counts(v, d), d);
   const h = req.header;
 
   out.push(
@@ -150,16 +171,20 @@ export function writeTableProgram(req: TableProgramRequest, frame: StationFrame)
 
   for (let i = 0; i < program.preamble; i++) push(plainWords(program.blocks[i]!));
   const segs = program.segments;
+  const CHUNK_LINES = 4096;
   if (order === 'station') {
     for (const s of req.stations) {
-      segs.forEach((seg, k) => {
+      for (let k = 0; k < segs.length; k++) {
+        const seg = segs[k]!;
         marker(seg, k, s);
         if (seg.toolChange) push(plainWords(program.blocks[seg.first]!, seg.tool));
         body(seg, seg.toolChange ? seg.first + 1 : seg.first, s);
-      });
+        if (out.length >= CHUNK_LINES) yield flush();
+      }
     }
   } else {
-    segs.forEach((seg, k) => {
+    for (let k = 0; k < segs.length; k++) {
+      const seg = segs[k]!;
       if (seg.toolChange) {
         out.push(comment(`TOOL ${seg.tool} - SEGMENT ${k + 1} OF ${segs.length}`));
         push(plainWords(program.blocks[seg.first]!, seg.tool));
@@ -167,9 +192,10 @@ export function writeTableProgram(req: TableProgramRequest, frame: StationFrame)
       for (const s of req.stations) {
         marker(seg, k, s);
         body(seg, seg.toolChange ? seg.first + 1 : seg.first, s);
+        if (out.length >= CHUNK_LINES) yield flush();
       }
-    });
+    }
   }
   out.push(comment('END OF THE WHOLE-TABLE PROGRAM'), 'G40 G80', ...frame.leave, `G0 G90 Z${num(safeZ)}`, 'M5', 'M9', 'M30');
-  return { ok: true, text: `${out.join('\n')}\n`, blocks: out.length };
+  yield flush();
 }

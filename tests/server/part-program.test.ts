@@ -3,6 +3,7 @@ import { createHash } from 'node:crypto';
 import JSZip from 'jszip';
 import { makeTestApp, tableCounts, type Agent, type TestApp } from './test-app';
 import { movesOf, runRs274 } from '../shared/rs274';
+import { generatePartProgram } from '../bench/generate-program';
 
 let t: TestApp;
 let programmer: Agent;
@@ -101,6 +102,19 @@ describe('part program on a job', () => {
     expect(table).toContain('(ORDER: STATION');
     const manifest = JSON.parse(await zip.file('manifest.json')!.async('string'));
     expect(manifest.files.map((f: { name: string }) => f.name)).toEqual(expect.arrayContaining(['part-program.nc', 'whole-table-program.nc']));
+  });
+
+  it('sends a long file whole, piece by piece: rs274 reads every station of a 4,000-line program', async () => {
+    const long = generatePartProgram(4000);
+    await upload(programmer, long, 'long.nc').expect(200);
+    const res = await operator.get(`/api/jobs/${id}/program.nc?order=station&skip=1`).expect(200);
+    expect(res.headers['transfer-encoding']).toBe('chunked');
+    const { canon, errors } = runRs274(res.text, [1, 2, 3, 4].map((t) => ({ t, z: 1 + t / 10, d: 0.25 })));
+    expect(errors).toEqual([]);
+    const stations = (await operator.get(`/api/jobs/${id}`).expect(200)).body.stationList.length;
+    // Station order: the four tool changes again at every station but the skipped one (LinuxCNC CHANGE_TOOL).
+    expect(movesOf(canon).toolChanges).toEqual(Array.from({ length: stations - 1 }, () => [1, 2, 3, 4]).flat());
+    expect(res.text.trim().endsWith('M30')).toBe(true);
   });
 
   it('answers 404 for a job with no part program', async () => {
