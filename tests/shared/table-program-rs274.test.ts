@@ -83,6 +83,7 @@ function partFeeds(text: string): Move[][] {
   const { canon, errors } = runRs274(text, TOOLS);
   expect(errors, 'rs274 reads the part program without error').toEqual([]);
   const { moves, changeIndex } = movesOf(canon);
+  if (!changeIndex.length) return [moves.filter((m) => m.kind !== 'traverse')];
   const bounds = [...changeIndex, moves.length];
   const segments: Move[][] = [];
   for (let k = 0; k < changeIndex.length; k++) segments.push(moves.slice(bounds[k], bounds[k + 1]).filter((m) => m.kind !== 'traverse'));
@@ -103,7 +104,7 @@ function carry(m: Move, s: Station): Move {
   return out;
 }
 
-function checkTable(opts: { part: string; stations: Station[]; skip: number[]; order: ProgramOrder; unit: Unit; safeZ: number; tol: number }) {
+function checkTable(opts: { part: string; stations: Station[]; skip: number[]; order: ProgramOrder; unit: Unit; safeZ: number; tol: number; tools?: number[] }) {
   const read = readPartProgram(opts.part, opts.unit);
   if (!read.ok) throw new Error(JSON.stringify(read.error));
   const used = opts.stations.filter((s) => !opts.skip.includes(s.number)).sort((a, b) => a.number - b.number);
@@ -119,7 +120,8 @@ function checkTable(opts: { part: string; stations: Station[]; skip: number[]; o
   else segs.forEach((m, k) => { for (const s of used) groups.push({ station: s, k, moves: m.map((v) => carry(v, s)) }); });
   const { moves, toolChanges } = movesOf(canon);
   // One tool change per segment in tool order; one per segment and station in station order.
-  expect(toolChanges).toEqual(opts.order === 'tool' ? [1, 2, 3] : used.flatMap(() => [1, 2, 3]));
+  const tools = opts.tools ?? [1, 2, 3];
+  expect(toolChanges).toEqual(opts.order === 'tool' ? tools : used.flatMap(() => tools));
   let g = 0, i = 0, boundary = true;
   let last: Move | null = null;
   const feeds = moves.filter((m) => m.kind !== 'traverse').length;
@@ -182,4 +184,12 @@ describe('whole-table program read back by rs274 (LinuxCNC interpreter)', () => 
       checkTable({ part: randomPart(rand, 'mm'), stations, skip: [4], order, unit: 'mm', safeZ: 40, tol: 0.002 });
     });
   }
+
+  // A program with no tool change (the tool already in the spindle), written in G91 after its first
+  // position: incremental lines, an incremental I J arc and an R arc, all turned, never moved.
+  it('a program without a tool change, incremental arcs included, at stations turned 90° and 180°', () => {
+    const st = (number: number, x: number, y: number, z: number, c: number): Station => ({ id: `S:${number}`, number, placement: 'S', stop: 0, x, y, z, c, nominalWidth: null });
+    const part = ['G20 G17 G90 G54', 'G0 X0.5 Y0.25 Z0.2', 'G1 Z-0.05 F12', 'G91 G1 X0.5 Y0.1', 'G3 X-0.3 Y0.3 I-0.3 J0', 'G2 X0.4 Y0 R0.25', 'G1 Y0.2 Z-0.02', 'X0.05', 'G90 G1 X0.1 Y0.9', 'G0 Z0.2', 'M30', ''].join('\n');
+    checkTable({ part, stations: [st(1, 3, 1, 0.25, 90), st(2, -2, 4, 0, 180), st(3, 6, -1, 0, 0)], skip: [], order: 'station', unit: 'in', safeZ: 1, tol: 1e-4, tools: [] });
+  });
 });
