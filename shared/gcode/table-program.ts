@@ -177,7 +177,8 @@ export function* tableProgramChunks(req: TableProgramRequest, frame: StationFram
       for (let k = 0; k < segs.length; k++) {
         const seg = segs[k]!;
         marker(seg, k, s);
-        if (seg.toolChange) push(plainWords(program.blocks[seg.first]!, seg.tool));
+        // A control refuses a tool change with cutter compensation on (LinuxCNC); the part's last segment may leave it on for M30 to clear.
+        if (seg.toolChange) out.push('G40 G80', plainWords(program.blocks[seg.first]!, seg.tool));
         body(seg, seg.toolChange ? seg.first + 1 : seg.first, s);
         if (out.length >= CHUNK_LINES) yield flush();
       }
@@ -186,8 +187,7 @@ export function* tableProgramChunks(req: TableProgramRequest, frame: StationFram
     for (let k = 0; k < segs.length; k++) {
       const seg = segs[k]!;
       if (seg.toolChange) {
-        out.push(comment(`TOOL ${seg.tool} - SEGMENT ${k + 1} OF ${segs.length}`));
-        push(plainWords(program.blocks[seg.first]!, seg.tool));
+        out.push(comment(`TOOL ${seg.tool} - SEGMENT ${k + 1} OF ${segs.length}`), 'G40 G80', plainWords(program.blocks[seg.first]!, seg.tool));
       }
       for (const s of req.stations) {
         marker(seg, k, s);

@@ -51,6 +51,20 @@ describe('hand-worked example: one arc and one drilled hole at a station turned 
   });
 });
 
+describe('cutter compensation left on at the program end', () => {
+  // LinuxCNC refuses M6 while cutter compensation is on; M30 clears it in the part program, so the next station's tool change must not inherit it.
+  it('cancels it before the next station\'s tool change in station order; rs274 reads the file without error', () => {
+    const part = ['G20 G17 G90 G54', 'T1 M6', 'G0 X0 Y0', 'G43 H1 Z0.1', 'G1 Z-0.1 F10', 'X1', 'T2 M6', 'G0 X0 Y0', 'G43 H2 Z0.1', 'G1 Z-0.1 F10', 'G41 D2 G1 X0.5 Y0.2', 'G1 X1', 'M30', ''].join('\n');
+    const read = readPartProgram(part, 'in');
+    if (!read.ok) throw new Error(read.error.message);
+    const st = (number: number, x: number): Station => ({ id: `S:${number}`, number, placement: 'S', stop: 0, x, y: 0, z: 0, c: 0, nominalWidth: null });
+    const out = expandedProgram({ program: read.program, unit: 'in', stations: [st(1, 0), st(2, 3)], order: 'station', safeZ: 1, header });
+    if (!out.ok) throw new Error(out.message);
+    expect(runRs274(part, [{ t: 1, z: 1, d: 0.25 }, { t: 2, z: 1, d: 0.25 }]).errors).toEqual([]);
+    expect(runRs274(out.text, [{ t: 1, z: 1, d: 0.25 }, { t: 2, z: 1, d: 0.25 }]).errors).toEqual([]);
+  });
+});
+
 describe('the supported subset: everything outside it is refused with its line number', () => {
   const start = ['G20 G17 G90 G54', 'T1 M6', 'G0 X0 Y0', 'G43 H1 Z0.5'];
   const cases: [string, string, RegExp][] = [
