@@ -282,7 +282,10 @@ export function readPartProgram(text: string, unit: Unit): ReadResult {
     if (gv.has(91)) st.abs = false;
     if (gv.has(98)) st.retract = 98;
     if (gv.has(99)) st.retract = 99;
+    const wasCycle = motion !== null && motion > 3;
     if (motionCodes.length) motion = motionCodes[0]!.value === 80 ? null : motionCodes[0]!.value;
+    // R and Z carry over from one canned cycle to the next (LinuxCNC "Canned Cycles"); a copy for another station must not inherit them.
+    if (motion !== null && motion > 3 && !wasCycle && (!get.R || !get.Z)) return fail(lineNo, `Line ${lineNo}: the first block of a canned cycle must give both R and Z.`);
     if (mv.has(2) || mv.has(30)) ended = true;
 
     const hasX = !!get.X;

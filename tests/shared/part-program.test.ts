@@ -89,6 +89,7 @@ describe('the supported subset: everything outside it is refused with its line n
     ['a second work offset', 'G55', /one work offset/],
     ['a line too long', `G1 X1 F10 (${'x'.repeat(260)})`, /255/],
     ['G90.1 arc centers', 'G90.1', /arc centers/],
+    ['a canned cycle started without R', 'G81 X1 Y1 Z-0.2 F5', /both R and Z/],
   ];
   for (const [what, bad, message] of cases) {
     it(`refuses ${what} on line ${start.length + 1}`, () => {
