@@ -56,3 +56,38 @@ export function movesOf(canon: Canon[]): { moves: Move[]; toolChanges: number[];
   }
   return { moves, toolChanges, changeIndex };
 }
+
+/**
+ * Moves in the coordinates of the work offset in force at the start (G54 with zero offsets in rs274), from the
+ * active-system positions rs274 prints and the offsets it announces: a point p is at g5x + R(rotation)·(p + g92)
+ * (LinuxCNC emccanon.cc, rotate_and_offset_pos, from memory), where G52 shows as SET_G92_OFFSET and G10 L2 R as
+ * SET_XY_ROTATION.
+ */
+export function movesInStartFrame(canon: Canon[]): Move[] {
+  let g5x = { x: 0, y: 0, z: 0 };
+  let g92 = { x: 0, y: 0, z: 0 };
+  let rot = 0;
+  const out: Move[] = [];
+  const at = (x: number, y: number, z: number) => {
+    const r = (rot * Math.PI) / 180;
+    const px = x + g92.x, py = y + g92.y;
+    return { x: g5x.x + Math.cos(r) * px - Math.sin(r) * py, y: g5x.y + Math.sin(r) * px + Math.cos(r) * py, z: g5x.z + z + g92.z };
+  };
+  for (const c of canon) {
+    if (c.kind === 'SET_G5X_OFFSET') g5x = { x: c.args[1]!, y: c.args[2]!, z: c.args[3]! };
+    else if (c.kind === 'SET_G92_OFFSET') g92 = { x: c.args[0]!, y: c.args[1]!, z: c.args[2]! };
+    else if (c.kind === 'SET_XY_ROTATION') rot = c.args[0]!;
+    else {
+      const [m] = movesOf([c]).moves;
+      if (!m) continue;
+      const e = at(m.x, m.y, m.z);
+      const moved: Move = { ...m, ...e };
+      if (m.kind === 'arc') {
+        const cc = at(m.cx!, m.cy!, 0);
+        moved.cx = cc.x; moved.cy = cc.y;
+      }
+      out.push(moved);
+    }
+  }
+  return out;
+}
