@@ -1,5 +1,7 @@
 import type { Unit } from '../schemas/common';
 import { lineWords, type Word } from './program-words';
+import { ALLOWED_G, ALLOWED_LETTERS, ALLOWED_M, G_REASON, MOTION } from './program-subset';
+import { emptyBounds, include, includeArc } from './program-extents';
 
 /**
  * Reads one part's program (program zero at the part's datum on its station) and checks it
@@ -94,63 +96,8 @@ export interface PartProgram {
 export interface ProgramRefusal { line: number | null; message: string }
 export type ReadResult = { ok: true; program: PartProgram } | { ok: false; error: ProgramRefusal };
 
-const MOTION = new Set([0, 1, 2, 3, 73, 80, 81, 82, 83, 84, 85, 86, 87, 88, 89]);
-const ALLOWED_G = new Set([...MOTION, 4, 17, 20, 21, 28, 40, 41, 42, 43, 49, 53, 54, 55, 56, 57, 58, 59, 90, 91, 94, 98, 99]);
-const ALLOWED_M = new Set([0, 1, 2, 3, 4, 5, 6, 7, 8, 9, 30]);
-const ALLOWED_LETTERS = new Set(['G', 'M', 'X', 'Y', 'Z', 'I', 'J', 'R', 'Q', 'P', 'L', 'F', 'S', 'T', 'H', 'D', 'N', 'O']);
-
-const G_REASON: Record<string, string> = {
-  '10': 'G10 writes offsets and tables; the whole-table program sets the station offsets itself',
-  '92': 'G92 shifts the coordinate system; the part program must run in the shared work offset as it is',
-  '52': 'G52 local shifts are written by Gridset for each station, not by the part program',
-  '68': 'G68 rotation is written by Gridset for turned stations, not by the part program',
-  '69': 'G69 belongs to coordinate rotation, which the part program does not use',
-  '18': 'only the XY plane (G17) is supported',
-  '19': 'only the XY plane (G17) is supported',
-  '15': 'polar coordinates are not supported',
-  '16': 'polar coordinates are not supported',
-  '50': 'scaling is not supported',
-  '51': 'scaling is not supported',
-  '50.1': 'mirroring is not supported',
-  '51.1': 'mirroring is not supported',
-  '90.1': 'only incremental arc centers (I J from the start, the default) are supported',
-  '91.1': 'only incremental arc centers (I J from the start, the default) are supported',
-};
-
 const gKey = (w: Word) => String(Number(w.text));
 const fail = (line: number | null, message: string): ReadResult => ({ ok: false, error: { line, message } });
-
-interface Bounds { minX: number; minY: number; minZ: number; maxX: number; maxY: number; maxZ: number; any: boolean }
-
-function include(b: Bounds, x: number, y: number, z: number | null) {
-  b.any = true;
-  if (x < b.minX) b.minX = x;
-  if (x > b.maxX) b.maxX = x;
-  if (y < b.minY) b.minY = y;
-  if (y > b.maxY) b.maxY = y;
-  if (z !== null) {
-    if (z < b.minZ) b.minZ = z;
-    if (z > b.maxZ) b.maxZ = z;
-  }
-}
-
-/** The quadrant points an arc passes through (G2 clockwise, G3 counter-clockwise seen from +Z). */
-function includeArc(b: Bounds, s: XY, e: XY, c: XY, ccw: boolean, z: number | null) {
-  const r = Math.hypot(s.x - c.x, s.y - c.y);
-  let a0 = Math.atan2(s.y - c.y, s.x - c.x);
-  let a1 = Math.atan2(e.y - c.y, e.x - c.x);
-  if (!ccw) [a0, a1] = [a1, a0];
-  let sweep = a1 - a0;
-  while (sweep <= 1e-12) sweep += 2 * Math.PI;
-  for (let k = 0; k < 4; k++) {
-    const a = (k * Math.PI) / 2;
-    let d = a - a0;
-    while (d < 0) d += 2 * Math.PI;
-    while (d >= 2 * Math.PI) d -= 2 * Math.PI;
-    if (d <= sweep) include(b, c.x + r * Math.cos(a), c.y + r * Math.sin(a), z);
-  }
-  include(b, e.x, e.y, z);
-}
 
 /**
  * Reads the program text. `unit` is the job's: G20/G21 in the program must agree with it.
@@ -176,7 +123,7 @@ export function readPartProgram(text: string, unit: Unit): ReadResult {
   let x: number | null = null;
   let y: number | null = null;
   let z: number | null = null;
-  const bounds: Bounds = { minX: Infinity, minY: Infinity, minZ: Infinity, maxX: -Infinity, maxY: -Infinity, maxZ: -Infinity, any: false };
+  const bounds = emptyBounds();
   const segments: Segment[] = [];
   const toolChanges: { tool: number; line: number }[] = [];
   let feedMoves = 0;
