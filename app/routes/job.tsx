@@ -16,10 +16,11 @@ import { applyServerIssues } from '../lib/form-errors';
 import { useMe } from '../features/auth/api';
 import { useJob, useJobStockCheck, useUpdateJob } from '../features/jobs/api';
 import { formatServerTime } from '../features/jobs/job-format';
-import { checkedBeforeEdit, jobCheckRun, jobRails, railClamp, type JobCheckRun, type JobRail } from '../features/jobs/job-rails';
+import { checkedBeforeEdit, jobCheckRun, jobRails, railClamp, railOfCheck, type JobCheckRun, type JobRail } from '../features/jobs/job-rails';
 import { JobDrawing } from '../features/jobs/components/job-drawing';
 import { JobFiles, JobSetupFacts, NewerReleaseNotice, RuntimeCard } from '../features/jobs/components/job-facts';
 import { JobForm } from '../features/jobs/components/job-form';
+import { JobProblems } from '../features/jobs/components/job-problems';
 import { PairingTable } from '../features/jobs/components/pairing-table';
 import { PartOutlineUpload } from '../features/jobs/components/part-outline-upload';
 import { PartProgramPanel } from '../features/jobs/components/part-program-panel';
@@ -64,6 +65,7 @@ export function JobRoute() {
       actions={<JobFiles job={j} stationsCsvUrl={versionFileUrl(j.templateId, j.version, 'stations.csv')} />}
     >
       <NewerReleaseNotice job={j} canEdit={canEdit} />
+      <JobProblems job={j} />
       {version.error ? <ErrorText error={version.error} /> : null}
 
       <div className="grid grid-cols-1 items-start gap-6 lg:grid-cols-[minmax(0,1fr)_22rem]">
@@ -89,7 +91,7 @@ export function JobRoute() {
 function EditJob({ job, onDone }: { job: JobDetail; onDone: () => void }) {
   const templates = useTemplates();
   const update = useUpdateJob(job.id);
-  const { name, partNumber, partRevision, templateId, version, stock, carrier, clearance, minBite, cycleMinutes, loadMinutes, notes } = job;
+  const { name, partNumber, partRevision, templateId, version, stock, carrier, clearance, minBite, cycleMinutes, loadMinutes, partRotation, notes } = job;
   if (templates.error) return <ErrorText error={templates.error} />;
   // The selects are uncontrolled: they are drawn once their options are known, so what shows is what is sent.
   if (templates.isPending) return <p className="text-slate-700">Loading templates…</p>;
@@ -98,7 +100,7 @@ function EditJob({ job, onDone }: { job: JobDetail; onDone: () => void }) {
       title="Edit job"
       submitLabel="Save job"
       templates={templates.data?.items ?? NO_TEMPLATES}
-      defaultValues={{ name, partNumber, partRevision, templateId, version, stock, carrier, clearance, minBite, cycleMinutes, loadMinutes, notes }}
+      defaultValues={{ name, partNumber, partRevision, templateId, version, stock, carrier, clearance, minBite, cycleMinutes, loadMinutes, partRotation, notes }}
       pending={update.isPending}
       error={update.error}
       onSubmit={(values, setError) => update.mutate(values, { onSuccess: onDone, onError: (err) => applyServerIssues(err, setError) })}
@@ -107,18 +109,28 @@ function EditJob({ job, onDone }: { job: JobDetail; onDone: () => void }) {
   );
 }
 
-/** The pairing table, the bars the operator measured, and what the latest check of the chosen rail said. */
+/**
+ * The pairing table, the bars the operator measured, and what the latest check said on the rail
+ * shown. One check covers every jaw rail the job uses, each against its own clamp model.
+ */
 function StockCheckSection({ job, version }: { job: JobDetail; version: TemplateVersion }) {
   const rails = useMemo(() => jobRails(job.pairings), [job.pairings]);
+  const used = useMemo(() => new Set(job.stationsUsed), [job.stationsUsed]);
+  const railsUsed = useMemo(() => new Set(job.railsUsed), [job.railsUsed]);
   const clamps = useMemo(() => new Map(rails.map((r) => [r.jawComponent, railClamp(version.components, r.jawComponent, job.unit)])), [rails, version.components, job.unit]);
   const [chosen, setChosen] = useState<string | null>(null);
-  const selected = rails.find((r) => r.jawPlacement === chosen && clamps.get(r.jawComponent))
-    ?? rails.find((r) => r.jawPlacement === job.stockChecks[0]?.jawPlacement && clamps.get(r.jawComponent))
-    ?? rails.find((r) => clamps.get(r.jawComponent)) ?? null;
+  const usable = (r: JobRail) => railsUsed.has(r.jawPlacement) && !!clamps.get(r.jawComponent);
+  const selected = rails.find((r) => r.jawPlacement === chosen && usable(r))
+    ?? rails.find((r) => r.jawPlacement === job.stockChecks[0]?.jawPlacement && usable(r))
+    ?? rails.find(usable) ?? null;
   const clamp = selected ? clamps.get(selected.jawComponent) ?? null : null;
-  const checks = selected ? job.stockChecks.filter((c) => c.jawPlacement === selected.jawPlacement) : [];
+  const checks = selected ? job.stockChecks.filter((c) => railOfCheck(c, selected.jawPlacement)) : [];
   const latest = checks[0] ?? null;
-  const run = useMemo(() => (selected && clamp && latest ? jobCheckRun(job, latest, railFor(selected, clamp)) : null), [job, latest, selected, clamp]);
+  const run = useMemo(() => {
+    const part = selected && latest ? railOfCheck(latest, selected.jawPlacement) : null;
+    return selected && clamp && latest && part ? jobCheckRun(job, { ...latest, ...part }, railFor(selected, clamp)) : null;
+  }, [job, latest, selected, clamp]);
+  const checkable = rails.filter(usable);
   const resultsHeading = useRef<HTMLHeadingElement>(null);
   const [focusCheck, setFocusCheck] = useState<number | null>(null);
 
@@ -134,14 +146,14 @@ function StockCheckSection({ job, version }: { job: JobDetail; version: Template
     <section aria-labelledby="stock-check-title" className="flex flex-col gap-4 border-t border-slate-300 pt-4">
       <div>
         <h2 id="stock-check-title" className="text-xl font-semibold">Stock check: which bars go on which rail setting</h2>
-        <p className="text-slate-700">Measure the bars, choose the jaw rail, and check them against its clamp window with this job’s carrier, clearance and minimum bite.</p>
+        <p className="text-slate-700">Measure the bars and check them against the clamp window of every jaw rail this job uses, with this job’s carrier, clearance and minimum bite; choose a rail below to see its sorting.</p>
       </div>
-      <PairingTable rails={rails} stations={job.stationList} unit={job.unit} selected={selected?.jawPlacement ?? null}
+      <PairingTable rails={rails} stations={job.stationList} used={used} unit={job.unit} selected={selected?.jawPlacement ?? null}
         onSelect={(p) => { setChosen(p); setFocusCheck(null); }} hasClamp={(code) => !!clamps.get(code)} />
       {selected && clamp ? (
         <>
           <div className="grid grid-cols-1 items-start gap-6 xl:grid-cols-[minmax(0,31rem)_minmax(0,1fr)]">
-            <BarsEntry job={job} rail={selected} clamp={clamp} onChecked={() => setFocusCheck(latest?.id ?? -1)} />
+            <BarsEntry job={job} rail={selected} clamp={clamp} checkable={checkable.map((r) => r.jawPlacement)} onChecked={() => setFocusCheck(latest?.id ?? -1)} />
             <section aria-label="Latest check" className="flex flex-col gap-4">
               {latest && run ? (
                 <LatestCheck ref={resultsHeading} job={job} rail={selected} check={latest} run={run} count={checks.length} />
@@ -156,8 +168,10 @@ function StockCheckSection({ job, version }: { job: JobDetail; version: Template
           </div>
           {latest && run ? <BarByBar run={run} stale={checkedBeforeEdit(job, latest)} /> : null}
         </>
+      ) : rails.length > 0 && job.railsUsed.length === 0 ? (
+        <Notice tone="info" title="No jaw rail holds this job's stock width">Change the stock width or pin a version with stations for it; the job's problems say which width would fit.</Notice>
       ) : rails.length > 0 ? (
-        <Notice tone="info" title="No jaw rail of this template has a clamp model">A lead adds the clamp model to the jaw rail in the catalog; a new template version then carries it.</Notice>
+        <Notice tone="info" title="No jaw rail this job uses has a clamp model">A lead adds the clamp model to the jaw rail in the catalog; a new template version then carries it.</Notice>
       ) : null}
     </section>
   );
@@ -173,14 +187,28 @@ const LatestCheck = forwardRef<HTMLHeadingElement, { job: JobDetail; rail: JobRa
           Latest check on <span className="font-mono font-semibold">{rail.jawPlacement}</span>: {formatServerTime(check.at)}{check.by ? ` by ${check.by}` : ''}
           {count > 1 ? ` · ${count} checks of this rail kept with the job` : ''}.
         </p>
+        <RailsCovered check={check} />
         <StockCheckResults ref={ref} run={run} stale={checkedBeforeEdit(job, check)} clampFrom={`${job.templateName} v${job.version}`} />
       </>
     );
   },
 );
 
+/** Which rails a check covered and which rails the job uses that it did not: said on screen, as on the setup sheet. */
+function RailsCovered({ check }: { check: JobStockCheck }) {
+  const checked = check.rails.length ? check.rails.map((r) => r.jawPlacement) : [check.jawPlacement];
+  return (
+    <p className="text-slate-800" data-testid="rails-covered">
+      Rails checked: <span className="font-mono font-semibold">{checked.join(', ')}</span>.{' '}
+      {check.railsNotChecked.length
+        ? <>Not checked: <span className="font-mono font-semibold">{check.railsNotChecked.join(', ')}</span>; check the bars for {check.railsNotChecked.length === 1 ? 'it' : 'them'} before loading.</>
+        : check.rails.length ? 'Every rail this job uses was checked.' : 'This check was made on one rail only.'}
+    </p>
+  );
+}
+
 /** The measured bars, typed or pasted, posted with the chosen rail; problems shown on the cells that cause them. */
-function BarsEntry({ job, rail, clamp, onChecked }: { job: JobDetail; rail: JobRail; clamp: ClampModel; onChecked: () => void }) {
+function BarsEntry({ job, rail, clamp, checkable, onChecked }: { job: JobDetail; rail: JobRail; clamp: ClampModel; checkable: string[]; onChecked: () => void }) {
   const [rows, setRows] = useState<BarRow[]>(firstBarRows);
   const [problems, setProblems] = useState<TableProblem[]>([]);
   const check = useJobStockCheck(job.id);
@@ -206,7 +234,8 @@ function BarsEntry({ job, rail, clamp, onChecked }: { job: JobDetail; rail: JobR
     }
     setProblems([]);
     onChecked();
-    check.mutate({ jawPlacement: rail.jawPlacement, bars: table.bars }, {
+    // No rail named: the server checks every rail the job uses, each against its own clamp.
+    check.mutate({ bars: table.bars }, {
       onError: (err) => {
         if (!(err instanceof ApiError)) return;
         // bars.3.width is the table row of bar 4.
@@ -233,7 +262,8 @@ function BarsEntry({ job, rail, clamp, onChecked }: { job: JobDetail; rail: JobR
 
   return (
     <form noValidate onSubmit={submit} aria-labelledby="bars-entry-title" className="flex flex-col gap-4 rounded border border-slate-300 bg-white p-4">
-      <h3 id="bars-entry-title" className="text-lg font-semibold">Measured bars for {rail.jawPlacement} <span className="font-mono font-normal text-slate-700">{rail.jawComponent}</span></h3>
+      <h3 id="bars-entry-title" className="text-lg font-semibold">Measured bars <span className="font-normal text-slate-700">— checked on {checkable.length === 1 ? 'rail' : 'rails'} <span className="font-mono">{checkable.join(', ')}</span></span></h3>
+      <p className="text-slate-700">Clamp window of <span className="font-mono font-semibold">{rail.jawPlacement}</span> <span className="font-mono">{rail.jawComponent}</span>, the rail shown:</p>
       <dl className="grid grid-cols-[minmax(0,1fr)_auto] gap-x-4 gap-y-0.5 text-slate-800">
         {([
           ['Nominal opening', formatLength(rail.width, unit)],
@@ -259,7 +289,7 @@ function BarsEntry({ job, rail, clamp, onChecked }: { job: JobDetail; rail: JobR
       <div className="sticky bottom-0 flex flex-col gap-2 border-t border-slate-300 bg-white py-3">
         <ErrorText error={check.error} />
         <Button type="submit" disabled={check.isPending} className="min-h-12 text-lg">
-          <ScanLine aria-hidden className="h-5 w-5" />{check.isPending ? 'Checking…' : `Check the bars on ${rail.jawPlacement}`}
+          <ScanLine aria-hidden className="h-5 w-5" />{check.isPending ? 'Checking…' : checkable.length === 1 ? `Check the bars on ${checkable[0]}` : `Check the bars on all ${checkable.length} rails`}
         </Button>
       </div>
     </form>

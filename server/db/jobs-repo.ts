@@ -3,14 +3,14 @@ import type { JobFields } from '../../shared/schemas/job';
 
 export interface JobRow {
   id: number; name: string; part_number: string; part_revision: string; version_id: number; stock: string;
-  carrier: number; clearance: number; min_bite: number; cycle_minutes: number; load_minutes: number;
+  carrier: number; clearance: number; min_bite: number; cycle_minutes: number; load_minutes: number; part_rotation: number;
   part_outline: string | null; part_file: string | null; notes: string; created_by: number | null; created_at: string; updated_at: string;
   template_id: number; template_name: string; number: number; state: string; content_hash: string;
 }
 
 const toRow = (j: JobFields, versionId: number) => ({
   name: j.name, part_number: j.partNumber, part_revision: j.partRevision, version_id: versionId, stock: JSON.stringify(j.stock),
-  carrier: j.carrier, clearance: j.clearance, min_bite: j.minBite, cycle_minutes: j.cycleMinutes, load_minutes: j.loadMinutes, notes: j.notes,
+  carrier: j.carrier, clearance: j.clearance, min_bite: j.minBite, cycle_minutes: j.cycleMinutes, load_minutes: j.loadMinutes, notes: j.notes, part_rotation: j.partRotation,
 });
 
 export function jobsRepo(db: Db) {

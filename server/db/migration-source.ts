@@ -4,6 +4,7 @@ import * as naming from '../../migrations/20261201010000_naming';
 import * as mail from '../../migrations/20261201020000_mail';
 import * as review from '../../migrations/20261201030000_review';
 import * as jobs from '../../migrations/20261201040000_jobs';
+import * as jobPartRotation from '../../migrations/20261205040000_job_part_rotation';
 import * as partPrograms from '../../migrations/20261205080000_part_programs';
 
 // Migrations are imported statically so the same list runs under tsx, vitest and the bench
@@ -14,6 +15,7 @@ const MIGRATIONS: Record<string, Knex.Migration> = {
   '20261201020000_mail': mail,
   '20261201030000_review': review,
   '20261201040000_jobs': jobs,
+  '20261205040000_job_part_rotation': jobPartRotation,
   '20261205080000_part_programs': partPrograms,
 };
 

@@ -183,7 +183,7 @@ async function seedDemoJob(db: Db, templates: ReturnType<typeof templatesService
   const job = await jobs.create(lead, {
     name: 'Bracket BR-1001, night run', partNumber: 'BR-1001', partRevision: 'B', templateId: 1, version: 1,
     stock: { width: 1, thickness: 0.5, length: 0.875, material: '6061-T6 bar' },
-    carrier: 0.25, clearance: 0.03, minBite: 0.06, cycleMinutes: 13, loadMinutes: 10, notes: 'Demo job: invented part.',
+    carrier: 0.25, clearance: 0.03, minBite: 0.06, cycleMinutes: 13, loadMinutes: 10, notes: 'Demo job: invented part.', partRotation: 0,
   });
   // 0.850 in along the rail × 1.000 in across the jaws (the width held), with a 0.100 in radius on the
   // far corners (bulge tan(22.5°) = 0.414214 for a quarter arc, DXF Reference group 42) and a 0.257 in
@@ -196,8 +196,8 @@ async function seedDemoJob(db: Db, templates: ReturnType<typeof templatesService
   await jobs.setPartOutline(lead, job.id, outline, { name: 'BR-1001-rev-B.dxf', size: 0, sha256: 'demo', unit: 'in', datum: { x: 0, y: 0 } });
   const operator = (await usersRepo(db).findWithHashByEmail('operator@gridset.test'))!;
   const widths = [0.998, 1.004, 1.012, 1.021, 1.036, 0.991, 1.043, 0.962, 1.009, 1.028];
+  // No jawPlacement: the bars are checked against every rail the job uses (A-JR and C-JR, both 1.000 in).
   await jobs.stockCheck(operator, job.id, {
-    jawPlacement: 'A-JR',
     bars: widths.map((w, i) => ({ id: `L7-${String(i + 1).padStart(2, '0')}`, width: w, thickness: 0.5 + ((i % 3) - 1) * 0.004, cornerRadius: i === 7 ? 0.05 : 0.02 })),
   });
 }

@@ -1,13 +1,14 @@
 import type { User } from '../../shared/schemas/auth';
-import type { ClampModel } from '../../shared/schemas/catalog';
 import type { Unit } from '../../shared/schemas/common';
 import type { Outline } from '../../shared/schemas/geometry';
-import type { JobDetail, JobFields, JobStockCheck, JobSummary } from '../../shared/schemas/job';
+import type { JobDetail, JobFields, JobStockCheck, JobSummary, RailCheck } from '../../shared/schemas/job';
 import type { MeasuredBar } from '../../shared/schemas/stock-check';
 import type { TemplateVersion } from '../../shared/schemas/template-api';
 import { checkStock } from '../../shared/clamps/stock-check';
 import { runtimeMinutes } from '../../shared/stations/runtime';
-import { convert } from '../../shared/units/units';
+import { jobRails, railsUsed, stationsUsed } from '../../shared/jobs/stations-used';
+import { partOverlapProblems, settingsProblem, widthProblem, type JobProblem, type PartRotation } from '../../shared/jobs/job-problems';
+import { evaluateTemplate } from '../../shared/stations/evaluate-template';
 import type { Db } from '../db/knex';
 import type { JobRow, JobsRepo } from '../db/jobs-repo';
 import type { AuditRepo } from '../db/audit-repo';
@@ -16,12 +17,6 @@ import type { TemplatesService } from './templates';
 import { partProgramsRepo } from '../db/part-programs-repo';
 import type { PartProgramInfo } from '../../shared/schemas/part-program';
 import { minimumSafeZ } from '../../shared/gcode/safe-z';
-
-/** Clamp lengths from the jaw rail's unit into the template's; slopes are ratios and stay. */
-function clampIn(clamp: ClampModel, from: Unit, to: Unit): ClampModel {
-  const l = (v: number) => convert(v, from, to);
-  return { ...clamp, acceptBelow: l(clamp.acceptBelow), acceptAbove: l(clamp.acceptAbove), topHeight: l(clamp.topHeight), gripLow: l(clamp.gripLow), gripHigh: l(clamp.gripHigh), slotSlop: l(clamp.slotSlop) };
-}
 
 export function jobsService(deps: { db: Db; jobs: JobsRepo; templates: TemplatesService; audit: AuditRepo }) {
   const { db, jobs, templates, audit } = deps;
@@ -35,14 +30,22 @@ export function jobsService(deps: { db: Db; jobs: JobsRepo; templates: Templates
 
   const fields = (r: JobRow): JobFields => ({
     name: r.name, partNumber: r.part_number, partRevision: r.part_revision, templateId: r.template_id, version: r.number,
-    stock: JSON.parse(r.stock), carrier: r.carrier, clearance: r.clearance, minBite: r.min_bite, cycleMinutes: r.cycle_minutes, loadMinutes: r.load_minutes, notes: r.notes,
+    stock: JSON.parse(r.stock), carrier: r.carrier, clearance: r.clearance, minBite: r.min_bite, cycleMinutes: r.cycle_minutes, loadMinutes: r.load_minutes, notes: r.notes, partRotation: (r.part_rotation ?? 0) as PartRotation,
   });
+
+  /** The stations this job's stock width is held at, from the pinned version's rails (one function for server and screen). */
+  function usedOf(r: JobRow, v: TemplateVersion) {
+    const rails = jobRails(v);
+    const used = stationsUsed(v.stations, rails, (JSON.parse(r.stock) as JobFields['stock']).width);
+    return { rails, used, usedRails: railsUsed(rails, v.stations, used) };
+  }
 
   function summary(r: JobRow, v: TemplateVersion, latest: Map<number, number>): JobSummary {
     const newest = latest.get(r.template_id) ?? null;
+    const { used } = usedOf(r, v);
     return {
       ...fields(r), id: r.id, templateName: r.template_name, unit: v.unit, versionState: v.state, contentHash: v.contentHash,
-      stations: v.stations.length, runtimeMinutes: runtimeMinutes(v.stations.length, r.cycle_minutes, r.load_minutes),
+      stations: v.stations.length, stationsUsed: used, runtimeMinutes: runtimeMinutes(used.length, r.cycle_minutes, r.load_minutes),
       newerRelease: newest !== null && newest > r.number ? newest : null,
       hasPartOutline: !!r.part_outline, createdAt: String(r.created_at), updatedAt: String(r.updated_at),
     };
@@ -68,13 +71,27 @@ export function jobsService(deps: { db: Db; jobs: JobsRepo; templates: Templates
     const checks = await jobs.stockChecks(id);
     const stockChecks: JobStockCheck[] = checks.map((c) => {
       const req = JSON.parse(c.request);
-      return { id: c.id, jawPlacement: c.jaw_placement, at: String(c.created_at), by: c.by_name ?? null, nominalOpening: req.nominalOpening, unit: req.unit, appliesTo: req.appliesTo ?? [], bars: req.bars, result: JSON.parse(c.result) };
+      return { id: c.id, jawPlacement: c.jaw_placement, at: String(c.created_at), by: c.by_name ?? null, nominalOpening: req.nominalOpening, unit: req.unit, appliesTo: req.appliesTo ?? [], bars: req.bars, result: JSON.parse(c.result), rails: req.rails ?? [], railsNotChecked: req.railsNotChecked ?? [] };
     });
+    const f = fields(r);
+    const { rails, used, usedRails } = usedOf(r, v);
+    const outline = r.part_outline ? (JSON.parse(r.part_outline) as Outline) : null;
+    const problems: JobProblem[] = [];
+    const width = widthProblem(v.unit, rails, f.stock.width, used);
+    if (width) problems.push(width);
+    else {
+      const settings = settingsProblem(v.unit, usedRails, f);
+      if (settings) problems.push(settings);
+    }
+    if (outline && used.length) {
+      const numbers = new Set(used);
+      problems.push(...partOverlapProblems(v, evaluateTemplate(v).origin, v.stations.filter((s) => numbers.has(s.number)), outline, f.partRotation));
+    }
     return {
       ...summary(r, v, await jobs.latestReleases()),
-      partOutline: r.part_outline ? (JSON.parse(r.part_outline) as Outline) : null,
+      partOutline: outline,
       partFile: r.part_file ? JSON.parse(r.part_file) : null,
-      stationList: v.stations, pairings: v.pairings, stockChecks,
+      stationList: v.stations, pairings: v.pairings, stockChecks, problems, railsUsed: usedRails.map((x) => x.jawPlacement),
       partProgram: await partProgram(r, v),
     };
   }
@@ -118,25 +135,35 @@ export function jobsService(deps: { db: Db; jobs: JobsRepo; templates: Templates
       return detail(id);
     },
     /**
-     * Checks measured bars against the clamp window of one jaw rail of the job's template: the
-     * nominal opening is the width that rail holds, the clamp model is the rail's own.
+     * Checks measured bars against the clamp window of every jaw rail the job uses, each against its
+     * own clamp model and the width it holds (or against the one rail named by jawPlacement). The
+     * answer keeps the first rail's result in the top-level fields and adds `rails` (one result per
+     * rail) and `railsNotChecked` (rails the job uses that were not checked, or that have no clamp model).
      */
     async stockCheck(user: User, id: number, input: { jawPlacement?: string; bars: MeasuredBar[] }) {
       const r = await requireJob(id);
       const v = await templates.version(r.template_id, r.number);
       if (!v.pairings.length) throw badRequest(`Template "${v.name}" v${v.version} has no jaw rail facing a fixed jaw, so there is no clamp window to check against.`, null, 'no-pairing');
-      const pairing = input.jawPlacement ? v.pairings.find((p) => p.jawPlacement === input.jawPlacement) : v.pairings[0];
-      if (!pairing) throw badRequest(`jawPlacement ${input.jawPlacement} is not a jaw rail of this template; choose one of ${[...new Set(v.pairings.map((p) => p.jawPlacement))].join(', ')}.`, null, 'unknown-pairing');
-      const rail = v.components.find((c) => c.code === pairing.jawComponent);
-      if (!rail?.clamp) throw badRequest(`Jaw rail ${pairing.jawComponent} has no clamp model in the template; add one in the catalog and start a new version.`, null, 'no-clamp');
-      const appliesTo = v.pairings.filter((p) => p.jawPlacement === pairing.jawPlacement).flatMap((p) => p.stations);
-      const request = { unit: v.unit, nominalOpening: pairing.width, clamp: clampIn(rail.clamp, rail.unit, v.unit), carrier: r.carrier, clearance: r.clearance, minBite: r.min_bite, bars: input.bars };
-      const result = checkStock(request);
+      const { rails, usedRails } = usedOf(r, v);
+      let toCheck = input.jawPlacement ? rails.filter((x) => x.jawPlacement === input.jawPlacement) : usedRails.length ? usedRails : rails;
+      if (input.jawPlacement && !toCheck.length) throw badRequest(`jawPlacement ${input.jawPlacement} is not a jaw rail of this template; choose one of ${rails.map((x) => x.jawPlacement).join(', ')}.`, null, 'unknown-pairing');
+      const noClamp = toCheck.filter((x) => !x.clamp);
+      toCheck = toCheck.filter((x) => x.clamp);
+      if (!toCheck.length) throw badRequest(`Jaw rail ${noClamp[0]!.jawComponent} has no clamp model in the template; add one in the catalog and start a new version.`, null, 'no-clamp');
+      const checkedNames = new Set(toCheck.map((x) => x.jawPlacement));
+      const railsNotChecked = usedRails.map((x) => x.jawPlacement).filter((p) => !checkedNames.has(p));
+      const job = { carrier: r.carrier, clearance: r.clearance, minBite: r.min_bite };
+      const results: RailCheck[] = toCheck.map((rail) => ({
+        jawPlacement: rail.jawPlacement, jawComponent: rail.jawComponent, nominalOpening: rail.nominalOpening, appliesTo: rail.stations,
+        result: checkStock({ unit: v.unit, nominalOpening: rail.nominalOpening, clamp: rail.clamp!, ...job, bars: input.bars }),
+      }));
+      const first = results[0]!;
+      const request = { unit: v.unit, nominalOpening: first.nominalOpening, clamp: toCheck[0]!.clamp, ...job, bars: input.bars, appliesTo: first.appliesTo, rails: results, railsNotChecked };
       await db.transaction(async (trx) => {
-        await jobs.addStockCheck(trx, { jobId: id, jawPlacement: pairing.jawPlacement, request: { ...request, appliesTo }, result, userId: user.id });
-        await audit.record({ userId: user.id, action: 'job.stock-check', objectType: 'job', objectId: id, summary: `Checked ${input.bars.length} bars against ${pairing.jawPlacement} (${pairing.jawComponent}): ${result.settings.length} rail setting(s), ${result.unplaceable.length} unusable`, after: { settings: result.settings.length, unplaceable: result.unplaceable.length } }, trx);
+        await jobs.addStockCheck(trx, { jobId: id, jawPlacement: first.jawPlacement, request, result: first.result, userId: user.id });
+        await audit.record({ userId: user.id, action: 'job.stock-check', objectType: 'job', objectId: id, summary: `Checked ${input.bars.length} bars against ${results.map((x) => `${x.jawPlacement} (${x.jawComponent}): ${x.result.settings.length} rail setting(s), ${x.result.unplaceable.length} unusable`).join('; ')}${railsNotChecked.length ? `; not checked: ${railsNotChecked.join(', ')}` : ''}`, after: { rails: results.map((x) => ({ rail: x.jawPlacement, settings: x.result.settings.length, unplaceable: x.result.unplaceable.length })) } }, trx);
       });
-      return { ...result, jawPlacement: pairing.jawPlacement, nominalOpening: pairing.width, unit: v.unit, appliesTo };
+      return { ...first.result, jawPlacement: first.jawPlacement, nominalOpening: first.nominalOpening, unit: v.unit, appliesTo: first.appliesTo, rails: results, railsNotChecked };
     },
     requireJob,
     safeZFloor,

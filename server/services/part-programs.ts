@@ -33,11 +33,13 @@ export function partProgramsService(deps: { db: Db; jobs: JobsService; audit: Au
     const job = await jobs.detail(jobId);
     const stored = await program(jobId, job.unit);
     if (!stored || !job.partProgram) throw new HttpError(404, 'no-part-program', `Job ${jobId} has no part program yet; upload the program for one part first.`);
-    const numbers = new Set(job.stationList.map((s) => s.number));
-    const unknown = q.skip.find((n) => !numbers.has(n));
-    if (unknown !== undefined) throw badRequest(`skip: station ${unknown} is not a station of this job; skip only stations ${[...numbers].sort((a, b) => a - b).join(', ')}.`, null, 'skip');
+    // Only the stations the job uses (the ones whose width held accepts the stock), less the ones asked to be skipped.
+    const used = new Set(job.stationsUsed);
+    if (!used.size) throw badRequest(`No station of this job holds the stock width, so there is nothing to machine; check the job's problems first.`, null, 'no-stations');
+    const unknown = q.skip.find((n) => !used.has(n));
+    if (unknown !== undefined) throw badRequest(`skip: station ${unknown} is not a station this job uses; skip only stations ${[...used].sort((a, b) => a - b).join(', ')}.`, null, 'skip');
     const skipped = [...new Set(q.skip)].sort((a, b) => a - b);
-    const stations = job.stationList.filter((s) => !skipped.includes(s.number)).sort((a, b) => a.number - b.number);
+    const stations = job.stationList.filter((s) => used.has(s.number) && !skipped.includes(s.number)).sort((a, b) => a.number - b.number);
     const floor = job.partProgram.minimumSafeZ;
     const safeZ = q.safeZ ?? floor;
     if (safeZ < floor - 1e-9) {

@@ -26,7 +26,7 @@ export async function run() {
   const { id } = await templates.importFile(lead, { ...c, name: 'Bench 200' });
   await templates.release(lead, id, 1, 'Benchmark layout: names are generated, not the shop convention.');
   const jobs = jobsService({ db, jobs: jobsRepo(db), templates, audit });
-  const job = await jobs.create(lead, { name: 'Bench job', partNumber: 'P-200', partRevision: '', templateId: id, version: 1, stock: { width: 1.25, thickness: 0.5, length: 0.9, material: '' }, carrier: 0.25, clearance: 0.03, minBite: 0.06, cycleMinutes: 10, loadMinutes: 5, notes: '' });
+  const job = await jobs.create(lead, { name: 'Bench job', partNumber: 'P-200', partRevision: '', templateId: id, version: 1, stock: { width: 1.25, thickness: 0.5, length: 0.9, material: '' }, carrier: 0.25, clearance: 0.03, minBite: 0.06, cycleMinutes: 10, loadMinutes: 5, notes: '', partRotation: 0 });
   const outline = { paths: [{ closed: true, points: [{ x: 0, y: 0 }, { x: 0.8, y: 0 }, { x: 0.8, y: 1.25 }, { x: 0, y: 1.25 }] }], circles: [] };
   await jobs.setPartOutline(lead, job.id, outline, { name: 'p.dxf', size: 0, sha256: 'bench', unit: 'in', datum: { x: 0, y: 0 } });
   const detail = await jobs.detail(job.id);

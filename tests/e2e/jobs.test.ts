@@ -50,11 +50,22 @@ describe('jobs in a real browser', () => {
     jobUrl = page.url();
 
     await page.getByRole('heading', { name: 'Bracket run', level: 1 }).waitFor();
-    // Runtime = stations × cycle + load (common practice): 20 × 13 min + 10 min = 270 min = 4 h 30 min.
+    // The stations the 1.000 in stock fits: width held ± the rail's accept window (server/db/seed-demo.ts: JR-1.000 and
+    // JR-S4-1.000 take ±0.030 in, JR-1.500 takes ±0.035 in), written out here rather than read from the code under test.
+    const jobId = Number(page.url().split('/').at(-1));
+    const detail = await (await page.request.get(`${e2e.baseUrl}/api/jobs/${jobId}`)).json();
+    const window = (w: number) => (Math.abs(w - 1.5) < 1e-9 ? [1.5 - 0.035, 1.5 + 0.035] : [w - 0.03, w + 0.03]);
+    const expectedUsed = (detail.stationList as { number: number; nominalWidth: number | null }[])
+      .filter((st) => st.nominalWidth !== null && window(st.nominalWidth)[0]! <= 1 && 1 <= window(st.nominalWidth)[1]!).map((st) => st.number);
+    expect(detail.stationList).toHaveLength(20);
+    expect(expectedUsed).toHaveLength(12); // 8 of the 20 stations hold 1.500 in (the template's name and notes)
+    expect(detail.stationsUsed).toEqual(expectedUsed);
+    // Runtime = stations used × cycle + load (common practice): 12 × 13 min + 10 min = 166 min = 2 h 46 min.
     const runtime = page.getByRole('region', { name: 'Runtime of one load' });
-    expect(await page.getByTestId('runtime-minutes').textContent()).toBe('270 min');
-    expect(await runtime.textContent()).toContain('4:30 h');
-    expect(await runtime.textContent()).toContain('20 stations × 13 min + 10 min load');
+    expect(await page.getByTestId('runtime-minutes').textContent()).toBe(`${12 * 13 + 10} min`);
+    expect(await runtime.textContent()).toContain('2:46 h');
+    expect(await runtime.textContent()).toContain('12 stations used × 13 min + 10 min load');
+    expect(await page.getByTestId('stations-unused').textContent()).toContain('8 of the template’s 20 stations');
     const stored = await e2e.db('jobs').where({ name: 'Bracket run' }).first();
     expect(stored).toMatchObject({ part_number: 'BR-1001', part_revision: 'B', carrier: 0.25, cycle_minutes: 13, load_minutes: 10 });
 
@@ -72,6 +83,20 @@ describe('jobs in a real browser', () => {
     const svg = await page.request.get(`${e2e.baseUrl}/api/jobs/${stored.id}/drawing.svg`);
     expect(svg.status()).toBe(200);
     expect(await svg.text()).toContain('data-layer="PART-BR-1001"');
+
+    // 2.5 in along the rail on stops 1.000 in apart: each part runs into the next (2.5 > 1.000), so the page names a problem.
+    const problems = page.getByTestId('job-problems');
+    await problems.locator('li[data-code="part-overlap"]').waitFor();
+    expect(await problems.textContent()).toMatch(/stations? \d/);
+
+    // The part can be turned about its datum: the choice is saved with the job.
+    await page.getByRole('button', { name: 'Edit job' }).click();
+    const edit = page.getByRole('form', { name: 'Edit job' });
+    expect(await edit.getByLabel('Part rotation').locator('option').allTextContents()).toHaveLength(4);
+    await edit.getByLabel('Part rotation').selectOption('90');
+    await edit.getByRole('button', { name: 'Save job' }).click();
+    await edit.waitFor({ state: 'detached' });
+    expect((await e2e.db('jobs').where({ id: stored.id }).first()).part_rotation).toBe(90);
     await page.close();
   });
 
@@ -88,18 +113,22 @@ describe('jobs in a real browser', () => {
     expect(await page.getByRole('button', { name: /Edit job|Upload the outline|Replace the outline|Create job/ }).count()).toBe(0);
     expect(await page.getByRole('form', { name: 'Part outline' }).count()).toBe(0);
 
-    await page.getByLabel('Check bars for rail A-JR').check();
-    await page.getByRole('heading', { name: /Measured bars for A-JR/ }).waitFor();
+    // B-JR holds 1.500 in, which the 1.000 in stock does not fit: marked and not offered.
+    const railsTable = page.getByRole('region', { name: /^Jaw rails/ });
+    expect(await railsTable.locator('tr[data-used="no"]').textContent()).toContain('B-JR');
+    expect(await page.getByLabel('Show the check of rail B-JR').isDisabled()).toBe(true);
+    await page.getByLabel('Show the check of rail A-JR').check();
+    await page.getByRole('heading', { name: /Measured bars/ }).waitFor();
     for (const [row, cells] of [[1, ['1.000', '0.500', '0.020']], [2, ['1.200', '0.500', '0.020']]] as const) {
       await page.getByLabel(`Row ${row} width`).fill(cells[0]);
       await page.getByLabel(`Row ${row} thickness`).fill(cells[1]);
       await page.getByLabel(`Row ${row} corner radius`).fill(cells[2]);
     }
     const posted = page.waitForRequest((r) => r.url().endsWith('/stock-check') && r.method() === 'POST');
-    await page.getByRole('button', { name: 'Check the bars on A-JR' }).click();
-    // Row 3 was left blank with its automatic id, so it is not a bar.
+    // Both rails the job uses (A-JR, C-JR) are checked in one go, each against its own clamp.
+    await page.getByRole('button', { name: 'Check the bars on all 2 rails' }).click();
+    // Row 3 was left blank with its automatic id, so it is not a bar; no rail named means every rail the job uses.
     expect((await posted).postDataJSON()).toEqual({
-      jawPlacement: 'A-JR',
       bars: [{ id: 'B1', width: 1, thickness: 0.5, cornerRadius: 0.02 }, { id: 'B2', width: 1.2, thickness: 0.5, cornerRadius: 0.02 }],
     });
     await page.getByRole('list', { name: 'Sorting list' }).waitFor();
@@ -121,6 +150,7 @@ describe('jobs in a real browser', () => {
     expect(await unusable.textContent()).toContain('B2');
     await page.getByText(STOCK_CHECK_ADVICE).first().waitFor();
     expect(await page.getByText('Latest check on A-JR:').textContent()).toContain('by Oakley Operator');
+    expect(await page.getByTestId('rails-covered').textContent()).toContain('Rails checked: A-JR, C-JR.');
 
     // The check is kept with the job, by the operator who made it.
     const jobId = Number(jobUrl.split('/').at(-1));
@@ -158,8 +188,8 @@ describe('jobs in a real browser', () => {
     await page.goto(jobUrl);
     await page.getByText(`Version ${n} of Bracket 1 in bar, 20 up is released; this job stays pinned to version 1.`).waitFor();
     expect(await page.getByRole('link', { name: `Compare v1 with v${n}` }).getAttribute('href')).toBe(`/templates/1/compare?from=1&to=${n}`);
-    // Still pinned: the runtime and the stations are version 1's.
-    expect(await page.getByTestId('runtime-minutes').textContent()).toBe('270 min');
+    // Still pinned: the runtime and the stations are version 1's (12 used × 13 min + 10 min).
+    expect(await page.getByTestId('runtime-minutes').textContent()).toBe('166 min');
     await page.close();
   });
 });

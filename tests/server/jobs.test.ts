@@ -28,8 +28,10 @@ describe('jobs', () => {
   it('pins a released version and answers runtime = stations × cycle + load (common practice)', async () => {
     const res = await programmer.post('/api/jobs', job).expect(201);
     id = res.body.id;
-    // 20 stations × 13 min + 10 min load = 270 min.
-    expect(res.body).toMatchObject({ stations: 20, runtimeMinutes: 270, versionState: 'released', newerRelease: null, unit: 'in' });
+    // 1.000 in stock is held at the 12 stations whose width held is 1.000 in (±0.030 in accept window), not at the
+    // 8 holding 1.500 in (1.465–1.535 in): 12 used stations × 13 min + 10 min load = 166 min (common practice).
+    expect(res.body).toMatchObject({ stations: 20, runtimeMinutes: 166, versionState: 'released', newerRelease: null, unit: 'in' });
+    expect(res.body.stationsUsed).toHaveLength(12);
     expect(res.body.pairings.length).toBeGreaterThan(0);
   });
 
@@ -91,9 +93,9 @@ describe('jobs', () => {
       const bytes = await zip.file(f.name)!.async('nodebuffer');
       expect(createHash('sha256').update(bytes).digest('hex'), f.name).toBe(f.sha256);
     }
-    // The part is drawn at every station, on its own layer, read back by dxf-parser.
+    // The part (four lines) is drawn at every used station (12 of 20: the 1.000 in ones), on its own layer, read back by dxf-parser.
     const dxf = new DxfParser().parseSync(await zip.file('job-drawing.dxf')!.async('string'))!;
-    expect(dxf.entities.filter((e) => e.layer === 'PART-BR-1001')).toHaveLength(4 * 20);
+    expect(dxf.entities.filter((e) => e.layer === 'PART-BR-1001')).toHaveLength(4 * 12);
     const sheet = await zip.file('setup-sheet.html')!.async('string');
     expect(sheet).toMatch(/Check every clamp/);
     expect(sheet).toContain(template.contentHash);

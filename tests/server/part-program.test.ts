@@ -70,6 +70,11 @@ describe('part program on a job', () => {
     expect(text).toMatch(/THE OPERATOR CHECKS EVERY CLAMP/);
     expect(text).not.toMatch(/\(STATION 3 /);
     expect(text).not.toMatch(/\(STATION 7 /);
+    // Only the stations the job uses (the width they hold accepts the stock) are written.
+    const job = (await operator.get(`/api/jobs/${id}`).expect(200)).body;
+    const written = [...text.matchAll(/\(STATION (\d+) /g)].map((m) => Number(m[1]));
+    expect(new Set(written)).toEqual(new Set(job.stationsUsed.filter((n: number) => n !== 3 && n !== 7)));
+    for (const s of job.stationList) if (!job.stationsUsed.includes(s.number)) expect(written).not.toContain(s.number);
     expect(text.trim().endsWith('M30')).toBe(true);
     const { canon, errors } = runRs274(text, tools);
     expect(errors).toEqual([]);
@@ -83,7 +88,10 @@ describe('part program on a job', () => {
     expect(low.body.error.message).toMatch(/below this job's lowest safe height/);
     const skip = await operator.get(`/api/jobs/${id}/program.nc?skip=999`);
     expect(skip.status).toBe(400);
-    expect(skip.body.error.message).toMatch(/station 999 is not a station/);
+    expect(skip.body.error.message).toMatch(/station 999 is not a station this job uses/);
+    const job = (await operator.get(`/api/jobs/${id}`).expect(200)).body;
+    const unused = job.stationList.map((s: { number: number }) => s.number).find((n: number) => !job.stationsUsed.includes(n));
+    if (unused !== undefined) expect((await operator.get(`/api/jobs/${id}/program.nc?skip=${unused}`)).status).toBe(400);
     expect((await operator.get(`/api/jobs/${id}/program.nc?order=spiral`)).status).toBe(400);
     expect((await operator.get(`/api/jobs/${id}/program.nc?skip=a,b`)).status).toBe(400);
     expect((await operator.get(`/api/jobs/${id}/program.nc?family=unknown`)).status).toBe(400);
@@ -111,7 +119,7 @@ describe('part program on a job', () => {
     expect(res.headers['transfer-encoding']).toBe('chunked');
     const { canon, errors } = runRs274(res.text, [1, 2, 3, 4].map((t) => ({ t, z: 1 + t / 10, d: 0.25 })));
     expect(errors).toEqual([]);
-    const stations = (await operator.get(`/api/jobs/${id}`).expect(200)).body.stationList.length;
+    const stations = (await operator.get(`/api/jobs/${id}`).expect(200)).body.stationsUsed.length;
     // Station order: the four tool changes again at every station but the skipped one (LinuxCNC CHANGE_TOOL).
     expect(movesOf(canon).toolChanges).toEqual(Array.from({ length: stations - 1 }, () => [1, 2, 3, 4]).flat());
     expect(res.text.trim().endsWith('M30')).toBe(true);

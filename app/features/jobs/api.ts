@@ -2,7 +2,7 @@ import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/r
 import { useState } from 'react';
 import { z } from 'zod';
 import { UnitSchema, type Unit } from '../../../shared/schemas/common';
-import { JobDetailSchema, JobListSchema, JobStockCheckInputSchema, type JobInput } from '../../../shared/schemas/job';
+import { JobDetailSchema, JobListSchema, JobStockCheckInputSchema, RailCheckSchema, type JobInput } from '../../../shared/schemas/job';
 import { StockCheckResponseSchema, type MeasuredBarInput } from '../../../shared/schemas/stock-check';
 import { api, uploadWithProgress } from '../../lib/api-client';
 
@@ -75,19 +75,24 @@ export function useUploadPartOutline(id: number) {
   return { ...mutation, progress };
 }
 
-/** What the job's stock check answers: the contract's response plus the rail it was checked against. */
+/**
+ * What the job's stock check answers: the contract's response for the first rail checked, plus
+ * every rail checked (each against its own clamp) and the rails the job uses that were not.
+ */
 export const JobStockCheckAnswerSchema = StockCheckResponseSchema.extend({
   jawPlacement: z.string(),
   nominalOpening: z.number(),
   unit: UnitSchema,
   appliesTo: z.array(z.string()),
+  rails: z.array(RailCheckSchema).default([]),
+  railsNotChecked: z.array(z.string()).default([]),
 });
 
-/** Measured bars against one jaw rail of the job's pinned template; the server keeps the result with the job. */
+/** Measured bars against the jaw rails of the job's pinned template (every rail the job uses when no rail is named); the server keeps the result with the job. */
 export function useJobStockCheck(id: number) {
   const qc = useQueryClient();
   return useMutation({
-    mutationFn: (input: { jawPlacement: string; bars: MeasuredBarInput[] }) =>
+    mutationFn: (input: { jawPlacement?: string; bars: MeasuredBarInput[] }) =>
       api.post(`/api/jobs/${id}/stock-check`, JobStockCheckInputSchema.parse(input), JobStockCheckAnswerSchema),
     retry: false,
     onSuccess: () => qc.invalidateQueries({ queryKey: jobKeys.detail(id) }),

@@ -3,7 +3,7 @@ import type { Unit } from '../../../shared/schemas/common';
 import type { JobDetail, JobStockCheck } from '../../../shared/schemas/job';
 import type { StockCheckRequest, StockCheckResponse } from '../../../shared/schemas/stock-check';
 import type { Pairing, TemplateComponent } from '../../../shared/schemas/template';
-import { convert } from '../../../shared/units/units';
+import { clampIn } from '../../../shared/jobs/stations-used';
 import { parseServerTime } from './job-format';
 
 /** One jaw rail of the pinned template: the placements that hold a width, grouped as the server checks them. */
@@ -30,11 +30,6 @@ export function jobRails(pairings: readonly Pairing[]): JobRail[] {
   return [...byRail.values()];
 }
 
-/** Clamp lengths from the rail's unit into the job's; slopes are ratios and stay (as the server's stock check does). */
-export function clampIn(clamp: ClampModel, from: Unit, to: Unit): ClampModel {
-  const l = (v: number) => convert(v, from, to);
-  return { ...clamp, acceptBelow: l(clamp.acceptBelow), acceptAbove: l(clamp.acceptAbove), topHeight: l(clamp.topHeight), gripLow: l(clamp.gripLow), gripHigh: l(clamp.gripHigh), slotSlop: l(clamp.slotSlop) };
-}
 
 /** The clamp model of a jaw rail as the pinned version carries it, in the job's unit; null when the rail has none. */
 export function railClamp(components: readonly TemplateComponent[], jawComponent: string, jobUnit: Unit): ClampModel | null {
@@ -67,6 +62,13 @@ export function jobCheckRun(job: JobDetail, check: JobStockCheck, rail: { code: 
     response: check.result,
     stock: { width: job.stock.width, thickness: job.stock.thickness },
   };
+}
+
+/** One rail's part of a stored check: its own entry in `rails`, or the top-level fields of a check made before checks covered several rails. */
+export function railOfCheck(check: JobStockCheck, jawPlacement: string): { nominalOpening: number; result: StockCheckResponse } | null {
+  const entry = check.rails.find((r) => r.jawPlacement === jawPlacement);
+  if (entry) return entry;
+  return check.rails.length === 0 && check.jawPlacement === jawPlacement ? { nominalOpening: check.nominalOpening, result: check.result } : null;
 }
 
 /** True when the job was saved after the check was made: its inputs may have changed since. */

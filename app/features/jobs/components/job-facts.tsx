@@ -9,7 +9,7 @@ import { compareUrl } from './jobs-table';
 
 const linkClass = 'inline-flex min-h-10 items-center gap-2 rounded border border-slate-400 bg-white px-3 font-semibold text-slate-900 hover:bg-slate-100';
 
-/** Unattended runtime of one load: stations × cycle + load (common practice, shared/stations/runtime.ts). */
+/** Unattended runtime of one load: stations the job uses × cycle + load (common practice, shared/stations/runtime.ts). */
 export function RuntimeCard({ job }: { job: JobDetail }) {
   return (
     <section aria-labelledby="runtime-title" className="rounded border border-slate-300 bg-white p-4">
@@ -18,7 +18,12 @@ export function RuntimeCard({ job }: { job: JobDetail }) {
         <span className="num text-3xl font-semibold" data-testid="runtime-minutes">{formatMinutes(job.runtimeMinutes)}</span>
         <span className="num text-xl text-slate-800">{formatHoursMinutes(job.runtimeMinutes)} h</span>
       </p>
-      <p className="mt-1 font-mono text-slate-700 [font-variant-numeric:tabular-nums]">{job.stations} stations × {formatMinutes(job.cycleMinutes)} + {formatMinutes(job.loadMinutes)} load</p>
+      <p className="mt-1 font-mono text-slate-700 [font-variant-numeric:tabular-nums]" data-testid="runtime-formula">{job.stationsUsed.length} stations used × {formatMinutes(job.cycleMinutes)} + {formatMinutes(job.loadMinutes)} load</p>
+      {job.stationsUsed.length < job.stations ? (
+        <p className="mt-1 text-slate-700" data-testid="stations-unused">
+          {job.stations - job.stationsUsed.length} of the template’s {job.stations} stations hold a width this stock does not fit and are left out of the runtime, drawing and package.
+        </p>
+      ) : null}
     </section>
   );
 }
@@ -44,6 +49,8 @@ export function JobSetupFacts({ job }: { job: JobDetail }) {
             <dd className="num">{v}</dd>
           </div>
         ))}
+        <dt className="text-slate-700">Part rotation</dt>
+        <dd className="num">{job.partRotation}°</dd>
         <dt className="text-slate-700">Material</dt>
         <dd className="text-right">{job.stock.material || '—'}</dd>
       </dl>

@@ -2,11 +2,13 @@ import { useEffect, useRef } from 'react';
 import { useForm, type UseFormSetError } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { JobInputSchema, type JobFields, type JobInput } from '../../../../shared/schemas/job';
+import { PART_ROTATIONS } from '../../../../shared/jobs/job-problems';
 import type { TemplateSummary } from '../../../../shared/schemas/template-api';
 import { Button } from '../../../components/ui/button';
 import { SelectField, TextAreaField, TextField } from '../../../components/ui/field';
 import { ErrorText } from '../../../components/ui/notice';
 
+const ROTATION_OPTIONS = PART_ROTATIONS.map((r) => ({ value: String(r), label: r === 0 ? '0° (as drawn)' : `${r}° counter-clockwise` }));
 const released = (t: TemplateSummary) => t.versions.filter((v) => v.state === 'released');
 /** Numbers are typed as text (no spinner to nudge with a glove) and read as numbers; empty reads as missing. */
 const decimal = { type: 'text', inputMode: 'decimal', autoComplete: 'off', spellCheck: false, className: 'num' } as const;
@@ -30,7 +32,7 @@ export interface JobFormProps {
 export function JobForm({ templates, defaultValues, title, submitLabel, pending, error, onSubmit, onCancel }: JobFormProps) {
   const form = useForm<JobInput, unknown, JobFields>({
     resolver: zodResolver(JobInputSchema),
-    defaultValues: defaultValues ?? { name: '', partNumber: '', partRevision: '', templateId: 0, version: 0, stock: { material: '' }, loadMinutes: 0, notes: '' } as JobInput,
+    defaultValues: defaultValues ?? { name: '', partNumber: '', partRevision: '', templateId: 0, version: 0, stock: { material: '' }, loadMinutes: 0, partRotation: 0, notes: '' } as JobInput,
   });
   const e = form.formState.errors;
   const templateId = Number(form.watch('templateId')) || 0;
@@ -78,6 +80,11 @@ export function JobForm({ templates, defaultValues, title, submitLabel, pending,
         <TextField label="Thickness" unit={unit} error={e.stock?.thickness?.message} {...decimal} {...num('stock.thickness')} />
         <TextField label="Length" unit={unit} error={e.stock?.length?.message} {...decimal} {...num('stock.length')} />
         <TextField label="Material" error={e.stock?.material?.message} hint="e.g. 6061-T6" {...form.register('stock.material')} />
+      </fieldset>
+      <fieldset className="grid grid-cols-1 gap-3 sm:grid-cols-3">
+        <legend className="mb-1 font-semibold text-slate-800">Part outline</legend>
+        <SelectField label="Part rotation" options={ROTATION_OPTIONS} error={e.partRotation?.message}
+          hint="turns the part outline about its datum at every station" {...form.register('partRotation', { valueAsNumber: true })} />
       </fieldset>
       <fieldset className="grid grid-cols-1 gap-3 sm:grid-cols-3">
         <legend className="mb-1 font-semibold text-slate-800">Clamping</legend>

@@ -7,11 +7,14 @@ import type { JobRail } from '../job-rails';
 /**
  * Which jaw rail holds which width for which stations, with the choice of the rail whose clamp
  * window the measured bars are checked against. A rail whose component carries no clamp model
- * in the pinned version cannot be chosen.
+ * in the pinned version cannot be chosen, nor can a rail none of whose stations the job uses
+ * (its width held does not take the job's stock).
  */
-export function PairingTable({ rails, stations, unit, selected, onSelect, hasClamp }: {
+export function PairingTable({ rails, stations, used, unit, selected, onSelect, hasClamp }: {
   rails: readonly JobRail[];
   stations: readonly Station[];
+  /** Numbers of the stations the job's stock fits (stationsUsed); the others are marked not used. */
+  used: ReadonlySet<number>;
   unit: Unit;
   selected: string | null;
   onSelect: (jawPlacement: string) => void;
@@ -26,10 +29,10 @@ export function PairingTable({ rails, stations, unit, selected, onSelect, hasCla
       ) : (
         <div className="overflow-x-auto rounded border border-slate-300 bg-white">
           <table className="w-full border-collapse text-[15px]">
-            <caption className="sr-only">Jaw rails of the pinned template and the rail the bars are checked against</caption>
+            <caption className="sr-only">Jaw rails of the pinned template, the stations of each the job uses, and the rail whose check is shown</caption>
             <thead className="bg-slate-100">
               <tr>
-                <th scope="col" className="border-b border-slate-300 px-3 py-2 text-left font-semibold text-slate-700">Check bars for</th>
+                <th scope="col" className="border-b border-slate-300 px-3 py-2 text-left font-semibold text-slate-700">Check shown</th>
                 <th scope="col" className="border-b border-slate-300 px-3 py-2 text-left font-semibold text-slate-700">Jaw rail</th>
                 <th scope="col" className="border-b border-slate-300 px-3 py-2 text-left font-semibold text-slate-700">On hole</th>
                 <th scope="col" className="border-b border-slate-300 px-3 py-2 text-left font-semibold text-slate-700">Against</th>
@@ -42,20 +45,26 @@ export function PairingTable({ rails, stations, unit, selected, onSelect, hasCla
                 const clamp = hasClamp(r.jawComponent);
                 const isSelected = selected === r.jawPlacement;
                 const numbers = r.stations.map((id) => numberOf.get(id)).filter((n): n is number => n !== undefined);
+                const usedHere = numbers.filter((n) => used.has(n));
+                const unusedHere = numbers.filter((n) => !used.has(n));
+                const inUse = usedHere.length > 0;
                 return (
-                  <tr key={r.jawPlacement} className={`border-b border-slate-200 last:border-0 ${isSelected ? 'bg-accent-50' : ''}`}>
+                  <tr key={r.jawPlacement} data-used={inUse ? 'yes' : 'no'} className={`border-b border-slate-200 last:border-0 ${isSelected ? 'bg-accent-50' : ''} ${inUse ? '' : 'bg-slate-50 text-slate-600'}`}>
                     <td className="px-3 py-1">
                       <label className={`inline-flex min-h-10 items-center gap-2 font-semibold ${clamp ? 'cursor-pointer' : 'text-slate-500'}`}>
-                        <input type="radio" name="check-rail" className="h-5 w-5 accent-accent-700" checked={isSelected} disabled={!clamp}
-                          onChange={() => onSelect(r.jawPlacement)} aria-label={`Check bars for rail ${r.jawPlacement}`} />
-                        {clamp ? (isSelected ? 'this rail' : 'choose') : 'no clamp model'}
+                        <input type="radio" name="check-rail" className="h-5 w-5 accent-accent-700" checked={isSelected} disabled={!clamp || !inUse}
+                          onChange={() => onSelect(r.jawPlacement)} aria-label={`Show the check of rail ${r.jawPlacement}`} />
+                        {!inUse ? 'not used by this job' : clamp ? (isSelected ? 'shown' : 'show') : 'no clamp model'}
                       </label>
                     </td>
                     <td className="px-3 py-2"><span className="font-mono font-semibold">{r.jawPlacement}</span> <span className="font-mono text-slate-700">{r.jawComponent}</span></td>
                     <td className="px-3 py-2 font-mono [font-variant-numeric:tabular-nums]">({r.pairings[0]!.jawHole.col}, {r.pairings[0]!.jawHole.row})</td>
                     <td className="px-3 py-2">{r.pairings.map((p) => <span key={`${p.fixedPlacement}:${p.fixedFace}`} className="block"><span className="font-mono">{p.fixedPlacement}</span> <span className="font-mono text-slate-700">{p.fixedComponent}</span></span>)}</td>
                     <td className="num px-3 py-2">{r.pairings.map((p) => <span key={`${p.fixedPlacement}:${p.fixedFace}`} className="block">{formatLength(p.width, unit)}</span>)}</td>
-                    <td className="px-3 py-2"><span className="font-mono [font-variant-numeric:tabular-nums]">{stationRuns(numbers) || '—'}</span> <span className="text-slate-600">({numbers.length})</span></td>
+                    <td className="px-3 py-2">
+                      <span className="font-mono [font-variant-numeric:tabular-nums]">{stationRuns(usedHere) || '—'}</span> <span className="text-slate-600">({usedHere.length} used)</span>
+                      {unusedHere.length ? <span className="block text-slate-600">not used: <span className="font-mono [font-variant-numeric:tabular-nums]">{stationRuns(unusedHere)}</span> ({unusedHere.length})</span> : null}
+                    </td>
                   </tr>
                 );
               })}

@@ -25,7 +25,7 @@ export function PartProgramPanel({ job, canEdit }: { job: JobDetail; canEdit: bo
   const [order, setOrder] = useState<'station' | 'tool'>('tool');
   const [skip, setSkip] = useState<number[]>([]);
   const [safeZ, setSafeZ] = useState('');
-  const numbers = useMemo(() => job.stationList.map((s) => s.number).sort((a, b) => a - b), [job.stationList]);
+  const numbers = useMemo(() => [...job.stationsUsed].sort((a, b) => a - b), [job.stationsUsed]);
   const safeValue = safeZ.trim() === '' ? null : parseDecimal(safeZ);
   const safeProblem = safeZ.trim() !== '' && safeValue === null ? `Safe Z "${safeZ}" is not a number: write it with a decimal point, e.g. 1.25.`
     : p && safeValue !== null && safeValue < p.minimumSafeZ ? `Safe Z must be at least ${formatLength(p.minimumSafeZ, u)} for this job (stock top or tallest clamp plus a clearance).`
@@ -67,7 +67,7 @@ export function PartProgramPanel({ job, canEdit }: { job: JobDetail; canEdit: bo
               <label className="flex min-h-10 items-center gap-2"><input type="radio" name="program-order" checked={order === 'station'} onChange={() => setOrder('station')} />By station: each station whole in turn</label>
             </fieldset>
             <fieldset className="flex flex-col gap-1">
-              <legend className="text-sm font-semibold text-slate-700">Stations to skip (empty nests)</legend>
+              <legend className="text-sm font-semibold text-slate-700">Stations to skip (empty nests; only the stations this job uses are written)</legend>
               <div className="flex flex-wrap gap-1">
                 {numbers.map((n) => (
                   <label key={n} className={`flex min-h-10 min-w-12 items-center justify-center gap-1 rounded border px-2 font-mono ${skip.includes(n) ? 'border-slate-900 bg-slate-200' : 'border-slate-400 bg-white'}`}>
@@ -129,8 +129,9 @@ function ProgramPreview({ job, skip }: { job: JobDetail; skip: number[] }) {
   const preview = useMemo(() => {
     if (!text.data) return null;
     const read = readPartProgram(text.data, job.unit);
-    return read.ok ? tablePreview(read.program, job.stationList) : null;
-  }, [text.data, job.unit, job.stationList]);
+    const used = new Set(job.stationsUsed);
+    return read.ok ? tablePreview(read.program, job.stationList.filter((s) => used.has(s.number))) : null;
+  }, [text.data, job.unit, job.stationList, job.stationsUsed]);
   if (text.error) return <ErrorText error={text.error} />;
   if (!preview?.bounds) return <p className="text-slate-700">{text.isPending ? 'Loading the preview…' : 'Nothing to preview.'}</p>;
   const b = preview.bounds;
