@@ -100,7 +100,7 @@ describe('jobs in a real browser', () => {
     await page.close();
   });
 
-  it('an operator opens the job, checks two bars on rail A-JR, reads both verdicts and the caution, and downloads the package', async () => {
+  it('an operator opens the job, checks two bars on both rails the job uses, reads both verdicts on A-JR and the caution, and downloads the package', async () => {
     expect(jobUrl).not.toBe('');
     const page = await e2e.newPage();
     await e2e.signIn(page, 'operator');
