@@ -10,6 +10,7 @@ import { writeDrawingDxf } from '../dxf/write-dxf';
 import { drawingToSvg } from '../dxf/drawing-svg';
 import { templateDrawing } from './template-drawing';
 import { offsetsNc, stationsCsv, stationsXlsx } from './station-files';
+import { angleText } from '../../shared/gcode/offsets';
 
 const esc = (s: unknown) => String(s).replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);
 
@@ -107,12 +108,14 @@ ${clamps.length ? clamps.map((p) => `<p><span class="box"></span>${esc(p.id)} ($
  */
 export async function jobPackage(job: JobDetail, v: TemplateVersion): Promise<Buffer> {
   const drawing = jobDrawing(job, v);
+  // G52 cannot turn a station; a layout with a turned station gets the shift-rotate family.
+  const shiftFamily = v.stations.some((s) => angleText(s.c) !== '0.000') ? 'shift-rotate' : 'ngc-g52';
   const files: [string, string | Buffer][] = [
     ['stations.csv', stationsCsv(v.unit, v.stations)],
     ['stations.xlsx', await stationsXlsx(v)],
     ['job-drawing.dxf', writeDrawingDxf(drawing)],
     ['job-drawing.svg', drawingToSvg(drawing, { background: '#ffffff', title: job.name })],
-    ['offsets-g52.nc', offsetsNc(v, { mode: 'g52', dialect: 'standard' })],
+    [`offsets-${shiftFamily}.nc`, offsetsNc(v, { family: shiftFamily })],
     ['setup-sheet.html', setupSheetHtml(job, v)],
   ];
   if (job.stockChecks.length) files.push(['stock-check.json', JSON.stringify(job.stockChecks[0], null, 2)]);
@@ -126,8 +129,8 @@ export async function jobPackage(job: JobDetail, v: TemplateVersion): Promise<Bu
     format: 'gridset-job-package', formatVersion: 1,
     job: { id: job.id, name: job.name, partNumber: job.partNumber, partRevision: job.partRevision },
     template: { id: v.templateId, name: v.name, version: v.version, state: v.state, contentHash: v.contentHash },
-    unit: v.unit, stations: v.stations.length, files: listed,
-    note: 'G10 work-offset blocks need the machine position of the shared offset; download them from the template version with base=x,y,z.',
+    unit: v.unit, stations: v.stations.length, offsetFamily: shiftFamily, files: listed,
+    note: 'G10 work-offset blocks (families ngc-g10, ext-l20) need the machine position of the shared offset; download them from the template version with family=...&base=x,y,z.',
   };
   zip.file('manifest.json', JSON.stringify(manifest, null, 2));
   return zip.generateAsync({ type: 'nodebuffer', compression: 'DEFLATE' });
