@@ -97,7 +97,8 @@ export function templateRoutes(templates: TemplatesService, settings: SettingsRe
       const q = parseOr400(OffsetsQuerySchema, req.query, 'query');
       // Written before any header is set, so a refusal still answers as a JSON error.
       const text = offsetsNc(v, { ...q, extRegisters: (await settings.get()).extOffsetRegisters });
-      res.type('text/plain; charset=utf-8').attachment(fileName(v.name, v.version, `offsets-${q.family}.nc`)).send(text);
+      // attachment() would set the type from .nc (application/x-netcdf), so the type is set after it.
+      res.attachment(fileName(v.name, v.version, `offsets-${q.family}.nc`)).type('text/plain; charset=utf-8').send(text);
     } },
   ];
 }

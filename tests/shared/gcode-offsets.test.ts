@@ -80,7 +80,7 @@ describe('ngc-g10', () => {
     ['a station on the shared register', { stations: railA, first: 1 }, 'register-collision', 422],
     ['no base', { stations: railA, sharedOffsetAt: undefined }, 'missing-base', 400],
   ] as const)('refuses %s', (_, over, code, status) => {
-    const r = writeOffsetFile({ family: 'ngc-g10', source, unit: 'in', stations: railA, sharedOffsetAt, ...over });
+    const r = writeOffsetFile({ family: 'ngc-g10', source, unit: 'in', sharedOffsetAt, ...over });
     expect(r.ok ? null : [r.error.code, r.error.status]).toEqual([code, status]);
     if (!r.ok) expect(r.error.message.trim().split(/[.;]\s+[A-Z]/)).toHaveLength(1); // one sentence
   });
