@@ -70,8 +70,8 @@ describe('ngc-g10 through rs274', () => {
   });
 
   it.each([
-    ['inch draft with turned stations', () => mixed, [-20.1234, -10.5, -3.25]],
-    ['metric demo', () => 2, [-400, -250, -300.5]],
+    ['inch draft with turned stations', (): number => mixed, [-20.1234, -10.5, -3.25]],
+    ['metric demo', (): number => 2, [-400, -250, -300.5]],
   ] as const)('%s: every register rs274 holds is base + translation, R = C', async (_, id, base) => {
     const v = await version(id());
     const res = await operator.get(`/api/templates/${v.templateId}/versions/1/offsets.nc?family=ngc-g10&base=${base.join(',')}`).expect(200);
