@@ -135,7 +135,7 @@ export function createApp(deps: AppDeps): GridsetApp {
     ...outboxRoutes(outboxRepo(db)),
     ...catalogRoutes(catalog),
     ...settingsRoutes(settings, audit),
-    ...templateRoutes(templates),
+    ...templateRoutes(templates, settings),
     ...stockCheckRoutes({ dataDir: deps.dataDir, uploadLimitBytes: deps.uploadLimitBytes ?? 20 * 1024 * 1024 }),
     ...namingRoutes(naming),
     ...reviewRoutes(reviews),

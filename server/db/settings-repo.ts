@@ -7,6 +7,8 @@ export const DEFAULT_SETTINGS: ShopSettings = {
   // The pinned-station repeat, 0.002–0.003 in (common practice).
   probeToleranceIn: 0.003,
   probeToleranceMm: 0.08,
+  // ext-l20 registers: 48 is a common count of extended work offsets (from memory).
+  extOffsetRegisters: 48,
 };
 
 export function settingsRepo(db: Db) {

@@ -5,6 +5,7 @@ import { CreateTemplateInputSchema, NewVersionInputSchema, ReleaseInputSchema, O
 import { toTemplateFile } from '../../shared/interchange/template-file';
 import { currentUser } from '../middleware/auth';
 import type { TemplatesService } from '../services/templates';
+import type { SettingsRepo } from '../db/settings-repo';
 import { offsetsNc, stationsCsv, stationsXlsx } from '../services/station-files';
 import { parseTemplateFile } from '../services/template-import';
 import { templateDrawing } from '../services/template-drawing';
@@ -20,7 +21,7 @@ const VersionParamsSchema = IdParamSchema.extend({
 /** A file name safe in a Content-Disposition header: the template name, version and kind. */
 const fileName = (name: string, version: number, suffix: string) => `${name.replace(/[^A-Za-z0-9._-]+/g, '-').replace(/^-|-$/g, '') || 'template'}-v${version}-${suffix}`;
 
-export function templateRoutes(templates: TemplatesService): RouteDef[] {
+export function templateRoutes(templates: TemplatesService, settings: SettingsRepo): RouteDef[] {
   const params = (p: unknown) => parseOr400(VersionParamsSchema, p, 'address');
   const load = (p: unknown) => {
     const { id, n } = params(p);
@@ -95,8 +96,9 @@ export function templateRoutes(templates: TemplatesService): RouteDef[] {
       const v = await load(req.params);
       const q = parseOr400(OffsetsQuerySchema, req.query, 'query');
       // Written before any header is set, so a refusal still answers as a JSON error.
-      const text = offsetsNc(v, q);
-      res.type('text/plain').attachment(fileName(v.name, v.version, `offsets-${q.mode}.nc`)).send(text);
+      const text = offsetsNc(v, { ...q, extRegisters: (await settings.get()).extOffsetRegisters });
+      // attachment() would set the type from .nc (application/x-netcdf), so the type is set after it.
+      res.attachment(fileName(v.name, v.version, `offsets-${q.family}.nc`)).type('text/plain; charset=utf-8').send(text);
     } },
   ];
 }

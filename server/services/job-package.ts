@@ -23,6 +23,7 @@ const unusedStations = (job: Pick<JobDetail, 'stationsUsed'>, v: TemplateVersion
   const used = new Set(job.stationsUsed);
   return v.stations.filter((s) => !used.has(s.number));
 };
+import { angleText } from '../../shared/gcode/offsets';
 
 const esc = (s: unknown) => String(s).replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);
 
@@ -149,12 +150,14 @@ ${clamps.length ? clamps.map((p) => `<p><span class="box"></span>${esc(p.id)} ($
 export async function jobPackage(job: JobDetail, v: TemplateVersion, programFiles: [string, string][] = []): Promise<Buffer> {
   const drawing = jobDrawing(job, v);
   const used = usedVersion(job, v);
+  // G52 cannot turn a station; a layout with a turned station gets the shift-rotate family.
+  const shiftFamily = used.stations.some((s) => angleText(s.c) !== '0.000') ? 'shift-rotate' : 'ngc-g52';
   const files: [string, string | Buffer][] = [
     ['stations.csv', stationsCsv(v.unit, used.stations)],
     ['stations.xlsx', await stationsXlsx(used)],
     ['job-drawing.dxf', writeDrawingDxf(drawing)],
     ['job-drawing.svg', drawingToSvg(drawing, { background: '#ffffff', title: job.name })],
-    ['offsets-g52.nc', offsetsNc(used, { mode: 'g52', dialect: 'standard' })],
+    [`offsets-${shiftFamily}.nc`, offsetsNc(used, { family: shiftFamily })],
     ['setup-sheet.html', setupSheetHtml(job, v)],
   ];
   if (job.stockChecks.length) files.push(['stock-check.json', JSON.stringify(job.stockChecks[0], null, 2)]);
@@ -169,8 +172,8 @@ export async function jobPackage(job: JobDetail, v: TemplateVersion, programFile
     format: 'gridset-job-package', formatVersion: 1,
     job: { id: job.id, name: job.name, partNumber: job.partNumber, partRevision: job.partRevision },
     template: { id: v.templateId, name: v.name, version: v.version, state: v.state, contentHash: v.contentHash },
-    unit: v.unit, stations: used.stations.length, stationsUsed: job.stationsUsed, files: listed,
-    note: 'G10 work-offset blocks need the machine position of the shared offset; download them from the template version with base=x,y,z.',
+    unit: v.unit, stations: used.stations.length, stationsUsed: job.stationsUsed, offsetFamily: shiftFamily, files: listed,
+    note: 'G10 work-offset blocks (families ngc-g10, ext-l20) need the machine position of the shared offset; download them from the template version with family=...&base=x,y,z.',
   };
   zip.file('manifest.json', JSON.stringify(manifest, null, 2));
   return zip.generateAsync({ type: 'nodebuffer', compression: 'DEFLATE' });

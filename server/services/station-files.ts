@@ -3,8 +3,9 @@ import type { Unit } from '../../shared/schemas/common';
 import type { Station } from '../../shared/schemas/template';
 import type { TemplateVersion } from '../../shared/schemas/template-api';
 import { DISPLAY_DECIMALS, formatNumber } from '../../shared/units/units';
-import { writeOffsetFile, type OffsetDialect } from '../../shared/gcode/offsets';
-import { badRequest } from '../middleware/errors';
+import { G10_FAMILIES, writeOffsetFile } from '../../shared/gcode/offsets';
+import type { OffsetsQuery } from '../../shared/schemas/template-api';
+import { HttpError, badRequest } from '../middleware/errors';
 
 /** The station table columns, in order; CSV headers are the keys, XLSX headers the labels with the unit. */
 const COLUMNS = [
@@ -57,23 +58,37 @@ export async function stationsXlsx(v: Pick<TemplateVersion, 'name' | 'version' |
   return Buffer.from(await wb.xlsx.writeBuffer());
 }
 
-export function parseBase(base: string | undefined): { x: number; y: number; z: number } | null {
+/** Machine positions beyond ±100 in / ±2540 mm are no machine's travel (a typing slip). */
+const BASE_BOUND = { in: 100, mm: 2540 } as const;
+
+export function parseBase(base: string | undefined, unit: Unit): { x: number; y: number; z: number } | null {
   if (!base) return null;
   const [x, y, z] = base.split(',').map((s) => Number(s.trim()));
+  if (![x, y, z].every((v) => Number.isFinite(v) && Math.abs(v!) <= BASE_BOUND[unit])) {
+    throw badRequest(`base must be three numbers within ±${BASE_BOUND[unit]} ${unit}: the machine position of the shared offset.`, null, 'bad-base');
+  }
   return { x: x!, y: y!, z: z! };
 }
 
-export function offsetsNc(v: TemplateVersion, q: { mode: 'g10' | 'g52'; dialect: OffsetDialect; base?: string }): string {
-  const source = { templateName: v.name, version: v.version, contentHash: v.contentHash };
-  const common = { source, unit: v.unit, stations: v.stations, dialect: q.dialect, sharedOffsetName: v.sharedOffset.name };
-  if (q.mode === 'g10') {
-    const at = parseBase(q.base);
-    if (!at) throw badRequest('mode=g10 needs base=x,y,z: the machine position of the shared offset (entered or probed once), e.g. base=-20.5,-12.25,-14.0.', null, 'missing-base');
-    const r = writeOffsetFile({ ...common, mode: 'g10', sharedOffsetAt: at });
-    if (!r.ok) throw badRequest(r.error.message, null, r.error.code);
-    return r.text;
-  }
-  const r = writeOffsetFile({ ...common, mode: 'g52' });
-  if (!r.ok) throw badRequest(r.error.message, null, r.error.code);
+export interface OffsetsFileOptions extends OffsetsQuery {
+  /** Register count of the ext-l20 family (shop setting). */
+  extRegisters?: number;
+  /** A subset of the version's stations (a job that uses some); all when absent. */
+  stations?: readonly Station[];
+}
+
+/** The offset file of a version for one family; a refusal is a 400/422 with one sentence. */
+export function offsetsNc(v: TemplateVersion, q: OffsetsFileOptions): string {
+  const r = writeOffsetFile({
+    family: q.family,
+    source: { templateName: v.name, version: v.version, state: v.state, contentHash: v.contentHash },
+    unit: v.unit,
+    stations: q.stations ?? v.stations,
+    sharedOffsetName: v.sharedOffset.name,
+    sharedOffsetAt: G10_FAMILIES.includes(q.family) ? parseBase(q.base, v.unit) ?? undefined : undefined,
+    first: q.first,
+    extRegisters: q.extRegisters,
+  });
+  if (!r.ok) throw new HttpError(r.error.status, r.error.code, r.error.message, null);
   return r.text;
 }

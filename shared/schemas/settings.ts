@@ -11,5 +11,7 @@ export const ShopSettingsSchema = z.object({
    */
   probeToleranceIn: positive('Probe-check tolerance (in)'),
   probeToleranceMm: positive('Probe-check tolerance (mm)'),
+  /** Registers of the extended work-offset family (ext-l20: G10 L20 / G54.1 P1…Pn), as the shop's control has them. */
+  extOffsetRegisters: z.number({ message: 'Extended work offsets must be a whole number from 1 to 300.' }).int('Extended work offsets must be a whole number from 1 to 300.').min(1, 'Extended work offsets must be a whole number from 1 to 300.').max(300, 'Extended work offsets must be a whole number from 1 to 300.'),
 });
 export type ShopSettings = z.infer<typeof ShopSettingsSchema>;

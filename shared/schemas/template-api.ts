@@ -83,11 +83,23 @@ export const ReleaseInputSchema = z.object({
 
 export const NewVersionInputSchema = z.object({ from: z.number({ message: 'from must be the number of the version to copy.' }).int().min(1) });
 
+const FAMILY_VALUES = ['ngc-g10', 'ngc-g52', 'ext-l20', 'shift-rotate'] as const;
+/**
+ * Query of offsets.nc: family (or dialect) names the offset-file family; mode=g10|g52 and
+ * dialect=standard|extended are older names (g10 → ngc-g10, g52 → ngc-g52, extended → ext-l20).
+ */
 export const OffsetsQuerySchema = z.object({
-  mode: z.enum(['g10', 'g52'], { message: 'mode must be g10 or g52.' }).default('g10'),
-  dialect: z.enum(['standard', 'extended'], { message: 'dialect must be standard or extended.' }).default('standard'),
+  family: z.enum(FAMILY_VALUES, { message: `family must be one of ${FAMILY_VALUES.join(', ')}.` }).optional(),
+  dialect: z.enum([...FAMILY_VALUES, 'standard', 'extended'], { message: `dialect must be one of ${FAMILY_VALUES.join(', ')}.` }).optional(),
+  mode: z.enum(['g10', 'g52'], { message: 'mode must be g10 or g52.' }).optional(),
   base: z
     .string()
+    .max(100)
     .regex(/^\s*-?\d+(\.\d+)?\s*,\s*-?\d+(\.\d+)?\s*,\s*-?\d+(\.\d+)?\s*$/, 'base must be three numbers x,y,z: the machine position of the shared offset, e.g. base=-20.5,-12.25,-14.0.')
     .optional(),
+  first: z.coerce.number({ message: 'first must be a whole register number.' }).int('first must be a whole register number.').min(1, 'first must be 1 or more.').max(1000, 'first must be 1000 or less.').optional(),
+}).transform(({ family, dialect, mode, base, first }) => {
+  const named = family ?? (dialect === 'extended' ? (mode === 'g52' ? 'ngc-g52' : 'ext-l20') : dialect === 'standard' ? undefined : dialect);
+  return { family: named ?? (mode === 'g52' ? 'ngc-g52' : 'ngc-g10'), base, first } as { family: (typeof FAMILY_VALUES)[number]; base?: string; first?: number };
 });
+export type OffsetsQuery = z.output<typeof OffsetsQuerySchema>;

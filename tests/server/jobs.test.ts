@@ -88,7 +88,10 @@ describe('jobs', () => {
     const template = (await operator.get('/api/templates/1/versions/1')).body;
     expect(manifest.template.contentHash).toBe(template.contentHash);
     const names = manifest.files.map((f: { name: string }) => f.name);
-    expect(names).toEqual(expect.arrayContaining(['stations.csv', 'stations.xlsx', 'job-drawing.dxf', 'job-drawing.svg', 'offsets-g52.nc', 'setup-sheet.html', 'stock-check.json']));
+    expect(names).toEqual(expect.arrayContaining(['stations.csv', 'stations.xlsx', 'job-drawing.dxf', 'job-drawing.svg', 'offsets-shift-rotate.nc', 'setup-sheet.html', 'stock-check.json']));
+    // The demo layout has a short rail turned 90°, which G52 cannot turn: the shift-rotate family is packed.
+    expect(manifest.offsetFamily).toBe('shift-rotate');
+    expect(await zip.file('offsets-shift-rotate.nc')!.async('string')).toContain('G68 X0 Y0 R90.000');
     for (const f of manifest.files) {
       const bytes = await zip.file(f.name)!.async('nodebuffer');
       expect(createHash('sha256').update(bytes).digest('hex'), f.name).toBe(f.sha256);

@@ -155,6 +155,7 @@ describe('station files', () => {
 
   it('writes G10 L2 blocks that an independent tokenizer reads back as base + translation', async () => {
     const metric = await operator.get('/api/templates/2/versions/1/offsets.nc?mode=g10&base=-400,-250,-300.5').expect(200);
+    expect(metric.headers['content-type']).toBe('text/plain; charset=utf-8');
     const lines = metric.text.split('\n');
     expect(lines[0]).toMatch(/^\(/);
     expect(metric.text).toMatch(/G21/); // mm → G21 (NISTIR 6556 "Length Units — G20 and G21")
@@ -165,25 +166,24 @@ describe('station files', () => {
     blocks.forEach((line, i) => {
       const w = Object.fromEntries(parseLine(line).words.map(([k, v]: [string, number]) => [k, v]));
       // G10 L2 Pn: P1 = G54 … (LinuxCNC "G10 L2 Set Coordinate System"; NISTIR 6556).
-      expect(w).toMatchObject({ G: 10, L: 2, P: i + 1 });
+      expect(w).toMatchObject({ G: 10, L: 2, P: i + 2, R: 0 }); // shared offset G54 = P1, so stations start at P2
       expect(w.X).toBeCloseTo(-400 + st[i].x, 3);
       expect(w.Y).toBeCloseTo(-250 + st[i].y, 3);
       expect(w.Z).toBeCloseTo(-300.5 + st[i].z, 3);
     });
   });
 
-  it('refuses G10 for more stations than P1–P9 and answers a G52 sequence instead', async () => {
-    const res = await operator.get('/api/templates/1/versions/1/offsets.nc?mode=g10&base=0,0,0');
-    expect(res.status).toBe(400);
-    expect(res.body.error.message).toMatch(/P1-P9|P1–P9/);
-    const g52 = await operator.get('/api/templates/1/versions/1/offsets.nc?mode=g52').expect(200);
-    expect(g52.text).toMatch(/G20/);
-    expect(g52.text.trim().split('\n').at(-1)).toBe('G52 X0 Y0 Z0');
-    expect(g52.text.split('\n').filter((l) => l.startsWith('G52 X'))).toHaveLength(21);
+  it('refuses ngc-g10 for more stations than P2–P9 and answers a shift-rotate sequence instead', async () => {
+    const res = await operator.get('/api/templates/1/versions/1/offsets.nc?family=ngc-g10&base=0,0,0');
+    expect(res.status).toBe(422);
+    expect(res.body.error.message).toMatch(/P1-P9/);
+    const seq = await operator.get('/api/templates/1/versions/1/offsets.nc?family=shift-rotate').expect(200);
+    expect(seq.text).toMatch(/G20/);
+    expect(seq.text.trim().split('\n').at(-1)).toBe('M30');
+    expect(seq.text.split('\n').filter((l) => l.startsWith('G52 X'))).toHaveLength(22); // clear, 20 stations, clear
+    expect(seq.text.split('\n').filter((l) => l.startsWith('G68 X0 Y0 R90.000'))).toHaveLength(4); // the turned short rail
     expect((await operator.get('/api/templates/1/versions/1/offsets.nc?mode=g10')).status).toBe(400);
     expect((await operator.get('/api/templates/1/versions/1/offsets.nc?mode=g10&base=1,2')).status).toBe(400);
-    const ext = await operator.get('/api/templates/1/versions/1/offsets.nc?mode=g10&base=0,0,0&dialect=extended').expect(200);
-    expect(ext.text).toMatch(/CONTROL-SPECIFIC/);
   });
 });
 

@@ -1,17 +1,25 @@
 import { describe, expect, it } from 'vitest';
 import { parseLine, parseStringSync } from 'gcode-parser';
-import { STANDARD_OFFSET_LIMIT, WORK_OFFSET_CODES, commentText, workOffsetCode, writeG10Offsets, writeG52Sequence, writeOffsetFile } from '../../shared/gcode/offsets';
+import { STANDARD_OFFSET_LIMIT, WORK_OFFSET_CODES, commentText, endingLines, sharedRegister, stationLines, workOffsetCode, writeOffsetFile, type OffsetFileRequest } from '../../shared/gcode/offsets';
 import { evaluateTemplate } from '../../shared/stations/evaluate-template';
 import type { Station } from '../../shared/schemas/template';
 import { ALL_STOPS, content } from './station-fixtures';
 
 type Parsed = { line: string; words: Array<[string, number]>; comments?: string[] };
-const source = { templateName: 'Rail set (east)', version: 3, contentHash: 'sha256:0f1e2d' };
+const source = { templateName: 'Rail set (east)', version: 3, state: 'released', contentHash: 'sha256:0f1e2d' };
 const station = (number: number, x: number, y: number, z = 0, c = 0): Station => ({ id: `P${number}:0`, number, placement: `P${number}`, stop: 0, x, y, z, c, nominalWidth: null });
 const word = (p: Parsed, letter: string) => p.words.find(([l]) => l === letter)?.[1];
-const blocks = (text: string, g: number) => (parseStringSync(text) as Parsed[]).filter((p) => word(p, 'G') === g);
+const words = (p: Parsed, letter: string) => p.words.filter(([l]) => l === letter).map(([, v]) => v);
+const parsed = (text: string) => parseStringSync(text) as Parsed[];
+const blocks = (text: string, g: number) => parsed(text).filter((p) => words(p, 'G').includes(g));
+const write = (req: OffsetFileRequest) => {
+  const r = writeOffsetFile(req);
+  if (!r.ok) throw new Error(r.error.message);
+  return r.text;
+};
 
-// The hand-worked layout: rail A on hole (2,3) at 0°, rail B on hole (10,1) at 90°, shared offset on hole (6,5).
+// Hand-worked layout: rail A on hole (2,3) at 0°, rail B on hole (10,1) at 90°, shared offset on hole (6,5).
+// A: translation (−7.5 + k, −3.625); B: R90·(0.5+k, 0.375) + (20,2) − (12,10) = (7.625, −7.5 + k).
 const layout = evaluateTemplate(content({
   numbering: { order: 'by-rail' },
   placements: [
@@ -19,151 +27,148 @@ const layout = evaluateTemplate(content({
     { id: 'B', component: 'CR-8', hole: { col: 10, row: 1 }, rotation: 90, stopsInUse: ALL_STOPS },
   ],
 }));
-const railA = layout.stations.slice(0, 8); // stations 1–8: (−7.5 + k, −3.625)
+const railA = layout.stations.slice(0, 8); // stations 1–8, unturned
 const sharedOffsetAt = { x: -20.1234, y: -10.5, z: -3.25 }; // a probed machine position
 
-describe('G10 L2 work offsets', () => {
+describe('work offset registers', () => {
   it.each([
-    // P, work offset — LinuxCNC G-code reference "G10 L2 Set Coordinate System"; NISTIR 6556
+    // P, work offset — LinuxCNC G-code reference "G10 L2 Set Coordinate System"; NISTIR 6556 §3.5.5
     [1, 'G54'], [2, 'G55'], [3, 'G56'], [4, 'G57'], [5, 'G58'], [6, 'G59'], [7, 'G59.1'], [8, 'G59.2'], [9, 'G59.3'],
   ])('P%d is %s', (p, code) => {
     expect(workOffsetCode(p)).toBe(code);
     expect(WORK_OFFSET_CODES[p - 1]).toBe(code);
+    expect(sharedRegister(code)).toBe(p);
   });
 
-  it('has no standard name past P9', () => {
-    expect(STANDARD_OFFSET_LIMIT).toBe(9); // G54..G59.3 (NISTIR 6556: P1 to P9)
+  it('has no NGC name past P9 and reads any other shared-offset name as G54', () => {
+    expect(STANDARD_OFFSET_LIMIT).toBe(9); // NISTIR 6556: P1 to P9
     expect(workOffsetCode(10)).toBeNull();
+    expect(sharedRegister('hole (6, 5)')).toBe(1);
+    expect(sharedRegister(undefined)).toBe(1);
   });
+});
 
-  it('writes the NISTIR 6556 example: G10 L2 P1 X3.5 Y17.2 sets the G54 origin at X3.5 Y17.2', () => {
-    const r = writeG10Offsets({ mode: 'g10', source, unit: 'in', stations: [station(1, 3.5, 17.2)], sharedOffsetAt: { x: 0, y: 0, z: 0 } });
-    if (!r.ok) throw new Error(r.error.message);
-    const [block] = blocks(r.text, 10);
-    expect(block!.line).toBe('G10 L2 P1 X3.5000 Y17.2000 Z0.0000');
-    expect(block!.words).toEqual([['G', 10], ['L', 2], ['P', 1], ['X', 3.5], ['Y', 17.2], ['Z', 0]]); // gcode-parser, independent tokenizer
-    expect(r.text).toContain('(STATION 1 P1:0 = G54)');
-  });
-
-  it('gives each station the shared offset machine position plus its translation', () => {
-    const r = writeOffsetFile({ mode: 'g10', source, unit: 'in', stations: railA, sharedOffsetAt });
-    if (!r.ok) throw new Error(r.error.message);
-    const g10 = blocks(r.text, 10);
+describe('ngc-g10', () => {
+  it('writes G10 L2 P X Y Z R with every word, stations from the register after the shared one', () => {
+    const text = write({ family: 'ngc-g10', source, unit: 'in', stations: railA, sharedOffsetAt });
+    const g10 = blocks(text, 10);
     expect(g10).toHaveLength(8);
     g10.forEach((b, k) => {
       expect(word(b, 'L')).toBe(2);
-      expect(word(b, 'P')).toBe(k + 1);
-      // X = −20.1234 + (−7.5 + k); Y = −10.5 + (−3.625); Z = −3.25 + 0 (hand-worked translations)
+      expect(word(b, 'P')).toBe(k + 2); // shared offset G54 = P1, so station 1 → P2 (G55)
       expect(word(b, 'X')).toBeCloseTo(-20.1234 - 7.5 + k, 4);
-      expect(word(b, 'Y')).toBeCloseTo(-14.125, 4);
+      expect(word(b, 'Y')).toBeCloseTo(-10.5 - 3.625, 4);
       expect(word(b, 'Z')).toBeCloseTo(-3.25, 4);
-      expect(word(b, 'R')).toBeUndefined(); // C = 0: no rotation word
+      expect(word(b, 'R')).toBe(0); // a G10 keeps omitted words (LinuxCNC G10 L2), so R0 is written
     });
+    expect(text).toContain('(STATION 1 A:0 = G55)');
   });
 
-  it('adds R (rotation of XY about Z, LinuxCNC G10 L2) where C is not 0', () => {
-    const r = writeG10Offsets({ mode: 'g10', source, unit: 'in', stations: layout.stations.slice(8, 9).map((s) => ({ ...s, number: 1 })), sharedOffsetAt: { x: 0, y: 0, z: 0 } });
-    if (!r.ok) throw new Error(r.error.message);
-    const [b] = blocks(r.text, 10);
-    expect(b!.line).toBe('G10 L2 P1 X7.6250 Y-7.5000 Z0.0000 R90.000'); // B:0 = (7.625, −7.5), C 90 (hand-worked)
+  it('writes the NISTIR 6556 example values G10 L2 P1 X3.5 Y17.2 with first=1 under a G59.3 shared offset', () => {
+    const text = write({ family: 'ngc-g10', source, unit: 'in', stations: [station(1, 3.5, 17.2)], sharedOffsetAt: { x: 0, y: 0, z: 0 }, sharedOffsetName: 'G59.3', first: 1 });
+    expect(blocks(text, 10)[0]!.line).toBe('G10 L2 P1 X3.5000 Y17.2000 Z0.0000 R0.000');
   });
 
-  it('refuses more than 9 stations in the standard dialect', () => {
-    const r = writeG10Offsets({ mode: 'g10', source, unit: 'in', stations: layout.stations, sharedOffsetAt });
-    expect(r.ok).toBe(false);
-    if (r.ok) return;
-    expect(r.error.code).toBe('too-many-stations');
-    expect(r.error.message).toContain('P1-P9');
+  it('writes R = C for a turned station (LinuxCNC G10 L2 R, rotation about Z)', () => {
+    const b9 = layout.stations[8]!; // B:0 = (7.625, −7.5), C 90
+    const [line] = stationLines({ family: 'ngc-g10', source, unit: 'in', stations: [b9], sharedOffsetAt: { x: 0, y: 0, z: 0 }, first: 2 }, b9).filter((l) => l.startsWith('G10'));
+    expect(line).toBe('G10 L2 P10 X7.6250 Y-7.5000 Z0.0000 R90.000'); // station 9 → register first + 9 − 1
   });
 
-  it('writes P10 and above in the extended dialect, marked control-specific', () => {
-    const r = writeG10Offsets({ mode: 'g10', source, unit: 'in', stations: layout.stations, sharedOffsetAt, dialect: 'extended' });
-    if (!r.ok) throw new Error(r.error.message);
-    const lines = r.text.trimEnd().split('\n');
-    const g10 = blocks(r.text, 10);
-    expect(g10.map((b) => word(b, 'P'))).toEqual(Array.from({ length: 16 }, (_, i) => i + 1));
-    const marker = lines.findIndex((l) => l.startsWith('(P10 AND ABOVE ARE CONTROL-SPECIFIC'));
-    expect(marker).toBeGreaterThan(lines.findIndex((l) => l.startsWith('G10 L2 P9 ')));
-    expect(marker).toBeLessThan(lines.findIndex((l) => l.startsWith('G10 L2 P10 ')));
-    expect(r.text).toContain('(DIALECT: EXTENDED');
+  it.each([
+    ['more stations than P9', { stations: layout.stations }, 'too-many-stations', 422],
+    ['a station on the shared register', { stations: railA, first: 1 }, 'register-collision', 422],
+    ['no base', { stations: railA, sharedOffsetAt: undefined }, 'missing-base', 400],
+  ] as const)('refuses %s', (_, over, code, status) => {
+    const r = writeOffsetFile({ family: 'ngc-g10', source, unit: 'in', sharedOffsetAt, ...over });
+    expect(r.ok ? null : [r.error.code, r.error.status]).toEqual([code, status]);
+    if (!r.ok) expect(r.error.message.trim().split(/[.;]\s+[A-Z]/)).toHaveLength(1); // one sentence
+  });
+});
+
+describe('ext-l20 (extended work offsets, syntax from memory)', () => {
+  it('sets G10 L20 P<n> without R and is wrapped in percent signs', () => {
+    const text = write({ family: 'ext-l20', source, unit: 'in', stations: railA, sharedOffsetAt, extRegisters: 48 });
+    const lines = text.trimEnd().split('\n');
+    expect(lines[0]).toBe('%');
+    expect(lines.at(-1)).toBe('%');
+    expect(lines.at(-2)).toBe('M30');
+    const l20 = blocks(text, 10);
+    expect(l20.map((b) => word(b, 'L'))).toEqual(Array(8).fill(20)); // from memory: L20 for extended offsets
+    expect(l20.map((b) => word(b, 'P'))).toEqual([2, 3, 4, 5, 6, 7, 8, 9]);
+    expect(l20.every((b) => word(b, 'R') === undefined)).toBe(true);
+    expect(text).not.toMatch(/G10 L2 /); // never P10+ under L2 (rs274 refuses it)
+    expect(text).toContain('(STATION 1 A:0 = G54.1 P2)');
   });
 
-  it('refuses repeated or missing station numbers', () => {
-    const r = writeG10Offsets({ mode: 'g10', source, unit: 'in', stations: [station(1, 0, 0), station(1, 1, 0)], sharedOffsetAt });
-    expect(r.ok ? null : r.error.code).toBe('bad-station-number');
+  it('refuses more stations than the shop setting and turned stations', () => {
+    const few = writeOffsetFile({ family: 'ext-l20', source, unit: 'in', stations: railA, sharedOffsetAt, extRegisters: 8 });
+    expect(few.ok ? null : few.error.code).toBe('too-many-stations');
+    const turned = writeOffsetFile({ family: 'ext-l20', source, unit: 'in', stations: layout.stations, sharedOffsetAt });
+    expect(turned.ok ? null : turned.error.message).toMatch(/Stations 9, 10, .*16 are turned.*ngc-g10 or shift-rotate/);
+  });
+});
+
+describe('ngc-g52 and shift-rotate', () => {
+  it('ngc-g52: G52 per station from the shared offset with a part-program line, then clears and ends', () => {
+    const text = write({ family: 'ngc-g52', source, unit: 'in', stations: railA });
+    const lines = text.trimEnd().split('\n');
+    const g52 = blocks(text, 52);
+    expect(g52).toHaveLength(9); // 8 stations + the clear at the end (G92.1 clears at the start)
+    railA.forEach((s, k) => expect(g52[k]!.line).toBe(`G52 X${(-7.5 + k).toFixed(4)} Y-3.6250 Z0.0000`));
+    const first = lines.indexOf('G52 X-7.5000 Y-3.6250 Z0.0000');
+    expect(lines[first - 1]).toBe('(STATION 1 A:0)');
+    expect(lines[first + 1]).toBe('(PART PROGRAM FOR STATION 1 GOES HERE)');
+    expect(lines.slice(-2)).toEqual(['G52 X0 Y0 Z0', 'M30']);
+  });
+
+  it('ngc-g52 refuses turned stations, naming them and the families that turn', () => {
+    const r = writeOffsetFile({ family: 'ngc-g52', source, unit: 'in', stations: layout.stations });
+    expect(r.ok ? null : r.error.message).toMatch(/^Stations 9, 10, 11, 12, 13, 14, 15, 16 are turned .*ngc-g10 or shift-rotate\.$/);
+  });
+
+  it('shift-rotate: per station G69, G52 shift, G68 X0 Y0 R<c> (trade syntax from memory; LinuxCNC has no G68)', () => {
+    const text = write({ family: 'shift-rotate', source, unit: 'mm', stations: layout.stations });
+    const per = (n: number) => { const lines = text.split('\n'); const i = lines.indexOf(`(STATION ${n} ${layout.stations[n - 1]!.id})`); return lines.slice(i + 1, i + 5); };
+    expect(per(1)).toEqual(['G69', 'G52 X-7.500 Y-3.625 Z0.000', 'G68 X0 Y0 R0.000', '(PART PROGRAM FOR STATION 1 GOES HERE)']);
+    expect(per(9)).toEqual(['G69', 'G52 X7.625 Y-7.500 Z0.000', 'G68 X0 Y0 R90.000', '(PART PROGRAM FOR STATION 9 GOES HERE)']);
+    // from memory: a rotation is cancelled (G69) before a shift changes, and at the end
+    expect(endingLines({ family: 'shift-rotate' })).toEqual(['G69', '(CLEAR THE LOCAL SHIFT)', 'G52 X0 Y0 Z0', 'M30']);
+    expect(text.split('\n').slice(0, 20)).toContain('G69');
   });
 });
 
 describe('file header', () => {
-  it.each([
-    ['in', 'G20', 'X-27.6234'], // −20.1234 − 7.5, four decimals
-    ['mm', 'G21', 'X-27.623'], // three decimals in mm
-  ] as const)('%s: names template, version, hash, unit, dialect and the caution', (unit, g, x) => {
-    const r = writeG10Offsets({ mode: 'g10', source, unit, stations: railA, sharedOffsetAt });
-    if (!r.ok) throw new Error(r.error.message);
-    const lines = r.text.trimEnd().split('\n');
-    const firstCode = lines.findIndex((l) => !l.startsWith('('));
-    const head = lines.slice(0, firstCode).join('\n');
-    expect(head).toContain('(TEMPLATE: Rail set [east])'); // parentheses would end the comment early
-    expect(head).toContain('(VERSION: 3)');
+  it.each([['in', 'G20'], ['mm', 'G21']] as const)('%s: names family, template, version and state, hash, unit, Z0 and the cautions, then sets modal state', (unit, g) => {
+    const text = write({ family: 'ngc-g10', source, unit, stations: railA, sharedOffsetAt });
+    const lines = text.trimEnd().split('\n');
+    const head = lines.slice(0, lines.findIndex((l) => !l.startsWith('('))).join('\n');
+    expect(head).toContain('FAMILY NGC-G10');
+    expect(head).toContain('(TEMPLATE: Rail set [east])'); // parentheses would end the comment early (NISTIR 6556 comments)
+    expect(head).toContain('(VERSION: 3 STATE: RELEASED)');
     expect(head).toContain('(CONTENT HASH: sha256:0f1e2d)');
     expect(head).toContain(g);
-    expect(head).toContain('(DIALECT: STANDARD');
-    expect(head).toMatch(/CAUTION: CHECK EVERY BLOCK AGAINST THE PROGRAMMING MANUAL/);
-    expect(lines[firstCode]).toBe(`${g} G90`);
-    expect(r.text).toContain(`G10 L2 P1 ${x}`);
+    expect(head).toMatch(/Z0 IS THE SHARED OFFSET Z0/);
+    for (const c of ['CHECK EVERY BLOCK', 'PROVE OUT WITHOUT STOCK', 'CHECKS EVERY CLAMP BEFORE CYCLE START', "MACHINE BUILDER'S INSTRUCTIONS"]) expect(head).toContain(c);
+    const code = lines.filter((l) => !l.startsWith('('));
+    expect(code.slice(0, 3)).toEqual(['G92.1', `${g} G90 G17 G40 G49 G80`, 'G54']);
+    expect(code.at(-1)).toBe('M30');
+  });
+
+  it('marks a draft unmistakably', () => {
+    const text = write({ family: 'ngc-g52', source: { ...source, state: 'draft' }, unit: 'in', stations: railA });
+    expect(text.split('\n')[1]).toMatch(/^\(DRAFT - NOT RELEASED/);
   });
 
   it('keeps every comment a single, closed parenthesis comment that gcode-parser reads as one', () => {
-    const r = writeG52Sequence({ mode: 'g52', source: { ...source, templateName: 'Bad (name) ) é\nnext' }, unit: 'in', stations: railA });
-    for (const line of r.trimEnd().split('\n')) {
+    const text = write({ family: 'ngc-g52', source: { ...source, templateName: 'Bad (name) ) é\nnext' }, unit: 'in', stations: railA });
+    for (const line of text.trimEnd().split('\n')) {
       if (!line.startsWith('(')) continue;
       expect(line).toMatch(/^\([\x20-\x27\x2A-\x7E]*\)$/);
-      const parsed = parseLine(line) as Parsed;
-      expect(parsed.words).toEqual([]);
-      expect(parsed.comments).toHaveLength(1);
+      const p = parseLine(line) as Parsed;
+      expect(p.words).toEqual([]);
+      expect(p.comments).toHaveLength(1);
     }
     expect(commentText('a (b) c')).toBe('a [b] c');
-  });
-});
-
-describe('G52 station sequence', () => {
-  it('shifts to each station in order, leaves a place for the part program, and clears the shift', () => {
-    const text = writeG52Sequence({ mode: 'g52', source, unit: 'in', stations: layout.stations });
-    const g52 = blocks(text, 52);
-    expect(g52).toHaveLength(17); // 16 stations + the cancel
-    layout.stations.forEach((s, i) => {
-      // G52 is relative to the active (shared) work offset: the translation itself
-      expect(word(g52[i]!, 'X')).toBeCloseTo(s.x, 4);
-      expect(word(g52[i]!, 'Y')).toBeCloseTo(s.y, 4);
-      expect(word(g52[i]!, 'Z')).toBeCloseTo(s.z, 4);
-    });
-    expect(g52[0]!.line).toBe('G52 X-7.5000 Y-3.6250 Z0.0000'); // A:0 hand-worked
-    expect(g52[16]!.line).toBe('G52 X0 Y0 Z0');
-    const lines = text.trimEnd().split('\n');
-    expect(lines[lines.length - 1]).toBe('G52 X0 Y0 Z0');
-    expect(lines.filter((l) => l.includes('PART PROGRAM FOR STATION'))).toHaveLength(16);
-    // each station: a naming comment before its shift, the part-program line after it
-    const first = lines.indexOf('G52 X-7.5000 Y-3.6250 Z0.0000');
-    expect(lines[first - 1]).toBe('(STATION 1 A:0)');
-    expect(lines[first + 1]).toBe('(PART PROGRAM FOR STATION 1 GOES HERE)');
-  });
-
-  it('flags turned stations, since G52 does not rotate', () => {
-    const text = writeG52Sequence({ mode: 'g52', source, unit: 'in', stations: layout.stations });
-    expect(text).toContain('(STATION 9 IS TURNED C90.000');
-    expect(text).not.toContain('(STATION 8 IS TURNED');
-  });
-
-  it('names its dialect', () => {
-    const text = writeG52Sequence({ mode: 'g52', source, unit: 'mm', stations: railA });
-    expect(text).toContain('(DIALECT: STANDARD - G52 LOCAL OFFSET AS IN LINUXCNC)');
-    expect(text).toContain('(UNIT: MILLIMETER - G21)');
-    expect(text).toContain('G52 X-7.500 Y-3.625 Z0.000'); // three decimals in mm
-  });
-
-  it('is not limited to nine stations', () => {
-    const r = writeOffsetFile({ mode: 'g52', source, unit: 'in', stations: layout.stations });
-    expect(r.ok).toBe(true);
   });
 });

@@ -20,6 +20,7 @@ export function SettingsForm({ settings, readOnly }: { settings: ShopSettings; r
         <SelectField label="Default unit" options={UNITS} error={e.defaultUnit?.message} {...form.register('defaultUnit')} />
         <TextField label="Station probe-check tolerance" unit="in" type="number" step="any" error={e.probeToleranceIn?.message} {...form.register('probeToleranceIn', num)} />
         <TextField label="Station probe-check tolerance" unit="mm" type="number" step="any" error={e.probeToleranceMm?.message} {...form.register('probeToleranceMm', num)} />
+        <TextField label="Extended work offsets on the control (G54.1 P1 to Pn, 1 to 300)" type="number" step="1" error={e.extOffsetRegisters?.message} {...form.register('extOffsetRegisters', num)} />
       </fieldset>
       <div className="sm:col-span-2 flex flex-col gap-2">
         <ErrorText error={save.error} />
