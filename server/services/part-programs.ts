@@ -4,6 +4,7 @@ import type { User } from '../../shared/schemas/auth';
 import type { TableProgramQuery } from '../../shared/schemas/part-program';
 import { MAX_PROGRAM_BYTES, readPartProgram, type PartProgram } from '../../shared/gcode/read-part-program';
 import { expandedFrame } from '../../shared/gcode/expand-program';
+import { offsetFrame } from '../../shared/gcode/offset-frames';
 import { refuseTableRequest, tableProgramChunks, type StationFrame, type TableProgramRequest } from '../../shared/gcode/table-program';
 import { formatLength } from '../../shared/units/units';
 import type { Db } from '../db/knex';
@@ -45,16 +46,29 @@ export function partProgramsService(deps: { db: Db; jobs: JobsService; audit: Au
     if (safeZ < floor - 1e-9) {
       throw badRequest(`safeZ ${formatLength(safeZ, job.unit)} is below this job's lowest safe height of ${formatLength(floor, job.unit)} (the stock top or tallest clamp plus a clearance); raise it.`, { minimumSafeZ: floor }, 'safe-z');
     }
+    let frame: StationFrame = expandedFrame(job.unit);
+    let familyText = 'EXPANDED - EVERY COORDINATE REWRITTEN, ONLY THE SHARED WORK OFFSET ACTIVE';
+    if (q.family !== 'expanded') {
+      const made = offsetFrame({
+        family: q.family, unit: job.unit, stations,
+        source: { templateName: job.templateName, version: job.version, state: job.versionState, contentHash: job.contentHash },
+        sharedOffsetName: stored.program.summary.workOffset ?? 'G54',
+        sharedOffsetAt: q.base ? { x: q.base[0]!, y: q.base[1]!, z: q.base[2]! } : undefined,
+      });
+      if (!made.ok) throw new HttpError(made.error.status, made.error.code, made.error.message);
+      frame = made.frame;
+      familyText = made.family;
+    }
     const request: TableProgramRequest = {
       program: stored.program, unit: job.unit, stations, order: q.order, safeZ,
       header: {
         templateName: job.templateName, version: job.version, contentHash: job.contentHash, jobId: job.id, jobName: job.name,
-        partNumber: job.partNumber, programSha256: stored.sha256, family: 'EXPANDED - EVERY COORDINATE REWRITTEN, ONLY THE SHARED WORK OFFSET ACTIVE', skipped,
+        partNumber: job.partNumber, programSha256: stored.sha256, family: familyText, skipped,
       },
     };
     const refusal = refuseTableRequest(request);
     if (refusal) throw badRequest(refusal, null, 'table-program');
-    return { request, frame: expandedFrame(job.unit), fileName: `${q.family}-${q.order}` };
+    return { request, frame, fileName: `${q.family}-${q.order}` };
   }
 
   /** The whole-table program in pieces, checked before the first piece. */

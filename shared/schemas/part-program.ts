@@ -29,7 +29,7 @@ export const PartProgramInfoSchema = z.object({
 });
 export type PartProgramInfo = z.infer<typeof PartProgramInfoSchema>;
 
-export const PROGRAM_FAMILIES = ['expanded'] as const;
+export const PROGRAM_FAMILIES = ['expanded', 'ngc-g10', 'ngc-g52', 'ext-l20', 'shift-rotate'] as const;
 export const ProgramFamilySchema = z.enum(PROGRAM_FAMILIES, { message: `family must be one of ${PROGRAM_FAMILIES.join(', ')}.` });
 export const ProgramOrderSchema = z.enum(['station', 'tool'], { message: 'order must be station or tool.' });
 

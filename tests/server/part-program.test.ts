@@ -125,6 +125,19 @@ describe('part program on a job', () => {
     expect(res.text.trim().endsWith('M30')).toBe(true);
   });
 
+  it('writes the offset families, refusing what a family cannot write', async () => {
+    // G10 families need the shared offset's machine position (LinuxCNC "G10 L2" sets machine positions).
+    const noBase = await operator.get(`/api/jobs/${id}/program.nc?family=ngc-g10`);
+    expect(noBase.status).toBe(400);
+    expect(noBase.body.error.message).toMatch(/base=x,y,z/);
+    // G10 L2 reaches P9 (G59.3): with G54 shared, stations 9 and up have no register.
+    expect((await operator.get(`/api/jobs/${id}/program.nc?family=ngc-g10&base=-10,-5,-8`)).status).toBe(422);
+    const ok = await operator.get(`/api/jobs/${id}/program.nc?family=ngc-g10&base=-10,-5,-8&skip=9,10,11,12&order=tool`).expect(200);
+    expect(ok.text).toMatch(/^G10 L2 P2 /m);
+    expect(ok.text).toMatch(/^G55$/m);
+    expect(runRs274(ok.text, [1, 2, 3, 4].map((t) => ({ t, z: 1 + t / 10, d: 0.25 }))).errors).toEqual([]);
+  });
+
   it('answers 404 for a job with no part program', async () => {
     const other = await programmer.post('/api/jobs', {
       name: 'No program', partNumber: 'BR-1002', templateId: 1, version: 1, stock: { width: 1, thickness: 0.5, length: 2 }, carrier: 0.25, clearance: 0.03, minBite: 0.06, cycleMinutes: 5,

@@ -7,11 +7,13 @@ import { describe, expect, it } from 'vitest';
 import { evaluateTemplate } from '../../shared/stations/evaluate-template';
 import { readPartProgram } from '../../shared/gcode/read-part-program';
 import { expandedProgram } from '../../shared/gcode/expand-program';
-import type { ProgramOrder } from '../../shared/gcode/table-program';
+import { writeTableProgram, type ProgramOrder } from '../../shared/gcode/table-program';
+import { offsetFrame } from '../../shared/gcode/offset-frames';
+import type { OffsetFamily } from '../../shared/gcode/offsets';
 import type { Station } from '../../shared/schemas/template';
 import type { Unit } from '../../shared/schemas/common';
 import { centerRail, content } from './station-fixtures';
-import { movesOf, runRs274, type Move } from './rs274';
+import { movesInStartFrame, movesOf, runRs274, type Move } from './rs274';
 
 function prng(seed: number) {
   let a = seed >>> 0;
@@ -191,5 +193,53 @@ describe('whole-table program read back by rs274 (LinuxCNC interpreter)', () => 
     const st = (number: number, x: number, y: number, z: number, c: number): Station => ({ id: `S:${number}`, number, placement: 'S', stop: 0, x, y, z, c, nominalWidth: null });
     const part = ['G20 G17 G90 G54', 'G0 X0.5 Y0.25 Z0.2', 'G1 Z-0.05 F12', 'G91 G1 X0.5 Y0.1', 'G3 X-0.3 Y0.3 I-0.3 J0', 'G2 X0.4 Y0 R0.25', 'G1 Y0.2 Z-0.02', 'X0.05', 'G90 G1 X0.1 Y0.9', 'G0 Z0.2', 'M30', ''].join('\n');
     checkTable({ part, stations: [st(1, 3, 1, 0.25, 90), st(2, -2, 4, 0, 180), st(3, 6, -1, 0, 0)], skip: [], order: 'station', unit: 'in', safeZ: 1, tol: 1e-4, tools: [] });
+  });
+
+  // Offset families: the part's own coordinates under each station's work offset (G10 L2 P R, LinuxCNC "G10 L2") or
+  // local shift (G52); rs274 reports positions in the active system and the offsets apart, carried back here.
+  const families: [OffsetFamily, boolean][] = [['ngc-g10', true], ['ngc-g52', false]];
+  for (const [family, turned] of families) {
+    for (const order of ['station', 'tool'] as const) {
+      it(`${family}, ${order} order: every feed lands where the expanded family puts it${turned ? ', turned stations included' : ''}`, () => {
+        const rand = prng(family.length * 31 + order.length);
+        const st = (number: number, x: number, y: number, z: number, c: number): Station => ({ id: `S:${number}`, number, placement: 'S', stop: 0, x, y, z, c, nominalWidth: null });
+        const stations = [st(1, 1, 1, 0, 0), st(2, 6, 1.5, 0.25, turned ? 90 : 0), st(3, 2, 7, 0, turned ? 270 : 0), st(4, 9, 8, 0.5, turned ? 30 : 0)];
+        const base = { x: -5, y: -3, z: -2 };
+        const part = randomPart(rand);
+        const read = readPartProgram(part, 'in');
+        if (!read.ok) throw new Error(read.error.message);
+        const made = offsetFrame({ family, unit: 'in', stations, source: { templateName: 'T', version: 1, state: 'released', contentHash: 'h' }, sharedOffsetName: 'G54', sharedOffsetAt: base });
+        if (!made.ok) throw new Error(made.error.message);
+        const safeZ = 1.25;
+        const table = writeTableProgram({ program: read.program, unit: 'in', stations, order, safeZ, header: { templateName: 'T', version: 1, contentHash: 'h', jobId: 1, jobName: 'J', partNumber: 'P', programSha256: 's', family, skipped: [] } }, made.frame);
+        if (!table.ok) throw new Error(table.message);
+        const { canon, errors } = runRs274(table.text, TOOLS);
+        expect(errors).toEqual([]);
+        // rs274's G54 is at machine zero; G10 families set the stations from base, G52 shifts from the active G54.
+        const shift = family === 'ngc-g10' ? base : { x: 0, y: 0, z: 0 };
+        const feeds = movesInStartFrame(canon).filter((m) => m.kind !== 'traverse');
+        const segs = partFeeds(part);
+        const want: Move[] = [];
+        if (order === 'station') for (const s of stations) segs.forEach((m) => want.push(...m.map((v) => carry(v, s))));
+        else segs.forEach((m) => { for (const s of stations) want.push(...m.map((v) => carry(v, s))); });
+        expect(feeds.length).toBe(want.length);
+        feeds.forEach((m, i) => {
+          const w = want[i]!;
+          expect(Math.abs(m.x - shift.x - w.x), `feed ${i} x`).toBeLessThanOrEqual(1e-4);
+          expect(Math.abs(m.y - shift.y - w.y), `feed ${i} y`).toBeLessThanOrEqual(1e-4);
+          expect(Math.abs(m.z - shift.z - w.z), `feed ${i} z`).toBeLessThanOrEqual(1e-4);
+          if (m.kind === 'arc') {
+            expect(Math.abs(m.cx! - shift.x - w.cx!), `arc ${i} center x`).toBeLessThanOrEqual(1e-4);
+            expect(Math.abs(m.cy! - shift.y - w.cy!), `arc ${i} center y`).toBeLessThanOrEqual(1e-4);
+            expect(m.turn).toBe(w.turn);
+          }
+        });
+      });
+    }
+  }
+  it('a turned station in a family that cannot turn is refused, not approximated', () => {
+    const s: Station = { id: 'S:1', number: 1, placement: 'S', stop: 0, x: 1, y: 1, z: 0, c: 90, nominalWidth: null };
+    const made = offsetFrame({ family: 'ngc-g52', unit: 'in', stations: [s], source: { templateName: 'T', version: 1, state: 'released', contentHash: 'h' } });
+    expect(made).toMatchObject({ ok: false, error: { code: 'turned-station' } });
   });
 });

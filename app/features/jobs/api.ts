@@ -134,11 +134,12 @@ export const partProgramTextQuery = (id: number, sha256: string | null) => query
   },
 });
 
-export interface TableProgramOptions { family: string; order: 'station' | 'tool'; skip: number[]; safeZ: string }
+export interface TableProgramOptions { family: string; order: 'station' | 'tool'; skip: number[]; safeZ: string; base?: string }
 
 export function tableProgramUrl(id: number, o: TableProgramOptions): string {
   const q = new URLSearchParams({ family: o.family, order: o.order });
   if (o.skip.length) q.set('skip', o.skip.join(','));
   if (o.safeZ.trim() !== '') q.set('safeZ', o.safeZ.trim());
+  if (o.base && o.base.trim() !== '') q.set('base', o.base.replace(/\s+/g, ''));
   return `/api/jobs/${id}/program.nc?${q.toString()}`;
 }

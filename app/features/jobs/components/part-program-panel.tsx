@@ -3,6 +3,7 @@ import { useQuery } from '@tanstack/react-query';
 import { Download, Upload } from 'lucide-react';
 import type { JobDetail } from '../../../../shared/schemas/job';
 import { PROGRAM_FAMILIES } from '../../../../shared/schemas/part-program';
+import { FAMILY_LABELS, G10_FAMILIES } from '../../../../shared/gcode/offsets';
 import { readPartProgram } from '../../../../shared/gcode/read-part-program';
 import { tablePreview } from '../../../../shared/gcode/program-preview';
 import { formatLength, formatNumber } from '../../../../shared/units/units';
@@ -12,7 +13,7 @@ import { ErrorText, Notice } from '../../../components/ui/notice';
 import { parseDecimal } from '../parse-decimal';
 import { partProgramTextQuery, tableProgramUrl, useUploadPartProgram } from '../api';
 
-const FAMILY_LABEL: Record<string, string> = { expanded: 'Every coordinate rewritten (one work offset)' };
+const FAMILY_LABEL: Record<string, string> = { expanded: 'Every coordinate rewritten (one work offset)', ...FAMILY_LABELS };
 
 /**
  * The whole-table program: the programmer uploads one part's posted program (program zero at the
@@ -25,11 +26,14 @@ export function PartProgramPanel({ job, canEdit }: { job: JobDetail; canEdit: bo
   const [order, setOrder] = useState<'station' | 'tool'>('tool');
   const [skip, setSkip] = useState<number[]>([]);
   const [safeZ, setSafeZ] = useState('');
+  const [base, setBase] = useState('');
+  const needsBase = (G10_FAMILIES as readonly string[]).includes(family);
   const numbers = useMemo(() => [...job.stationsUsed].sort((a, b) => a - b), [job.stationsUsed]);
   const safeValue = safeZ.trim() === '' ? null : parseDecimal(safeZ);
   const safeProblem = safeZ.trim() !== '' && safeValue === null ? `Safe Z "${safeZ}" is not a number: write it with a decimal point, e.g. 1.25.`
     : p && safeValue !== null && safeValue < p.minimumSafeZ ? `Safe Z must be at least ${formatLength(p.minimumSafeZ, u)} for this job (stock top or tallest clamp plus a clearance).`
-    : skip.length === numbers.length ? 'Every station is skipped; leave at least one.' : null;
+    : skip.length === numbers.length ? 'Every station is skipped; leave at least one.'
+    : needsBase && base.trim() === '' ? 'This family sets a work offset per station: give the machine position of the shared offset as x,y,z.' : null;
   const toggle = (n: number) => setSkip((s) => (s.includes(n) ? s.filter((v) => v !== n) : [...s, n].sort((a, b) => a - b)));
 
   return (
@@ -61,6 +65,7 @@ export function PartProgramPanel({ job, canEdit }: { job: JobDetail; canEdit: bo
               <dt className="text-slate-700">SHA-256</dt><dd className="truncate font-mono text-sm" title={p.sha256}>{p.sha256.slice(0, 16)}…</dd>
             </dl>
             <SelectField label="Control family" value={family} onChange={(e) => setFamily(e.target.value)} options={PROGRAM_FAMILIES.map((f) => ({ value: f, label: FAMILY_LABEL[f] ?? f }))} />
+            {needsBase ? <TextField label="Shared offset at machine x,y,z" unit={u} className="num" value={base} placeholder="-20.5,-12.25,-14.0" onChange={(e) => setBase(e.target.value)} hint="the G10 blocks at the top set each station's offset from it" /> : null}
             <fieldset className="flex flex-col gap-1">
               <legend className="text-sm font-semibold text-slate-700">Order</legend>
               <label className="flex min-h-10 items-center gap-2"><input type="radio" name="program-order" checked={order === 'tool'} onChange={() => setOrder('tool')} />By tool: each tool once, over every station</label>
@@ -81,7 +86,7 @@ export function PartProgramPanel({ job, canEdit }: { job: JobDetail; canEdit: bo
               onChange={(e) => setSafeZ(e.target.value)} hint={`empty: ${formatLength(p.minimumSafeZ, u)}; the tool rises here before every station change and tool change`} />
             {safeProblem ? <ErrorText error={safeProblem} /> : (
               <a className="inline-flex min-h-10 items-center justify-center gap-2 rounded bg-accent-700 px-4 font-semibold text-white hover:bg-accent-800"
-                href={tableProgramUrl(job.id, { family, order, skip, safeZ })} download>
+                href={tableProgramUrl(job.id, { family, order, skip, safeZ, base: needsBase ? base : undefined })} download>
                 <Download aria-hidden className="h-4 w-4" />Download the whole-table program
               </a>
             )}
