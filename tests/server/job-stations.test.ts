@@ -72,7 +72,9 @@ describe('the demo job uses only the stations its stock fits', () => {
     const dxf = parseDxf(await zip.file('job-drawing.dxf')!.async('string')) as { entities: { layer: string; type: string }[] };
     expect(dxf.entities.filter((e) => e.layer === 'PART-BR-1001')).toHaveLength(2 * 12);
     expect(dxf.entities.filter((e) => e.layer === 'GRID-STATIONS' && e.type === 'POINT')).toHaveLength(12);
-    const nc = await zip.file('offsets-g52.nc')!.async('string');
+    // The package names its shift file by family (ngc-g52, or shift-rotate when a used station is turned).
+    const ncName = Object.keys(zip.files).find((n) => /^offsets-(ngc-g52|shift-rotate)\.nc$/.test(n))!;
+    const nc = await zip.file(ncName)!.async('string');
     // One G52 line a station (LinuxCNC G-code reference, G52 local offset), plus the cancel G52 X0 Y0 Z0 lines.
     const g52 = nc.split('\n').filter((l) => /G52/.test(l) && !/G52 X0(\.0+)? Y0(\.0+)? Z0(\.0+)?\b/.test(l) && !l.trim().startsWith('('));
     expect(g52.length).toBe(12);
