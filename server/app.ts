@@ -27,6 +27,8 @@ import { reviewRoutes } from './routes/reviews';
 import { auditRoutes } from './routes/audit';
 import { jobRoutes } from './routes/jobs';
 import { dxfRoutes } from './routes/dxf';
+import { partProgramRoutes } from './routes/part-programs';
+import { partProgramsService } from './services/part-programs';
 import { manifestRoutes } from './routes/manifest';
 import { manifestService } from './services/manifest';
 import { jobsRepo } from './db/jobs-repo';
@@ -84,6 +86,7 @@ export function createApp(deps: AppDeps): GridsetApp {
   const jobs = jobsService({ db, jobs: jobsRepo(db), templates, audit });
   const reviews = reviewsService({ db, templates, templatesRepo: templatesRepo(db), users: userRows, naming, audit, mailer, publicUrl: deps.publicUrl ?? 'http://localhost:3000' });
   const settings = settingsRepo(db);
+  const programs = partProgramsService({ db, jobs, audit });
 
   const app = express() as GridsetApp;
   app.disable('x-powered-by');
@@ -147,9 +150,10 @@ export function createApp(deps: AppDeps): GridsetApp {
     ...namingRoutes(naming),
     ...reviewRoutes(reviews),
     ...auditRoutes(audit),
-    ...jobRoutes(jobs, loadListService({ db, jobs, audit })),
+    ...jobRoutes(jobs, loadListService({ db, jobs, audit }), programs),
     ...manifestRoutes({ manifest: manifestService({ db, catalog: catalogRepo(db), naming, audit }), templates, dataDir: deps.dataDir, uploadLimitBytes: deps.uploadLimitBytes ?? 20 * 1024 * 1024 }),
     ...dxfRoutes({ dataDir: deps.dataDir, uploadLimitBytes: deps.uploadLimitBytes ?? 20 * 1024 * 1024, catalog, jobs, naming }),
+    ...partProgramRoutes({ dataDir: deps.dataDir, uploadLimitBytes: deps.uploadLimitBytes ?? 20 * 1024 * 1024, programs }),
   ];
   mount(api, routes);
   api.use(apiNotFound);

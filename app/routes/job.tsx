@@ -24,6 +24,7 @@ import { JobProblems } from '../features/jobs/components/job-problems';
 import { LoadListPanel } from '../features/jobs/components/load-list-panel';
 import { PairingTable } from '../features/jobs/components/pairing-table';
 import { PartOutlineUpload } from '../features/jobs/components/part-outline-upload';
+import { PartProgramPanel } from '../features/jobs/components/part-program-panel';
 import { useTemplates, versionFileUrl, versionQuery } from '../features/templates/api';
 import { BarTable, barCellId, firstBarRows, tableIdRows, withPastedRows, type BarRow } from '../features/stock-check/components/bar-table';
 import { BarsPaste } from '../features/stock-check/components/bars-paste';
@@ -81,6 +82,7 @@ export function JobRoute() {
 
       {canEdit && editing ? <EditJob job={j} onDone={() => setEditing(false)} /> : null}
       {canEdit ? <PartOutlineUpload job={j} /> : null}
+      <PartProgramPanel job={j} canEdit={canEdit} />
 
       {v ? <StockCheckSection job={j} version={v} /> : <p className="text-slate-700">Loading the template version…</p>}
       <LoadListPanel job={j} canEdit={may(me.data?.role, 'editLoadLists')} />

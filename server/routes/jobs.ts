@@ -5,13 +5,14 @@ import { currentUser } from '../middleware/auth';
 import type { JobsService } from '../services/jobs';
 import type { LoadListService } from '../services/load-list';
 import { LoadListInputSchema } from '../../shared/schemas/load-list';
+import type { PartProgramsService } from '../services/part-programs';
 import { jobDrawingSvg, jobPackage, setupSheetHtml } from '../services/job-package';
 import { parseOr400 } from './parse';
 import type { RouteDef } from './route-table';
 
 const safe = (s: string) => s.replace(/[^A-Za-z0-9._-]+/g, '-').replace(/^-|-$/g, '') || 'job';
 
-export function jobRoutes(jobs: JobsService, loadLists: LoadListService): RouteDef[] {
+export function jobRoutes(jobs: JobsService, loadLists: LoadListService, programs: PartProgramsService): RouteDef[] {
   const id = (p: unknown) => parseOr400(IdParamSchema, p, 'address').id;
   return [
     { method: 'get', path: '/jobs', access: 'signed-in', handler: async (_req, res) => {
@@ -51,7 +52,7 @@ export function jobRoutes(jobs: JobsService, loadLists: LoadListService): RouteD
     } },
     { method: 'get', path: '/jobs/:id/package.zip', access: 'signed-in', handler: async (req, res) => {
       const job = await jobs.detail(id(req.params));
-      const zip = await jobPackage(job, await jobs.version(job.id));
+      const zip = await jobPackage(job, await jobs.version(job.id), await programs.packageFiles(job.id));
       res.type('application/zip').attachment(`${safe(job.name)}-${safe(job.partNumber)}-package.zip`).send(zip);
     } },
   ];

@@ -147,7 +147,7 @@ ${clamps.length ? clamps.map((p) => `<p><span class="box"></span>${esc(p.id)} ($
  * The job package: everything the programmer and the operator need in one download, with a
  * manifest holding the pinned version's content hash and the SHA-256 of every file.
  */
-export async function jobPackage(job: JobDetail, v: TemplateVersion): Promise<Buffer> {
+export async function jobPackage(job: JobDetail, v: TemplateVersion, programFiles: [string, string][] = []): Promise<Buffer> {
   const drawing = jobDrawing(job, v);
   const used = usedVersion(job, v);
   // A shift family needs no machine position; one that turns when any station the job uses is turned.
@@ -161,6 +161,7 @@ export async function jobPackage(job: JobDetail, v: TemplateVersion): Promise<Bu
     ['setup-sheet.html', setupSheetHtml(job, v)],
   ];
   if (job.stockChecks.length) files.push(['stock-check.json', JSON.stringify(job.stockChecks[0], null, 2)]);
+  files.push(...programFiles);
   const zip = new JSZip();
   const listed = files.map(([name, body]) => {
     zip.file(name, body);

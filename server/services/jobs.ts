@@ -15,9 +15,13 @@ import type { JobRow, JobsRepo } from '../db/jobs-repo';
 import type { AuditRepo } from '../db/audit-repo';
 import { badRequest, notFound } from '../middleware/errors';
 import type { TemplatesService } from './templates';
+import { partProgramsRepo } from '../db/part-programs-repo';
+import type { PartProgramInfo } from '../../shared/schemas/part-program';
+import { minimumSafeZ } from '../../shared/gcode/safe-z';
 
 export function jobsService(deps: { db: Db; jobs: JobsRepo; templates: TemplatesService; audit: AuditRepo }) {
   const { db, jobs, templates, audit } = deps;
+  const programs = partProgramsRepo(db);
 
   async function releasedVersion(templateId: number, number: number): Promise<TemplateVersion> {
     const v = await templates.version(templateId, number);
@@ -54,6 +58,14 @@ export function jobsService(deps: { db: Db; jobs: JobsRepo; templates: Templates
     return r;
   }
 
+  /** The lowest safe Z for this job's whole-table program (template unit). */
+  const safeZFloor = (r: JobRow, v: TemplateVersion) => minimumSafeZ({ unit: v.unit, stations: v.stations, components: v.components, stockThickness: fields(r).stock.thickness, clearance: r.clearance });
+
+  async function partProgram(r: JobRow, v: TemplateVersion): Promise<PartProgramInfo | null> {
+    const p = await programs.head(r.id);
+    return p ? { ...JSON.parse(p.summary), sha256: p.sha256, updatedAt: String(p.updated_at), minimumSafeZ: safeZFloor(r, v) } : null;
+  }
+
   async function detail(id: number): Promise<JobDetail & { version: number }> {
     const r = await requireJob(id);
     const v = await templates.version(r.template_id, r.number);
@@ -81,6 +93,7 @@ export function jobsService(deps: { db: Db; jobs: JobsRepo; templates: Templates
       partOutline: outline,
       partFile: r.part_file ? JSON.parse(r.part_file) : null,
       stationList: v.stations, pairings: v.pairings, stockChecks, problems, railsUsed: usedRails.map((x) => x.jawPlacement),
+      partProgram: await partProgram(r, v),
     };
   }
 
@@ -160,6 +173,7 @@ export function jobsService(deps: { db: Db; jobs: JobsRepo; templates: Templates
       return { ...first.result, jawPlacement: first.jawPlacement, nominalOpening: first.nominalOpening, unit: v.unit, appliesTo: first.appliesTo, rails: results, railsNotChecked };
     },
     requireJob,
+    safeZFloor,
   };
 }
 export type JobsService = ReturnType<typeof jobsService>;

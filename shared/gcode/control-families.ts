@@ -97,6 +97,17 @@ export const FAMILIES: Record<ControlFamily, FamilyRules> = {
   },
 };
 
+/** What each family is called on a screen: the words a programmer looks for in the control's manual. */
+export const FAMILY_NAMES: Record<ControlFamily, string> = {
+  'ngc-g10': 'ngc-g10 — G10 L2 P1–P9 with R (RS274/NGC, LinuxCNC)',
+  'ngc-g52': 'ngc-g52 — G52 shift per station (RS274/NGC, LinuxCNC)',
+  'ext-l20': 'ext-l20 — G10 L20 / G54.1 P extended offsets',
+  'shift-rotate': 'shift-rotate — G52 shift with G68 rotation',
+};
+
+/** Whether a family (by name, from a query or a select) sets work offsets and so needs the shared offset's machine position. */
+export const setsOffsets = (family: string) => (family in FAMILIES ? FAMILIES[family as ControlFamily].setsOffsets : false);
+
 /** The old names kept for links and scripts written before the families had names. */
 export function familyFromAlias(q: { family?: string; dialect?: string; mode?: string }): string | undefined {
   const named = q.family ?? q.dialect;

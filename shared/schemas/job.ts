@@ -4,6 +4,7 @@ import { OutlineSchema } from './geometry';
 import { PairingSchema, StationSchema } from './template';
 import { MeasuredBarSchema, StockCheckRequestSchema, StockCheckResponseSchema } from './stock-check';
 import { VersionStateSchema } from './template-api';
+import { PartProgramInfoSchema } from './part-program';
 
 const text = (label: string, max: number) => plainText(label, max).trim().min(1, `${label} is required.`);
 
@@ -98,6 +99,8 @@ export const JobDetailSchema = JobSummarySchema.extend({
   problems: z.array(JobProblemSchema),
   /** Jaw placements holding at least one used station. */
   railsUsed: z.array(z.string()),
+  /** The single-part program, when one was uploaded. */
+  partProgram: PartProgramInfoSchema.nullable().default(null),
 });
 export type JobDetail = z.infer<typeof JobDetailSchema>;
 

@@ -7,6 +7,7 @@ const BENCHES: Record<string, () => Promise<{ run: () => Promise<void> }>> = {
   dxf: () => import('./dxf.bench'),
   manifest: () => import('./manifest.bench'),
   'job-package': () => import('./job-package.bench'),
+  program: () => import('./program.bench'),
 };
 
 const wanted = process.argv.slice(2);

@@ -83,6 +83,9 @@ const EXPECTED: Record<string, typeof PUBLIC | readonly Role[]> = {
   'POST /manifest/commit': EDITORS,
   'POST /components/:id/outline': EDITORS,
   'POST /jobs/:id/outline': EDITORS,
+  'POST /jobs/:id/part-program': EDITORS,
+  'GET /jobs/:id/program.nc': SIGNED_IN,
+  'GET /jobs/:id/part-program.nc': SIGNED_IN,
 };
 
 let t: TestApp;

@@ -101,6 +101,9 @@ describe('jobs', () => {
     expect(manifest.template.contentHash).toBe(template.contentHash);
     const names = manifest.files.map((f: { name: string }) => f.name);
     expect(names).toEqual(expect.arrayContaining(['stations.csv', 'stations.xlsx', 'job-drawing.dxf', 'job-drawing.svg', 'offsets-shift-rotate.nc', 'setup-sheet.html', 'stock-check.json']));
+    // The demo layout has a short rail turned 90°, which G52 cannot turn: the shift-rotate family is packed.
+    expect(manifest.offsetsFamily).toBe('shift-rotate');
+    expect(await zip.file('offsets-shift-rotate.nc')!.async('string')).toContain('G68 X0 Y0 R90.000');
     for (const f of manifest.files) {
       const bytes = await zip.file(f.name)!.async('nodebuffer');
       expect(createHash('sha256').update(bytes).digest('hex'), f.name).toBe(f.sha256);

@@ -11,6 +11,7 @@ export const jobKeys = {
   all: ['jobs'] as const,
   list: () => [...jobKeys.all, 'list'] as const,
   detail: (id: number) => [...jobKeys.all, id] as const,
+  partProgram: (id: number) => [...jobKeys.all, id, 'part-program'] as const,
 };
 
 export const jobsQuery = () => queryOptions({ queryKey: jobKeys.list(), queryFn: () => api.get('/api/jobs', JobListSchema) });
@@ -111,4 +112,47 @@ export function useSaveLoadList(id: number) {
     mutationFn: (input: LoadListInput) => api.put(`/api/jobs/${id}/load-list`, input, LoadListSchema),
     onSuccess: (list) => qc.setQueryData(loadListQuery(id).queryKey, list),
   });
+}
+
+/** The single-part program (G-code text); the server checks it against the supported subset and answers the job. */
+export function useUploadPartProgram(id: number) {
+  const qc = useQueryClient();
+  const [progress, setProgress] = useState<number | null>(null);
+  const mutation = useMutation({
+    mutationFn: (file: File) => {
+      const form = new FormData();
+      form.append('file', file, file.name);
+      setProgress(0);
+      return uploadWithProgress(`/api/jobs/${id}/part-program`, form, setProgress, { schema: JobDetailSchema });
+    },
+    retry: false,
+    onSuccess: (job) => {
+      qc.setQueryData(jobKeys.detail(id), job);
+      void qc.invalidateQueries({ queryKey: jobKeys.partProgram(id) });
+    },
+    onSettled: () => setProgress(null),
+  });
+  return { ...mutation, progress };
+}
+
+/** The stored part program's text, for the preview (read in the browser with the same reader the server uses). */
+export const partProgramTextQuery = (id: number, sha256: string | null) => queryOptions({
+  queryKey: [...jobKeys.partProgram(id), sha256] as const,
+  enabled: sha256 !== null,
+  staleTime: Infinity,
+  queryFn: async () => {
+    const res = await fetch(`/api/jobs/${id}/part-program.nc`, { credentials: 'same-origin' });
+    if (!res.ok) throw new Error(`The part program could not be loaded (${res.status}).`);
+    return res.text();
+  },
+});
+
+export interface TableProgramOptions { family: string; order: 'station' | 'tool'; skip: number[]; safeZ: string; base?: string }
+
+export function tableProgramUrl(id: number, o: TableProgramOptions): string {
+  const q = new URLSearchParams({ family: o.family, order: o.order });
+  if (o.skip.length) q.set('skip', o.skip.join(','));
+  if (o.safeZ.trim() !== '') q.set('safeZ', o.safeZ.trim());
+  if (o.base && o.base.trim() !== '') q.set('base', o.base.replace(/\s+/g, ''));
+  return `/api/jobs/${id}/program.nc?${q.toString()}`;
 }

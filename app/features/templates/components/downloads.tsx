@@ -1,7 +1,7 @@
 import { useState } from 'react';
 import { Download } from 'lucide-react';
 import type { TemplateVersion } from '../../../../shared/schemas/template-api';
-import { CONTROL_FAMILIES, FAMILIES, type ControlFamily } from '../../../../shared/gcode/control-families';
+import { CONTROL_FAMILIES, FAMILIES, FAMILY_NAMES, type ControlFamily } from '../../../../shared/gcode/control-families';
 import { inputClass } from '../../../components/ui/field';
 import { Button } from '../../../components/ui/button';
 import { ErrorText } from '../../../components/ui/notice';
@@ -10,13 +10,6 @@ import { versionFileUrl } from '../api';
 
 const linkClass = 'inline-flex min-h-10 items-center gap-2 rounded border border-slate-400 bg-white px-3 font-semibold text-slate-900 hover:bg-slate-100';
 
-/** What each family is called on the screen: the words a programmer looks for in the control's manual. */
-const FAMILY_LABELS: Record<ControlFamily, string> = {
-  'ngc-g10': 'ngc-g10 — G10 L2 P1–P9 with R (RS274/NGC, LinuxCNC)',
-  'ngc-g52': 'ngc-g52 — G52 shift per station (RS274/NGC, LinuxCNC)',
-  'ext-l20': 'ext-l20 — G10 L20 / G54.1 P extended offsets',
-  'shift-rotate': 'shift-rotate — G52 shift with G68 rotation',
-};
 
 /** What each family leaves set on the control, in a sentence. */
 const FAMILY_NOTES: Record<ControlFamily, string> = {
@@ -69,7 +62,7 @@ export function Downloads({ templateId, version, dirty }: { templateId: number; 
         <label className="flex flex-col text-sm font-semibold text-slate-700">Control family
           <select className={`${inputClass} w-80 max-w-full`} value={family} onChange={(e) => { setFamily(e.target.value as ControlFamily | ''); setError(null); }}>
             <option value="">Choose the family your control reads…</option>
-            {CONTROL_FAMILIES.map((f) => <option key={f} value={f}>{FAMILY_LABELS[f]}</option>)}
+            {CONTROL_FAMILIES.map((f) => <option key={f} value={f}>{FAMILY_NAMES[f]}</option>)}
           </select>
         </label>
         {rules?.setsOffsets ? (
