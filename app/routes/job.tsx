@@ -42,7 +42,7 @@ export function JobRoute() {
   const job = useJob(id);
   const j = job.data;
   const version = useQuery({ ...versionQuery(j?.templateId ?? 0, j?.version ?? 0), enabled: !!j });
-  const canEdit = may(me.data?.role, 'editTemplates');
+  const canEdit = may(me.data?.role, 'editJobs');
   const [editing, setEditing] = useState(false);
 
   if (job.error) return <Page title="Job"><ErrorText error={job.error} /><p><Link className="text-accent-700 underline" to="/jobs">All jobs</Link></p></Page>;
