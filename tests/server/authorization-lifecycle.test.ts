@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { CAN, ROLES, type Action, type Role } from '../../shared/schemas/auth';
-import { makeTestApp, type Agent, type TestApp } from './test-app';
+import { agentsForEveryRole, makeTestApp, type Agent, type TestApp } from './test-app';
 
 /**
  * The lifecycle routes called on real versions, each prepared in the state its step starts from
@@ -20,11 +20,10 @@ const STEPS: Record<Step, { access: Action; from: State; to: string; body?: obje
 };
 
 let t: TestApp;
-const agents = new Map<Role | 'none', Agent>();
+let agents: Map<Role | 'none', Agent>;
 beforeAll(async () => {
   t = await makeTestApp();
-  agents.set('none', await t.agent());
-  for (const role of ROLES) agents.set(role, await t.agent(role));
+  agents = await agentsForEveryRole(t);
 });
 afterAll(async () => { await t.close(); });
 const as = (who: Role | 'none') => agents.get(who)!;

@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { CAN, ROLES, type Action, type Role } from '../../shared/schemas/auth';
-import { makeTestApp, type Agent, type TestApp } from './test-app';
+import { agentsForEveryRole, makeTestApp, type Agent, type TestApp } from './test-app';
 
 /**
  * Who may call what: one row per route. A row names the action of the roles table (`CAN` in
@@ -84,11 +84,10 @@ const EXPECTED: Record<string, typeof PUBLIC | typeof SIGNED_IN | Action> = {
 };
 
 let t: TestApp;
-const agents = new Map<Role | 'none', Agent>();
+let agents: Map<Role | 'none', Agent>;
 beforeAll(async () => {
   t = await makeTestApp();
-  agents.set('none', await t.agent());
-  for (const role of ROLES) agents.set(role, await t.agent(role));
+  agents = await agentsForEveryRole(t);
 });
 afterAll(async () => { await t.close(); });
 

@@ -5,7 +5,7 @@ import request from 'supertest';
 import { createApp } from '../../server/app';
 import { openDb, migrate, type Db } from '../../server/db/knex';
 import { seedDemoDataIfEmpty, DEMO_PASSWORD } from '../../server/db/seed-demo';
-import type { Role } from '../../shared/schemas/auth';
+import { ROLES, type Role } from '../../shared/schemas/auth';
 
 export interface TestApp {
   app: ReturnType<typeof createApp>;
@@ -66,4 +66,12 @@ export async function tableCounts(db: Db, tables: string[]): Promise<Record<stri
   const out: Record<string, number> = {};
   for (const t of tables) out[t] = Number(((await db(t).count({ n: '*' })) as [{ n: number }])[0].n);
   return out;
+}
+
+/** One agent with no session and one signed in per role, for tests that call a route as everyone. */
+export async function agentsForEveryRole(t: TestApp): Promise<Map<Role | 'none', Agent>> {
+  const agents = new Map<Role | 'none', Agent>();
+  agents.set('none', await t.agent());
+  for (const role of ROLES) agents.set(role, await t.agent(role));
+  return agents;
 }
