@@ -79,7 +79,7 @@ export function JobRoute() {
       {canEdit && editing ? <EditJob job={j} onDone={() => setEditing(false)} /> : null}
       {canEdit ? <PartOutlineUpload job={j} /> : null}
 
-      {v ? <StockCheckSection job={j} version={v} /> : <p className="text-slate-700">Loading the template version…</p>}
+      {v ? <StockCheckSection job={j} version={v} canRecord={may(me.data?.role, 'recordBars')} /> : <p className="text-slate-700">Loading the template version…</p>}
     </Page>
   );
 }
@@ -106,7 +106,7 @@ function EditJob({ job, onDone }: { job: JobDetail; onDone: () => void }) {
 }
 
 /** The pairing table, the bars the operator measured, and what the latest check of the chosen rail said. */
-function StockCheckSection({ job, version }: { job: JobDetail; version: TemplateVersion }) {
+function StockCheckSection({ job, version, canRecord }: { job: JobDetail; version: TemplateVersion; canRecord: boolean }) {
   const rails = useMemo(() => jobRails(job.pairings), [job.pairings]);
   const clamps = useMemo(() => new Map(rails.map((r) => [r.jawComponent, railClamp(version.components, r.jawComponent, job.unit)])), [rails, version.components, job.unit]);
   const [chosen, setChosen] = useState<string | null>(null);
@@ -139,7 +139,7 @@ function StockCheckSection({ job, version }: { job: JobDetail; version: Template
       {selected && clamp ? (
         <>
           <div className="grid grid-cols-1 items-start gap-6 xl:grid-cols-[minmax(0,31rem)_minmax(0,1fr)]">
-            <BarsEntry job={job} rail={selected} clamp={clamp} onChecked={() => setFocusCheck(latest?.id ?? -1)} />
+            {canRecord ? <BarsEntry job={job} rail={selected} clamp={clamp} onChecked={() => setFocusCheck(latest?.id ?? -1)} /> : <p className="text-slate-700">Operators, programmers and leads record measured bars; your role reads the checks.</p>}
             <section aria-label="Latest check" className="flex flex-col gap-4">
               {latest && run ? (
                 <LatestCheck ref={resultsHeading} job={job} rail={selected} check={latest} run={run} count={checks.length} />
