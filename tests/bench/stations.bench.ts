@@ -32,7 +32,7 @@ export async function run() {
 
   const { db, base, server, headers } = await realServer();
   const content = railBandsWithStations(4, 500);
-  const service = templatesService({ db, templates: templatesRepo(db), catalog: catalogRepo(db), naming: namingService(namingRepo(db)), audit: auditRepo(db) });
+  const service = templatesService({ db, templates: templatesRepo(db), catalog: catalogRepo(db), naming: namingService(namingRepo(db), auditRepo(db)), audit: auditRepo(db) });
   const lead = (await usersRepo(db).findWithHashByEmail('lead@gridset.test'))!;
   const { id } = await service.importFile(lead, { ...content, name: 'Bench 500' });
   const answer = await (await fetch(`${base}/api/templates/${id}/versions/1/stations`, { headers })).json();
