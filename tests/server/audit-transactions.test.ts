@@ -1,0 +1,76 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { Role } from '../../shared/schemas/auth';
+import { agentsForEveryRole, makeTestApp, type Agent, type TestApp } from './test-app';
+
+/**
+ * Every write keeps its audit line in the same transaction: after success both are there; when
+ * the audit insert fails, the write is gone too. The failure is forced by an SQLite trigger that
+ * aborts the audit insert for one action (SQLite documentation, "CREATE TRIGGER" and "The RAISE()
+ * function": RAISE(ABORT) undoes the statement and the error reaches the caller, whose
+ * transaction then rolls back).
+ */
+let t: TestApp;
+let agents: Map<Role | 'none', Agent>;
+beforeAll(async () => {
+  t = await makeTestApp();
+  agents = await agentsForEveryRole(t);
+});
+afterAll(async () => { await t.close(); });
+const as = (r: Role) => agents.get(r)!;
+
+interface Case {
+  action: string;
+  tables: string[];
+  /** Work that must not be audited (reading, preparing a draft), run once before both calls. */
+  prepare?: () => Promise<unknown>;
+  call: (prepared: unknown) => Promise<{ status: number }>;
+}
+
+const rail = { kind: 'center-rail', name: 'Rail', unit: 'in', dowels: [{ x: 0, y: 0 }, { x: 8, y: 0 }], stops: [], jawFaces: [] };
+const newDraft = async () => (await as('programmer').post('/api/templates/1/versions', { from: 1 }).expect(201)).body;
+
+const CASES: Case[] = [
+  { action: 'plate.create', tables: ['plates'], call: () => as('programmer').post('/api/plates', { code: 'AUDIT-PLATE', name: 'Audit plate', unit: 'in', pitch: 2, columns: 6, rows: 4, holeDiameter: 0.5, thread: '1/2-13', notes: '' }) },
+  { action: 'component.create', tables: ['components'], call: () => as('lead').post('/api/components', { ...rail, code: 'CR-9', layer: 'FX-CR-9' }) },
+  {
+    action: 'naming.save', tables: ['naming_conventions'],
+    prepare: async () => { const { version: _v, ...rules } = (await as('lead').get('/api/naming/convention').expect(200)).body; return rules; },
+    call: (rules) => as('lead').put('/api/naming/convention', rules as object),
+  },
+  { action: 'settings.save', tables: ['settings'], prepare: async () => (await as('lead').get('/api/settings').expect(200)).body, call: (s) => as('lead').put('/api/settings', s as object) },
+  { action: 'user.create', tables: ['users'], call: () => as('admin').post('/api/users', { email: 'audit.one@gridset.test', name: 'Audit One', role: 'operator', password: 'a long enough password' }) },
+  {
+    action: 'user.update', tables: ['users'],
+    prepare: async () => (await as('admin').get('/api/users').expect(200)).body.items.find((u: { role: string }) => u.role === 'reviewer').id,
+    call: (id) => as('admin').patch(`/api/users/${id}`, { name: 'Renamed Reviewer' }),
+  },
+  { action: 'user.invite', tables: ['users', 'user_tokens'], call: () => as('admin').post('/api/users/invite', { email: 'audit.two@gridset.test', name: 'Audit Two', role: 'programmer' }) },
+  { action: 'version.save', tables: ['template_versions', 'template_version_components'], prepare: newDraft, call: (v) => as('programmer').put(`/api/templates/1/versions/${(v as { version: number }).version}`, v as object) },
+  { action: 'version.submit', tables: ['template_versions', 'version_reviews'], prepare: newDraft, call: (v) => as('programmer').post(`/api/templates/1/versions/${(v as { version: number }).version}/submit`) },
+];
+
+const snapshot = async (tables: string[]) => JSON.stringify(await Promise.all(tables.map((name) => t.db(name).select().orderBy('rowid'))));
+const auditCount = async (action: string) => Number(((await t.db('audit').where({ action }).count({ n: '*' })) as [{ n: number }])[0].n);
+
+describe('every write and its audit line share one transaction', () => {
+  it.each(CASES)('$action', async (c) => {
+    const prepared = await c.prepare?.();
+    const before = await snapshot(c.tables);
+    const audits = await auditCount(c.action);
+
+    await t.db.raw(`CREATE TEMP TRIGGER refuse_audit AFTER INSERT ON audit WHEN NEW.action = '${c.action}' BEGIN SELECT RAISE(ABORT, 'audit refused for the test'); END`);
+    try {
+      const failed = await c.call(prepared);
+      expect(failed.status).toBeGreaterThanOrEqual(400);
+    } finally {
+      await t.db.raw('DROP TRIGGER refuse_audit');
+    }
+    expect(await snapshot(c.tables), 'the write is undone with its audit line').toBe(before);
+    expect(await auditCount(c.action)).toBe(audits);
+
+    const ok = await c.call(prepared);
+    expect(ok.status, JSON.stringify(ok)).toBeLessThan(300);
+    expect(await snapshot(c.tables)).not.toBe(before);
+    expect(await auditCount(c.action)).toBe(audits + 1);
+  });
+});
