@@ -1,6 +1,6 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import type { Role } from '../../shared/schemas/auth';
-import { agentsForEveryRole, makeTestApp, type Agent, type TestApp } from './test-app';
+import { appWithEveryRole, type Agent } from './test-app';
 
 /**
  * Every write keeps its audit line in the same transaction: after success both are there; when
@@ -9,14 +9,8 @@ import { agentsForEveryRole, makeTestApp, type Agent, type TestApp } from './tes
  * function": RAISE(ABORT) undoes the statement and the error reaches the caller, whose
  * transaction then rolls back).
  */
-let t: TestApp;
-let agents: Map<Role | 'none', Agent>;
-beforeAll(async () => {
-  t = await makeTestApp();
-  agents = await agentsForEveryRole(t);
-});
-afterAll(async () => { await t.close(); });
-const as = (r: Role) => agents.get(r)!;
+const ctx = appWithEveryRole();
+const as = (r: Role) => ctx.agents.get(r)!;
 
 interface Case {
   action: string;
@@ -49,8 +43,8 @@ const CASES: Case[] = [
   { action: 'version.submit', tables: ['template_versions', 'version_reviews'], prepare: newDraft, call: (v) => as('programmer').post(`/api/templates/1/versions/${(v as { version: number }).version}/submit`) },
 ];
 
-const snapshot = async (tables: string[]) => JSON.stringify(await Promise.all(tables.map((name) => t.db(name).select().orderBy('rowid'))));
-const auditCount = async (action: string) => Number(((await t.db('audit').where({ action }).count({ n: '*' })) as [{ n: number }])[0].n);
+const snapshot = async (tables: string[]) => JSON.stringify(await Promise.all(tables.map((name) => ctx.t.db(name).select().orderBy('rowid'))));
+const auditCount = async (action: string) => Number(((await ctx.t.db('audit').where({ action }).count({ n: '*' })) as [{ n: number }])[0].n);
 
 describe('every write and its audit line share one transaction', () => {
   it.each(CASES)('$action', async (c) => {
@@ -58,12 +52,12 @@ describe('every write and its audit line share one transaction', () => {
     const before = await snapshot(c.tables);
     const audits = await auditCount(c.action);
 
-    await t.db.raw(`CREATE TEMP TRIGGER refuse_audit AFTER INSERT ON audit WHEN NEW.action = '${c.action}' BEGIN SELECT RAISE(ABORT, 'audit refused for the test'); END`);
+    await ctx.t.db.raw(`CREATE TEMP TRIGGER refuse_audit AFTER INSERT ON audit WHEN NEW.action = '${c.action}' BEGIN SELECT RAISE(ABORT, 'audit refused for the test'); END`);
     try {
       const failed = await c.call(prepared);
       expect(failed.status).toBeGreaterThanOrEqual(400);
     } finally {
-      await t.db.raw('DROP TRIGGER refuse_audit');
+      await ctx.t.db.raw('DROP TRIGGER refuse_audit');
     }
     expect(await snapshot(c.tables), 'the write is undone with its audit line').toBe(before);
     expect(await auditCount(c.action)).toBe(audits);

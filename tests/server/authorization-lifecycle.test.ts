@@ -1,6 +1,6 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { CAN, ROLES, type Action, type Role } from '../../shared/schemas/auth';
-import { agentsForEveryRole, makeTestApp, type Agent, type TestApp } from './test-app';
+import { appWithEveryRole, type Agent } from './test-app';
 
 /**
  * The lifecycle routes called on real versions, each prepared in the state its step starts from
@@ -19,14 +19,8 @@ const STEPS: Record<Step, { access: Action; from: State; to: string; body?: obje
   retire: { access: 'releaseTemplates', from: 'released', to: 'retired' },
 };
 
-let t: TestApp;
-let agents: Map<Role | 'none', Agent>;
-beforeAll(async () => {
-  t = await makeTestApp();
-  agents = await agentsForEveryRole(t);
-});
-afterAll(async () => { await t.close(); });
-const as = (who: Role | 'none') => agents.get(who)!;
+const ctx = appWithEveryRole();
+const as = (who: Role | 'none') => ctx.agents.get(who)!;
 
 /** A new version of the demo template 1 (its v1 is released), written by `author`, brought to `state`. */
 async function versionIn(state: State, author: 'lead' | 'programmer'): Promise<number> {

@@ -1,6 +1,6 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { CAN, ROLES, type Action, type Role } from '../../shared/schemas/auth';
-import { agentsForEveryRole, makeTestApp, type Agent, type TestApp } from './test-app';
+import { appWithEveryRole, type Agent } from './test-app';
 
 /**
  * Who may call what: one row per route. A row names the action of the roles table (`CAN` in
@@ -83,13 +83,7 @@ const EXPECTED: Record<string, typeof PUBLIC | typeof SIGNED_IN | Action> = {
   'POST /jobs/:id/outline': 'editJobs',
 };
 
-let t: TestApp;
-let agents: Map<Role | 'none', Agent>;
-beforeAll(async () => {
-  t = await makeTestApp();
-  agents = await agentsForEveryRole(t);
-});
-afterAll(async () => { await t.close(); });
+const ctx = appWithEveryRole();
 
 // Ids that do not exist keep allowed writes from changing what later rows see.
 const concrete = (path: string) => path.replace(/:[a-zA-Z]+/g, '999999');
@@ -108,13 +102,13 @@ function call(agent: Agent, method: string, path: string) {
 
 describe('authorization table', () => {
   it('has a row for every route the app serves, and no row for a route it does not', () => {
-    const served = t.app.locals.routes.map((r) => `${r.method.toUpperCase()} ${r.path}`).sort();
+    const served = ctx.t.app.locals.routes.map((r) => `${r.method.toUpperCase()} ${r.path}`).sort();
     expect(served.filter((k) => !(k in EXPECTED))).toEqual([]);
     expect(Object.keys(EXPECTED).filter((k) => !served.includes(k))).toEqual([]);
   });
 
   it('each route declares the access its row names, by the entry of the roles table itself', () => {
-    const wrong = t.app.locals.routes.flatMap((r) => {
+    const wrong = ctx.t.app.locals.routes.flatMap((r) => {
       const row = EXPECTED[`${r.method.toUpperCase()} ${r.path}`];
       const declared = row === PUBLIC || row === SIGNED_IN ? row : CAN[row!];
       return r.access === declared ? [] : [`${r.method.toUpperCase()} ${r.path}: declares ${JSON.stringify(r.access)}, row says ${row}`];
@@ -124,14 +118,14 @@ describe('authorization table', () => {
 
   it('answers every route, for every role and for no session, as the table says', async () => {
     // Sign-out ends the session it is called with, so it runs last.
-    const routes = [...t.app.locals.routes].sort((a, b) => Number(a.path === '/auth/logout') - Number(b.path === '/auth/logout'));
+    const routes = [...ctx.t.app.locals.routes].sort((a, b) => Number(a.path === '/auth/logout') - Number(b.path === '/auth/logout'));
     const mismatches: string[] = [];
     for (const r of routes) {
       const key = `${r.method.toUpperCase()} ${r.path}`;
       const row = EXPECTED[key]!;
       const allowed: typeof PUBLIC | readonly Role[] = row === PUBLIC ? PUBLIC : row === SIGNED_IN ? ROLES : CAN[row];
       for (const who of ['none', ...ROLES] as const) {
-        const res = await call(agents.get(who)!, r.method, r.path);
+        const res = await call(ctx.agents.get(who)!, r.method, r.path);
         const mayCall = allowed === PUBLIC || (who !== 'none' && allowed.includes(who));
         const expected = mayCall ? 'allowed' : who === 'none' ? 401 : 403;
         const got = res.status === 401 || res.status === 403 ? res.status : 'allowed';

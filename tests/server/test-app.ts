@@ -1,3 +1,4 @@
+import { afterAll, beforeAll } from 'vitest';
 import { mkdtempSync, rmSync } from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
@@ -68,8 +69,19 @@ export async function tableCounts(db: Db, tables: string[]): Promise<Record<stri
   return out;
 }
 
+/** A test app for the file, with one agent with no session and one signed in per role. */
+export function appWithEveryRole(): { t: TestApp; agents: Map<Role | 'none', Agent> } {
+  const ctx = {} as { t: TestApp; agents: Map<Role | 'none', Agent> };
+  beforeAll(async () => {
+    ctx.t = await makeTestApp();
+    ctx.agents = await agentsForEveryRole(ctx.t);
+  });
+  afterAll(async () => { await ctx.t.close(); });
+  return ctx;
+}
+
 /** One agent with no session and one signed in per role, for tests that call a route as everyone. */
-export async function agentsForEveryRole(t: TestApp): Promise<Map<Role | 'none', Agent>> {
+async function agentsForEveryRole(t: TestApp): Promise<Map<Role | 'none', Agent>> {
   const agents = new Map<Role | 'none', Agent>();
   agents.set('none', await t.agent());
   for (const role of ROLES) agents.set(role, await t.agent(role));
