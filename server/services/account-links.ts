@@ -84,7 +84,7 @@ export function accountLinksService(deps: Deps) {
   async function sendReset(email: string): Promise<void> {
     const user = await users.findWithHashByEmail(email);
     if (!user || !user.active) return;
-    const { id, token } = await issue(user.id, 'reset');
+    const { id, token } = await audit.audited((trx) => issue(user.id, 'reset', trx), () => ({ userId: null, action: 'user.reset-requested', objectType: 'user', objectId: user.id, summary: `A password reset link was mailed to ${user.email}` }));
     try {
       await mailer.send(resetMail(user.email, linkFor(token)));
     } catch (err) {

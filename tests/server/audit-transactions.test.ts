@@ -23,6 +23,13 @@ interface Case {
 const rail = { kind: 'center-rail', name: 'Rail', unit: 'in', dowels: [{ x: 0, y: 0 }, { x: 8, y: 0 }], stops: [], jawFaces: [] };
 const newDraft = async () => (await as('programmer').post('/api/templates/1/versions', { from: 1 }).expect(201)).body;
 
+const job = {
+  name: 'Audit run', partNumber: 'AU-1', partRevision: 'A', templateId: 1, version: 1,
+  stock: { width: 1, thickness: 0.5, length: 2.75, material: '6061-T6' },
+  carrier: 0.25, clearance: 0.03, minBite: 0.06, cycleMinutes: 13, loadMinutes: 10,
+};
+const newJob = async () => (await as('programmer').post('/api/jobs', job).expect(201)).body.id as number;
+
 const CASES: Case[] = [
   { action: 'plate.create', tables: ['plates'], call: () => as('programmer').post('/api/plates', { code: 'AUDIT-PLATE', name: 'Audit plate', unit: 'in', pitch: 2, columns: 6, rows: 4, holeDiameter: 0.5, thread: '1/2-13', notes: '' }) },
   { action: 'component.create', tables: ['components'], call: () => as('lead').post('/api/components', { ...rail, code: 'CR-9', layer: 'FX-CR-9' }) },
@@ -41,6 +48,12 @@ const CASES: Case[] = [
   { action: 'user.invite', tables: ['users', 'user_tokens'], call: () => as('admin').post('/api/users/invite', { email: 'audit.two@gridset.test', name: 'Audit Two', role: 'programmer' }) },
   { action: 'version.save', tables: ['template_versions', 'template_version_components'], prepare: newDraft, call: (v) => as('programmer').put(`/api/templates/1/versions/${(v as { version: number }).version}`, v as object) },
   { action: 'version.submit', tables: ['template_versions', 'version_reviews'], prepare: newDraft, call: (v) => as('programmer').post(`/api/templates/1/versions/${(v as { version: number }).version}/submit`) },
+  { action: 'job.create', tables: ['jobs'], call: () => as('programmer').post('/api/jobs', job) },
+  { action: 'job.update', tables: ['jobs'], prepare: newJob, call: (id) => as('lead').put(`/api/jobs/${id}`, { ...job, name: 'Audit run, renamed' }) },
+  {
+    action: 'job.stock-check', tables: ['job_stock_checks'], prepare: newJob,
+    call: (id) => as('operator').post(`/api/jobs/${id}/stock-check`, { jawPlacement: 'A-JR', bars: [{ id: 'B1', width: 1, thickness: 0.5, cornerRadius: 0.02 }] }),
+  },
 ];
 
 const snapshot = async (tables: string[]) => JSON.stringify(await Promise.all(tables.map((name) => ctx.t.db(name).select().orderBy('rowid'))));
