@@ -76,7 +76,7 @@ export function createApp(deps: AppDeps): GridsetApp {
   const catalog = catalogService(catalogRepo(db), naming, audit);
   const templates = templatesService({ db, templates: templatesRepo(db), catalog: catalogRepo(db), naming, audit });
   const jobs = jobsService({ db, jobs: jobsRepo(db), templates, audit });
-  const reviews = reviewsService({ db, templates, templatesRepo: templatesRepo(db), users: userRows, naming, audit, mailer, publicUrl: deps.publicUrl ?? 'http://localhost:3000' });
+  const reviews = reviewsService({ db, templates, users: userRows, naming, mailer, publicUrl: deps.publicUrl ?? 'http://localhost:3000' });
   const settings = settingsRepo(db);
 
   const app = express() as GridsetApp;

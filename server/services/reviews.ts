@@ -5,9 +5,7 @@ import type { ReviewAction } from '../../shared/review/lifecycle';
 import { compareVersions } from '../../shared/compare/compare-versions';
 import { versionNamingProblems } from '../../shared/naming/version-names';
 import type { Db } from '../db/knex';
-import type { TemplatesRepo } from '../db/templates-repo';
 import type { UsersRepo } from '../db/users-repo';
-import type { AuditRepo } from '../db/audit-repo';
 import { HttpError } from '../middleware/errors';
 import type { NamingService } from './naming';
 import type { TemplatesService } from './templates';
@@ -18,16 +16,14 @@ export interface MailSender { send(mail: Mail): Promise<void> }
 interface Deps {
   db: Db;
   templates: TemplatesService;
-  templatesRepo: TemplatesRepo;
   users: UsersRepo;
   naming: NamingService;
-  audit: AuditRepo;
   mailer?: MailSender;
   publicUrl: string;
 }
 
 export function reviewsService(deps: Deps) {
-  const { db, templates, templatesRepo, users, naming, audit, mailer, publicUrl } = deps;
+  const { db, templates, users, naming, mailer, publicUrl } = deps;
 
   async function step(user: User, templateId: number, number: number, action: ReviewAction, comment = '') {
     const convention = await naming.current();
