@@ -124,12 +124,14 @@ export function accountLinksService(deps: Deps) {
         await mailer.send(inviteMail(actor, created.user, linkFor(created.token)));
       } catch (err) {
         // Undo, so the admin can simply try again once mail works.
-        if (existing) {
-          await tokens.remove(created.tokenId);
-          await users.update(existing.id, { name: existing.name, role: existing.role });
-        } else {
-          await users.remove(created.user.id);
-        }
+        await audit.audited(async (trx) => {
+          if (existing) {
+            await tokens.remove(created.tokenId, trx);
+            await users.update(existing.id, { name: existing.name, role: existing.role }, trx);
+          } else {
+            await users.remove(created.user.id, trx);
+          }
+        }, () => ({ userId: actor.id, action: 'user.invite-withdrawn', objectType: 'user', objectId: created.user.id, summary: `The invitation to ${created.user.email} could not be mailed and was withdrawn` }));
         throw new HttpError(502, 'mail-failed', `The invitation could not be mailed (${err instanceof Error ? err.message : String(err)}); nothing was saved. Check the mail settings (SMTP_URL) and invite again.`);
       }
       if (existing) await tokens.revokeUnused(existing.id, now, db, created.tokenId);
