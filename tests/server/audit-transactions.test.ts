@@ -30,6 +30,13 @@ const job = {
 };
 const newJob = async () => (await as('programmer').post('/api/jobs', job).expect(201)).body.id as number;
 
+/** Invites someone and answers the token from the mailed link (the outbox keeps the mail). */
+async function invitedToken(email: string): Promise<string> {
+  await as('admin').post('/api/users/invite', { email, name: 'Audit Three', role: 'operator' }).expect(201);
+  const mail = (await as('admin').get(`/api/outbox?q=${encodeURIComponent(email)}`).expect(200)).body.items.find((m: { to: string }) => m.to === email);
+  return /\/set-password\?token=([A-Za-z0-9_-]+)/.exec(mail.text)![1]!;
+}
+
 const CASES: Case[] = [
   { action: 'plate.create', tables: ['plates'], call: () => as('programmer').post('/api/plates', { code: 'AUDIT-PLATE', name: 'Audit plate', unit: 'in', pitch: 2, columns: 6, rows: 4, holeDiameter: 0.5, thread: '1/2-13', notes: '' }) },
   { action: 'component.create', tables: ['components'], call: () => as('lead').post('/api/components', { ...rail, code: 'CR-9', layer: 'FX-CR-9' }) },
@@ -38,7 +45,7 @@ const CASES: Case[] = [
     prepare: async () => { const { version: _v, ...rules } = (await as('lead').get('/api/naming/convention').expect(200)).body; return rules; },
     call: (rules) => as('lead').put('/api/naming/convention', rules as object),
   },
-  { action: 'settings.save', tables: ['settings'], prepare: async () => (await as('lead').get('/api/settings').expect(200)).body, call: (s) => as('lead').put('/api/settings', s as object) },
+  { action: 'settings.save', tables: ['settings'], prepare: async () => { const now = (await as('lead').get('/api/settings').expect(200)).body; return { ...now, shopName: `${now.shopName} (audited)` }; }, call: (s) => as('lead').put('/api/settings', s as object) },
   { action: 'user.create', tables: ['users'], call: () => as('admin').post('/api/users', { email: 'audit.one@gridset.test', name: 'Audit One', role: 'operator', password: 'a long enough password' }) },
   {
     action: 'user.update', tables: ['users'],
@@ -48,6 +55,10 @@ const CASES: Case[] = [
   { action: 'user.invite', tables: ['users', 'user_tokens'], call: () => as('admin').post('/api/users/invite', { email: 'audit.two@gridset.test', name: 'Audit Two', role: 'programmer' }) },
   { action: 'version.save', tables: ['template_versions', 'template_version_components'], prepare: newDraft, call: (v) => as('programmer').put(`/api/templates/1/versions/${(v as { version: number }).version}`, v as object) },
   { action: 'version.submit', tables: ['template_versions', 'version_reviews'], prepare: newDraft, call: (v) => as('programmer').post(`/api/templates/1/versions/${(v as { version: number }).version}/submit`) },
+  {
+    action: 'user.invite-accepted', tables: ['users', 'user_tokens'], prepare: () => invitedToken('audit.three@gridset.test'),
+    call: (token) => as('admin').http.post('/api/auth/set-password').set('X-CSRF-Token', as('admin').token).send({ token, password: 'a long enough password' }),
+  },
   { action: 'job.create', tables: ['jobs'], call: () => as('programmer').post('/api/jobs', job) },
   { action: 'job.update', tables: ['jobs'], prepare: newJob, call: (id) => as('lead').put(`/api/jobs/${id}`, { ...job, name: 'Audit run, renamed' }) },
   {
