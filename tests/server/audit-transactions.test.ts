@@ -37,8 +37,13 @@ async function invitedToken(email: string): Promise<string> {
   return /\/set-password\?token=([A-Za-z0-9_-]+)/.exec(mail.text)![1]!;
 }
 
+const plate = (code: string) => ({ code, name: 'Audit plate', unit: 'in', pitch: 2, columns: 6, rows: 4, holeDiameter: 0.5, thread: '1/2-13', notes: '' });
+const newPlate = async (code: string) => (await as('programmer').post('/api/plates', plate(code)).expect(201)).body.id as number;
+
 const CASES: Case[] = [
-  { action: 'plate.create', tables: ['plates'], call: () => as('programmer').post('/api/plates', { code: 'AUDIT-PLATE', name: 'Audit plate', unit: 'in', pitch: 2, columns: 6, rows: 4, holeDiameter: 0.5, thread: '1/2-13', notes: '' }) },
+  { action: 'plate.create', tables: ['plates'], call: () => as('programmer').post('/api/plates', plate('AUDIT-PLATE')) },
+  { action: 'plate.update', tables: ['plates'], prepare: () => newPlate('AUDIT-PLATE-2'), call: (id) => as('programmer').put(`/api/plates/${id}`, { ...plate('AUDIT-PLATE-2'), notes: 'Re-measured.' }) },
+  { action: 'plate.delete', tables: ['plates'], prepare: () => newPlate('AUDIT-PLATE-3'), call: (id) => as('lead').delete(`/api/plates/${id}`) },
   { action: 'component.create', tables: ['components'], call: () => as('lead').post('/api/components', { ...rail, code: 'CR-9', layer: 'FX-CR-9' }) },
   {
     action: 'naming.save', tables: ['naming_conventions'],
