@@ -78,13 +78,13 @@ export function createApp(deps: AppDeps): GridsetApp {
   const naming = namingService(namingRepo(db), audit);
   const userRows = usersRepo(db);
   const userTokens = userTokensRepo(db);
-  const users = usersService(userRows, userTokens, audit);
+  const users = usersService(userRows, audit, userTokens);
   const mailer = deps.mailer ?? createMailer({ db, dataDir: deps.dataDir });
-  const accountLinks = accountLinksService({ db, users: userRows, tokens: userTokens, mailer, publicUrl: deps.publicUrl ?? 'http://localhost:3000', log: deps.log ?? console.error });
+  const accountLinks = accountLinksService({ db, users: userRows, tokens: userTokens, audit, mailer, publicUrl: deps.publicUrl ?? 'http://localhost:3000', log: deps.log ?? console.error });
   const catalog = catalogService(catalogRepo(db), naming, audit);
   const templates = templatesService({ db, templates: templatesRepo(db), catalog: catalogRepo(db), naming, audit });
   const jobs = jobsService({ db, jobs: jobsRepo(db), templates, audit });
-  const reviews = reviewsService({ db, templates, templatesRepo: templatesRepo(db), users: userRows, naming, audit, mailer, publicUrl: deps.publicUrl ?? 'http://localhost:3000' });
+  const reviews = reviewsService({ db, templates, users: userRows, naming, mailer, publicUrl: deps.publicUrl ?? 'http://localhost:3000' });
   const settings = settingsRepo(db);
   const programs = partProgramsService({ db, jobs, audit });
 

@@ -45,7 +45,7 @@ export function JobRoute() {
   const job = useJob(id);
   const j = job.data;
   const version = useQuery({ ...versionQuery(j?.templateId ?? 0, j?.version ?? 0), enabled: !!j });
-  const canEdit = may(me.data?.role, 'editTemplates');
+  const canEdit = may(me.data?.role, 'editJobs');
   const [editing, setEditing] = useState(false);
 
   if (job.error) return <Page title="Job"><ErrorText error={job.error} /><p><Link className="text-accent-700 underline" to="/jobs">All jobs</Link></p></Page>;
@@ -84,7 +84,7 @@ export function JobRoute() {
       {canEdit ? <PartOutlineUpload job={j} /> : null}
       <PartProgramPanel job={j} canEdit={canEdit} />
 
-      {v ? <StockCheckSection job={j} version={v} /> : <p className="text-slate-700">Loading the template version…</p>}
+      {v ? <StockCheckSection job={j} version={v} canRecord={may(me.data?.role, 'recordBars')} /> : <p className="text-slate-700">Loading the template version…</p>}
       <LoadListPanel job={j} canEdit={may(me.data?.role, 'editLoadLists')} />
     </Page>
   );
@@ -115,7 +115,7 @@ function EditJob({ job, onDone }: { job: JobDetail; onDone: () => void }) {
  * The pairing table, the bars the operator measured, and what the latest check said on the rail
  * shown. One check covers every jaw rail the job uses, each against its own clamp model.
  */
-function StockCheckSection({ job, version }: { job: JobDetail; version: TemplateVersion }) {
+function StockCheckSection({ job, version, canRecord }: { job: JobDetail; version: TemplateVersion; canRecord: boolean }) {
   const rails = useMemo(() => jobRails(job.pairings), [job.pairings]);
   const used = useMemo(() => new Set(job.stationsUsed), [job.stationsUsed]);
   const railsUsed = useMemo(() => new Set(job.railsUsed), [job.railsUsed]);
@@ -155,7 +155,7 @@ function StockCheckSection({ job, version }: { job: JobDetail; version: Template
       {selected && clamp ? (
         <>
           <div className="grid grid-cols-1 items-start gap-6 xl:grid-cols-[minmax(0,31rem)_minmax(0,1fr)]">
-            <BarsEntry job={job} rail={selected} clamp={clamp} checkable={checkable.map((r) => r.jawPlacement)} onChecked={() => setFocusCheck(latest?.id ?? -1)} />
+            {canRecord ? <BarsEntry job={job} rail={selected} clamp={clamp} checkable={checkable.map((r) => r.jawPlacement)} onChecked={() => setFocusCheck(latest?.id ?? -1)} /> : <p className="text-slate-700">Operators, programmers and leads record measured bars; your role reads the checks.</p>}
             <section aria-label="Latest check" className="flex flex-col gap-4">
               {latest && run ? (
                 <LatestCheck ref={resultsHeading} job={job} rail={selected} check={latest} run={run} count={checks.length} />

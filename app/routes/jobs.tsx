@@ -21,7 +21,7 @@ export function JobsRoute() {
   const me = useMe();
   const jobs = useJobs();
   const [filter, setFilter] = useState('');
-  const canEdit = may(me.data?.role, 'editTemplates');
+  const canEdit = may(me.data?.role, 'editJobs');
   return (
     <Page title="Jobs" subtitle="One part run on one released template version: its stations, its bars and its job package.">
       <div className="max-w-sm"><TextField label="Filter jobs" value={filter} onChange={(e) => setFilter(e.target.value)} /></div>

@@ -14,10 +14,23 @@ export interface AuditRecord {
 /** Before/after kept as short summaries: the audit says what changed, the versions hold the content. */
 const brief = (v: unknown) => (v === undefined || v === null ? null : JSON.stringify(v).slice(0, 4000));
 
+const row = (r: AuditRecord) => ({ user_id: r.userId, action: r.action, object_type: r.objectType, object_id: String(r.objectId), summary: r.summary, before: brief(r.before), after: brief(r.after) });
+
 export function auditRepo(db: Db) {
   return {
-    async record(r: AuditRecord, trx: Db = db) {
-      await trx('audit').insert({ user_id: r.userId, action: r.action, object_type: r.objectType, object_id: String(r.objectId), summary: r.summary, before: brief(r.before), after: brief(r.after) });
+    /**
+     * A write and its audit line in one transaction: both are kept or neither is. `write` must use
+     * only the `trx` it is given.
+     */
+    audited<T>(write: (trx: Db) => Promise<T>, entry: (result: T) => AuditRecord): Promise<T> {
+      return db.transaction(async (trx) => {
+        const result = await write(trx);
+        await trx('audit').insert(row(entry(result)));
+        return result;
+      });
+    },
+    async record(r: AuditRecord, trx: Db) {
+      await trx('audit').insert(row(r));
     },
     async list(q: AuditQuery): Promise<{ items: AuditEntry[]; total: number }> {
       const base = db('audit as a').leftJoin('users as u', 'u.id', 'a.user_id');

@@ -73,10 +73,10 @@ export function catalogRepo(db: Db) {
       const [row] = await trx('plates').insert(plateToRow(p)).returning('id');
       return (row as { id: number }).id;
     },
-    async updatePlate(id: number, p: PlateFields) {
-      await db('plates').where({ id }).update({ ...plateToRow(p), updated_at: db.fn.now() });
+    async updatePlate(id: number, p: PlateFields, trx: Db = db) {
+      await trx('plates').where({ id }).update({ ...plateToRow(p), updated_at: trx.fn.now() });
     },
-    deletePlate: (id: number) => db('plates').where({ id }).delete(),
+    deletePlate: (id: number, trx: Db = db) => trx('plates').where({ id }).delete(),
 
     /** The list answer `{items, total}` as JSON text, ready to send. */
     async listComponentsJson(query: ListQuery & { kind?: string }): Promise<string> {
@@ -120,16 +120,16 @@ export function catalogRepo(db: Db) {
       const [row] = await trx('components').insert(componentToRow(c)).returning('id');
       return (row as { id: number }).id;
     },
-    async updateComponent(id: number, c: ComponentFields) {
-      await db('components').where({ id }).update({ ...componentToRow(c), updated_at: db.fn.now() });
+    async updateComponent(id: number, c: ComponentFields, trx: Db = db) {
+      await trx('components').where({ id }).update({ ...componentToRow(c), updated_at: trx.fn.now() });
     },
     async updateComponentIn(trx: Db, id: number, c: ComponentFields) {
       await trx('components').where({ id }).update({ ...componentToRow(c), updated_at: trx.fn.now() });
     },
-    async setOutline(id: number, outline: unknown, file: unknown) {
-      await db('components').where({ id }).update({ outline: JSON.stringify(outline), outline_file: JSON.stringify(file), updated_at: db.fn.now() });
+    async setOutline(id: number, outline: unknown, file: unknown, trx: Db = db) {
+      await trx('components').where({ id }).update({ outline: JSON.stringify(outline), outline_file: JSON.stringify(file), updated_at: trx.fn.now() });
     },
-    deleteComponent: (id: number) => db('components').where({ id }).delete(),
+    deleteComponent: (id: number, trx: Db = db) => trx('components').where({ id }).delete(),
   };
 }
 export type CatalogRepo = ReturnType<typeof catalogRepo>;

@@ -166,7 +166,7 @@ async function seedDemoTemplates(db: Db) {
   const users = usersRepo(db);
   const lead = (await users.findWithHashByEmail('lead@gridset.test'))!;
   const catalog = catalogRepo(db);
-  const service = templatesService({ db, templates: templatesRepo(db), catalog, naming: namingService(namingRepo(db)), audit: auditRepo(db) });
+  const service = templatesService({ db, templates: templatesRepo(db), catalog, naming: namingService(namingRepo(db), auditRepo(db)), audit: auditRepo(db) });
   for (const t of DEMO_TEMPLATES) {
     const plate = (await catalog.plateByCode(t.plate))!;
     const created = await service.create(lead, { name: t.name, plateId: plate.id });

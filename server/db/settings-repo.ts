@@ -18,8 +18,8 @@ export function settingsRepo(db: Db) {
       const parsed = ShopSettingsSchema.safeParse({ ...DEFAULT_SETTINGS, ...JSON.parse(row.value) });
       return parsed.success ? parsed.data : DEFAULT_SETTINGS;
     },
-    async put(s: ShopSettings): Promise<ShopSettings> {
-      await db('settings').insert({ key: 'shop', value: JSON.stringify(s) }).onConflict('key').merge({ value: JSON.stringify(s), updated_at: db.fn.now() });
+    async put(s: ShopSettings, trx: Db = db): Promise<ShopSettings> {
+      await trx('settings').insert({ key: 'shop', value: JSON.stringify(s) }).onConflict('key').merge({ value: JSON.stringify(s), updated_at: trx.fn.now() });
       return s;
     },
   };

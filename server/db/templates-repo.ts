@@ -41,18 +41,21 @@ export function templatesRepo(db: Db) {
       await trx('templates').where({ id: v.templateId }).update({ updated_at: trx.fn.now() });
       return id;
     },
-    /** Saves a draft only if it is still at the revision the caller read; false when someone saved first. */
-    async updateDraft(trx: Db, versionId: number, expectedRevision: number, content: TemplateContent, hash: string, componentIds: number[]): Promise<boolean> {
+    /**
+     * The one way a version changes: a single conditional update that applies only if the version
+     * is still in the state and at the revision the caller read; false when someone else changed
+     * it first. Saving a draft is the draft → draft step with new content.
+     */
+    async applyTransition(trx: Db, versionId: number, expect: { from: VersionState; revision: number }, to: VersionState, draft?: { content: TemplateContent; hash: string; componentIds: number[] }): Promise<boolean> {
       const n = await trx('template_versions')
-        .where({ id: versionId, revision: expectedRevision, state: 'draft' })
-        .update({ content: JSON.stringify(content), content_hash: hash, revision: expectedRevision + 1, updated_at: trx.fn.now() });
+        .where({ id: versionId, state: expect.from, revision: expect.revision })
+        .update({ state: to, revision: expect.revision + 1, updated_at: trx.fn.now(), ...(draft ? { content: JSON.stringify(draft.content), content_hash: draft.hash } : {}) });
       if (n === 0) return false;
-      await trx('template_version_components').where({ version_id: versionId }).delete();
-      await linkComponents(trx, versionId, componentIds);
+      if (draft) {
+        await trx('template_version_components').where({ version_id: versionId }).delete();
+        await linkComponents(trx, versionId, draft.componentIds);
+      }
       return true;
-    },
-    async setState(trx: Db, versionId: number, state: VersionState) {
-      await trx('template_versions').where({ id: versionId }).update({ state, updated_at: trx.fn.now() });
     },
     async setNaming(trx: Db, versionId: number, n: { version: number; waiver: string | null; waivedBy: number | null }) {
       await trx('template_versions').where({ id: versionId }).update({ naming_version: n.version, naming_waiver: n.waiver, naming_waived_by: n.waivedBy });

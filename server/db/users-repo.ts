@@ -66,9 +66,9 @@ export function usersRepo(db: Db) {
       return fresh && toUser(fresh);
     },
     /** Deletes a user who never signed in (an invitation that could not be mailed). */
-    async remove(id: number): Promise<void> {
+    async remove(id: number, trx: Db = db): Promise<void> {
       byId.delete(id);
-      await db('users').where({ id }).del();
+      await trx('users').where({ id }).del();
     },
     async countActiveAdmins(): Promise<number> {
       const r = await db('users').where({ role: 'admin', active: true }).count<{ n: number }[]>({ n: '*' });

@@ -79,7 +79,7 @@ export function dxfRoutes(deps: { dataDir: string; uploadLimitBytes: number; cat
       keepOriginal(dataDir, file.path, sha256);
       res.json(await catalog.setOutline(currentUser(req).id, id, mapped, { name: file.originalname, size: file.size, sha256, unit }));
     }) },
-    { method: 'post', path: '/jobs/:id/outline', access: CAN.editTemplates, before: upload, handler: (req, res) => usingUpload(req.file, async (file) => {
+    { method: 'post', path: '/jobs/:id/outline', access: CAN.editJobs, before: upload, handler: (req, res) => usingUpload(req.file, async (file) => {
       const { id } = parseOr400(IdParamSchema, req.params, 'address');
       const f = parseOr400(OutlineFieldsSchema, req.body, 'part outline upload');
       const job = await jobs.detail(id);

@@ -18,13 +18,13 @@ export function jobRoutes(jobs: JobsService, loadLists: LoadListService, program
     { method: 'get', path: '/jobs', access: 'signed-in', handler: async (_req, res) => {
       res.json(await jobs.list());
     } },
-    { method: 'post', path: '/jobs', access: CAN.editTemplates, handler: async (req, res) => {
+    { method: 'post', path: '/jobs', access: CAN.editJobs, handler: async (req, res) => {
       res.status(201).json(await jobs.create(currentUser(req), parseOr400(JobInputSchema, req.body, 'job')));
     } },
     { method: 'get', path: '/jobs/:id', access: 'signed-in', handler: async (req, res) => {
       res.json(await jobs.detail(id(req.params)));
     } },
-    { method: 'put', path: '/jobs/:id', access: CAN.editTemplates, handler: async (req, res) => {
+    { method: 'put', path: '/jobs/:id', access: CAN.editJobs, handler: async (req, res) => {
       const jobId = id(req.params);
       res.json(await jobs.update(currentUser(req), jobId, parseOr400(JobInputSchema, req.body, 'job')));
     } },
@@ -37,7 +37,7 @@ export function jobRoutes(jobs: JobsService, loadLists: LoadListService, program
       res.json(await loadLists.put(currentUser(req), jobId, parseOr400(LoadListInputSchema, req.body, 'load list')));
     } },
     // The operator records measured bars at the machine.
-    { method: 'post', path: '/jobs/:id/stock-check', access: 'signed-in', handler: async (req, res) => {
+    { method: 'post', path: '/jobs/:id/stock-check', access: CAN.recordBars, handler: async (req, res) => {
       const jobId = id(req.params);
       res.json(await jobs.stockCheck(currentUser(req), jobId, parseOr400(JobStockCheckInputSchema, req.body, 'stock check')));
     } },

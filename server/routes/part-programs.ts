@@ -13,7 +13,7 @@ export function partProgramRoutes(deps: { dataDir: string; uploadLimitBytes: num
   const upload = singleFileUpload(deps.dataDir, deps.uploadLimitBytes);
   const id = (p: unknown) => parseOr400(IdParamSchema, p, 'address').id;
   return [
-    { method: 'post', path: '/jobs/:id/part-program', access: CAN.editTemplates, before: upload, handler: (req, res) => usingUpload(req.file, async (file) => {
+    { method: 'post', path: '/jobs/:id/part-program', access: CAN.uploadPartPrograms, before: upload, handler: (req, res) => usingUpload(req.file, async (file) => {
       res.json(await programs.upload(currentUser(req), id(req.params), { name: file.originalname, size: file.size, path: file.path }));
     }) },
     { method: 'get', path: '/jobs/:id/part-program.nc', access: 'signed-in', handler: async (req, res) => {

@@ -1,3 +1,4 @@
+import { CAN } from '../../shared/schemas/auth';
 import { z } from 'zod';
 import { IdParamSchema } from '../../shared/schemas/common';
 import { currentUser } from '../middleware/auth';
@@ -13,24 +14,24 @@ const DiffQuerySchema = z.object({
   to: z.coerce.number({ message: 'to must be a version number.' }).int().positive('to must be a version number.'),
 });
 
-// The lifecycle's roles are decided per step by shared/review/lifecycle.ts (it also knows the
-// author may not approve); the route only requires a session.
+// Each step's route admits the roles the lifecycle table (shared/review/lifecycle.ts) names for it;
+// the table then decides on the version's state and refuses an author signing off their own version.
 export function reviewRoutes(reviews: ReviewsService): RouteDef[] {
   const params = (p: unknown) => parseOr400(VersionParamsSchema, p, 'address');
   return [
-    { method: 'post', path: '/templates/:id/versions/:n/submit', access: 'signed-in', handler: async (req, res) => {
+    { method: 'post', path: '/templates/:id/versions/:n/submit', access: CAN.editTemplates, handler: async (req, res) => {
       const { id, n } = params(req.params);
       res.json(await reviews.submit(currentUser(req), id, n));
     } },
-    { method: 'post', path: '/templates/:id/versions/:n/approve', access: 'signed-in', handler: async (req, res) => {
+    { method: 'post', path: '/templates/:id/versions/:n/approve', access: CAN.signOff, handler: async (req, res) => {
       const { id, n } = params(req.params);
       res.json(await reviews.approve(currentUser(req), id, n, parseOr400(CommentSchema, req.body ?? {}, 'approval').comment));
     } },
-    { method: 'post', path: '/templates/:id/versions/:n/request-changes', access: 'signed-in', handler: async (req, res) => {
+    { method: 'post', path: '/templates/:id/versions/:n/request-changes', access: CAN.signOff, handler: async (req, res) => {
       const { id, n } = params(req.params);
       res.json(await reviews.requestChanges(currentUser(req), id, n, parseOr400(ChangesSchema, req.body ?? {}, 'change request').comment));
     } },
-    { method: 'post', path: '/templates/:id/versions/:n/retire', access: 'signed-in', handler: async (req, res) => {
+    { method: 'post', path: '/templates/:id/versions/:n/retire', access: CAN.releaseTemplates, handler: async (req, res) => {
       const { id, n } = params(req.params);
       res.json(await reviews.retire(currentUser(req), id, n));
     } },

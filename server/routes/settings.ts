@@ -13,9 +13,8 @@ export function settingsRoutes(settings: SettingsRepo, audit: AuditRepo): RouteD
     } },
     { method: 'put', path: '/settings', access: CAN.editSettings, handler: async (req, res) => {
       const before = await settings.get();
-      const saved = await settings.put(parseOr400(ShopSettingsSchema, req.body, 'shop settings'));
-      await audit.record({ userId: currentUser(req).id, action: 'settings.save', objectType: 'settings', objectId: 'shop', summary: 'Changed the shop settings', before, after: saved });
-      res.json(saved);
+      const input = parseOr400(ShopSettingsSchema, req.body, 'shop settings');
+      res.json(await audit.audited((trx) => settings.put(input, trx), (saved) => ({ userId: currentUser(req).id, action: 'settings.save', objectType: 'settings', objectId: 'shop', summary: 'Changed the shop settings', before, after: saved })));
     } },
   ];
 }

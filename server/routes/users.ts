@@ -1,4 +1,4 @@
-import { CreateUserInputSchema, UpdateUserInputSchema } from '../../shared/schemas/auth';
+import { CAN, CreateUserInputSchema, UpdateUserInputSchema } from '../../shared/schemas/auth';
 import { IdParamSchema } from '../../shared/schemas/common';
 import { currentUser } from '../middleware/auth';
 import { validationError } from '../middleware/errors';
@@ -10,7 +10,7 @@ export function userRoutes(users: UsersService): RouteDef[] {
     {
       method: 'get',
       path: '/users',
-      access: ['admin'],
+      access: CAN.manageUsers,
       handler: async (_req, res) => {
         const items = await users.list();
         res.json({ items, total: items.length });
@@ -19,7 +19,7 @@ export function userRoutes(users: UsersService): RouteDef[] {
     {
       method: 'post',
       path: '/users',
-      access: ['admin'],
+      access: CAN.manageUsers,
       handler: async (req, res) => {
         const parsed = CreateUserInputSchema.safeParse(req.body);
         if (!parsed.success) throw validationError(parsed.error, 'new user');
@@ -29,7 +29,7 @@ export function userRoutes(users: UsersService): RouteDef[] {
     {
       method: 'patch',
       path: '/users/:id',
-      access: ['admin'],
+      access: CAN.manageUsers,
       handler: async (req, res) => {
         const id = IdParamSchema.safeParse(req.params);
         if (!id.success) throw validationError(id.error, 'address');

@@ -2,6 +2,7 @@ import { createHash, randomBytes } from 'node:crypto';
 import type { InviteUserInput, SetPasswordInput, User } from '../../shared/schemas/auth';
 import type { Db } from '../db/knex';
 import type { UsersRepo } from '../db/users-repo';
+import type { AuditRepo } from '../db/audit-repo';
 import type { TokenPurpose, UserTokensRepo } from '../db/user-tokens-repo';
 import type { Mailer } from '../mail/mailer';
 import { HttpError, conflict } from '../middleware/errors';
@@ -24,6 +25,7 @@ interface Deps {
   db: Db;
   users: UsersRepo;
   tokens: UserTokensRepo;
+  audit: AuditRepo;
   mailer: Mailer;
   publicUrl: string;
   /** Where a failed background mail is reported (never with the link in it). */
@@ -33,7 +35,7 @@ interface Deps {
 const spent = () => new HttpError(400, 'link-spent', LINK_SPENT_MESSAGE);
 
 export function accountLinksService(deps: Deps) {
-  const { db, users, tokens, mailer, log } = deps;
+  const { db, users, tokens, audit, mailer, log } = deps;
   const base = deps.publicUrl.replace(/\/+$/, '');
   const linkFor = (token: string) => `${base}/set-password?token=${encodeURIComponent(token)}`;
   const inFlight = new Set<Promise<void>>();
@@ -82,7 +84,7 @@ export function accountLinksService(deps: Deps) {
   async function sendReset(email: string): Promise<void> {
     const user = await users.findWithHashByEmail(email);
     if (!user || !user.active) return;
-    const { id, token } = await issue(user.id, 'reset');
+    const { id, token } = await audit.audited((trx) => issue(user.id, 'reset', trx), () => ({ userId: null, action: 'user.reset-requested', objectType: 'user', objectId: user.id, summary: `A password reset link was mailed to ${user.email}` }));
     try {
       await mailer.send(resetMail(user.email, linkFor(token)));
     } catch (err) {
@@ -111,6 +113,7 @@ export function accountLinksService(deps: Deps) {
             ? (await users.update(existing.id, { name: input.name, role: input.role }, trx))!
             : await users.insert({ email: input.email, name: input.name, role: input.role, passwordHash: null, active: false }, trx);
           const { id, token } = await issue(user.id, 'invite', trx);
+          await audit.record({ userId: actor.id, action: 'user.invite', objectType: 'user', objectId: user.id, summary: `${existing ? 'Invited again' : 'Invited'} ${user.email} as ${user.role}`, after: { email: user.email, role: user.role } }, trx);
           return { user, tokenId: id, token };
         });
       } catch (err) {
@@ -121,12 +124,14 @@ export function accountLinksService(deps: Deps) {
         await mailer.send(inviteMail(actor, created.user, linkFor(created.token)));
       } catch (err) {
         // Undo, so the admin can simply try again once mail works.
-        if (existing) {
-          await tokens.remove(created.tokenId);
-          await users.update(existing.id, { name: existing.name, role: existing.role });
-        } else {
-          await users.remove(created.user.id);
-        }
+        await audit.audited(async (trx) => {
+          if (existing) {
+            await tokens.remove(created.tokenId, trx);
+            await users.update(existing.id, { name: existing.name, role: existing.role }, trx);
+          } else {
+            await users.remove(created.user.id, trx);
+          }
+        }, () => ({ userId: actor.id, action: 'user.invite-withdrawn', objectType: 'user', objectId: created.user.id, summary: `The invitation to ${created.user.email} could not be mailed and was withdrawn` }));
         throw new HttpError(502, 'mail-failed', `The invitation could not be mailed (${err instanceof Error ? err.message : String(err)}); nothing was saved. Check the mail settings (SMTP_URL) and invite again.`);
       }
       if (existing) await tokens.revokeUnused(existing.id, now, db, created.tokenId);
@@ -148,6 +153,8 @@ export function accountLinksService(deps: Deps) {
         if (!usable(t, now) || !(await tokens.claim(t!.id, now, trx))) throw spent();
         await users.update(t!.userId, t!.purpose === 'invite' ? { passwordHash, active: true } : { passwordHash }, trx);
         await tokens.revokeUnused(t!.userId, now, trx);
+        const how = t!.purpose === 'invite' ? 'accepted the invitation and chose a password' : 'set a new password from a reset link';
+        await audit.record({ userId: t!.userId, action: t!.purpose === 'invite' ? 'user.invite-accepted' : 'user.password-reset', objectType: 'user', objectId: t!.userId, summary: `${found!.email} ${how}` }, trx);
         // A new password ends every session of the account (OWASP Forgot Password Cheat Sheet).
         if (await trx.schema.hasTable('sessions')) {
           await trx('sessions').whereRaw("json_extract(sess, '$.passport.user') = ?", [t!.userId]).del();

@@ -16,8 +16,7 @@ export function catalogService(repo: CatalogRepo, naming: NamingService, audit: 
     },
     async createPlate(actorId: number, input: PlateFields) {
       if (await repo.plateCodeTaken(input.code)) throw conflict(`A plate with the code ${input.code} already exists; choose another code.`);
-      const id = await repo.insertPlate(input);
-      await audit.record({ userId: actorId, action: 'plate.create', objectType: 'plate', objectId: id, summary: `Added plate ${input.code}`, after: input });
+      const id = await audit.audited((trx) => repo.insertPlate(input, trx), (id) => ({ userId: actorId, action: 'plate.create', objectType: 'plate', objectId: id, summary: `Added plate ${input.code}`, after: input }));
       return repo.getPlate(id);
     },
     async updatePlate(actorId: number, id: number, input: PlateFields) {
@@ -26,15 +25,13 @@ export function catalogService(repo: CatalogRepo, naming: NamingService, audit: 
       if (existing.usedBy > 0 && (input.unit !== existing.unit || input.pitch !== existing.pitch)) {
         throw conflict(`Plate ${existing.code} is used by ${existing.usedBy} template(s); its unit and pitch cannot change. Add a new plate instead.`);
       }
-      await repo.updatePlate(id, input);
-      await audit.record({ userId: actorId, action: 'plate.update', objectType: 'plate', objectId: id, summary: `Changed plate ${input.code}`, before: existing, after: input });
+      await audit.audited((trx) => repo.updatePlate(id, input, trx), () => ({ userId: actorId, action: 'plate.update', objectType: 'plate', objectId: id, summary: `Changed plate ${input.code}`, before: existing, after: input }));
       return repo.getPlate(id);
     },
     async deletePlate(actorId: number, id: number) {
       const p = await this.getPlate(id);
       if (p.usedBy > 0) throw conflict(`Plate ${p.code} is used by ${p.usedBy} template(s) and cannot be deleted.`);
-      await repo.deletePlate(id);
-      await audit.record({ userId: actorId, action: 'plate.delete', objectType: 'plate', objectId: id, summary: `Deleted plate ${p.code}`, before: p });
+      await audit.audited((trx) => repo.deletePlate(id, trx), () => ({ userId: actorId, action: 'plate.delete', objectType: 'plate', objectId: id, summary: `Deleted plate ${p.code}`, before: p }));
     },
 
     listComponentsJson: (q: ListQuery & { kind?: string }) => repo.listComponentsJson(q),
@@ -46,8 +43,7 @@ export function catalogService(repo: CatalogRepo, naming: NamingService, audit: 
     async createComponent(actorId: number, input: ComponentFields) {
       await naming.requireComponentNames(input);
       if (await repo.componentCodeTaken(input.code)) throw conflict(`A component with the code ${input.code} already exists; choose another code.`);
-      const id = await repo.insertComponent(input);
-      await audit.record({ userId: actorId, action: 'component.create', objectType: 'component', objectId: id, summary: `Added component ${input.code} (${input.kind})`, after: { code: input.code, kind: input.kind, layer: input.layer } });
+      const id = await audit.audited((trx) => repo.insertComponent(input, trx), (id) => ({ userId: actorId, action: 'component.create', objectType: 'component', objectId: id, summary: `Added component ${input.code} (${input.kind})`, after: { code: input.code, kind: input.kind, layer: input.layer } }));
       return repo.getComponent(id);
     },
     async updateComponent(actorId: number, id: number, input: ComponentFields) {
@@ -57,9 +53,8 @@ export function catalogService(repo: CatalogRepo, naming: NamingService, audit: 
       if (existing.usedBy > 0 && input.code !== existing.code) {
         throw conflict(`Component ${existing.code} is used by ${existing.usedBy} template version(s); its code cannot change.`);
       }
-      await repo.updateComponent(id, input);
       const changed = (Object.keys(input) as (keyof ComponentFields)[]).filter((k) => JSON.stringify(input[k]) !== JSON.stringify((existing as Record<string, unknown>)[k]));
-      await audit.record({ userId: actorId, action: 'component.update', objectType: 'component', objectId: id, summary: `Changed component ${input.code}: ${changed.join(', ') || 'no fields'}`, before: Object.fromEntries(changed.map((k) => [k, (existing as Record<string, unknown>)[k]])), after: Object.fromEntries(changed.map((k) => [k, input[k]])) });
+      await audit.audited((trx) => repo.updateComponent(id, input, trx), () => ({ userId: actorId, action: 'component.update', objectType: 'component', objectId: id, summary: `Changed component ${input.code}: ${changed.join(', ') || 'no fields'}`, before: Object.fromEntries(changed.map((k) => [k, (existing as Record<string, unknown>)[k]])), after: Object.fromEntries(changed.map((k) => [k, input[k]])) }));
       return repo.getComponent(id);
     },
     /** Stores an outline read from a DXF (already in the component's unit, origin at its primary dowel). */
@@ -68,15 +63,13 @@ export function catalogService(repo: CatalogRepo, naming: NamingService, audit: 
       // Layer names may have been mapped since the file was read: the outline is checked as stored.
       const checked = OutlineSchema.safeParse(outline);
       if (!checked.success) throw validationError(checked.error, 'outline');
-      await repo.setOutline(id, outline, file);
-      await audit.record({ userId: actorId, action: 'component.outline', objectType: 'component', objectId: id, summary: `Set the outline of ${c.code} from ${file.name} (${outline.paths.length} paths, ${outline.circles.length} circles)`, after: file });
+      await audit.audited((trx) => repo.setOutline(id, outline, file, trx), () => ({ userId: actorId, action: 'component.outline', objectType: 'component', objectId: id, summary: `Set the outline of ${c.code} from ${file.name} (${outline.paths.length} paths, ${outline.circles.length} circles)`, after: file }));
       return repo.getComponent(id);
     },
     async deleteComponent(actorId: number, id: number) {
       const c = await this.getComponent(id);
       if (c.usedBy > 0) throw conflict(`Component ${c.code} is used by ${c.usedBy} template version(s) and cannot be deleted.`);
-      await repo.deleteComponent(id);
-      await audit.record({ userId: actorId, action: 'component.delete', objectType: 'component', objectId: id, summary: `Deleted component ${c.code}`, before: { code: c.code, kind: c.kind } });
+      await audit.audited((trx) => repo.deleteComponent(id, trx), () => ({ userId: actorId, action: 'component.delete', objectType: 'component', objectId: id, summary: `Deleted component ${c.code}`, before: { code: c.code, kind: c.kind } }));
     },
   };
 }

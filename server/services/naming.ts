@@ -4,14 +4,12 @@ import type { NamingRepo } from '../db/naming-repo';
 import type { AuditRepo } from '../db/audit-repo';
 import { HttpError } from '../middleware/errors';
 
-export function namingService(repo: NamingRepo, audit?: AuditRepo) {
+export function namingService(repo: NamingRepo, audit: AuditRepo) {
   return {
     current: () => repo.current(),
     history: () => repo.history(),
     async save(c: Omit<NamingConvention, 'version'>, userId: number) {
-      const saved = await repo.save(c, userId);
-      await audit?.record({ userId, action: 'naming.save', objectType: 'naming', objectId: saved.version, summary: `Saved naming convention version ${saved.version}`, after: saved });
-      return saved;
+      return audit.audited((trx) => repo.save(c, userId, trx), (saved) => ({ userId, action: 'naming.save', objectType: 'naming', objectId: saved.version, summary: `Saved naming convention version ${saved.version}`, after: saved }));
     },
     async check(target: NamingTarget, name: string): Promise<NamingCheckResult> {
       const convention = await repo.current();

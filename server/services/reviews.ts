@@ -1,13 +1,11 @@
 import type { User } from '../../shared/schemas/auth';
 import type { TemplateVersion } from '../../shared/schemas/template-api';
 import type { VersionDiff } from '../../shared/schemas/diff';
-import { transition, type ReviewAction } from '../../shared/review/lifecycle';
+import type { ReviewAction } from '../../shared/review/lifecycle';
 import { compareVersions } from '../../shared/compare/compare-versions';
 import { versionNamingProblems } from '../../shared/naming/version-names';
 import type { Db } from '../db/knex';
-import type { TemplatesRepo } from '../db/templates-repo';
 import type { UsersRepo } from '../db/users-repo';
-import type { AuditRepo } from '../db/audit-repo';
 import { HttpError } from '../middleware/errors';
 import type { NamingService } from './naming';
 import type { TemplatesService } from './templates';
@@ -18,38 +16,33 @@ export interface MailSender { send(mail: Mail): Promise<void> }
 interface Deps {
   db: Db;
   templates: TemplatesService;
-  templatesRepo: TemplatesRepo;
   users: UsersRepo;
   naming: NamingService;
-  audit: AuditRepo;
   mailer?: MailSender;
   publicUrl: string;
 }
 
 export function reviewsService(deps: Deps) {
-  const { db, templates, templatesRepo, users, naming, audit, mailer, publicUrl } = deps;
+  const { db, templates, users, naming, mailer, publicUrl } = deps;
 
   async function step(user: User, templateId: number, number: number, action: ReviewAction, comment = '') {
-    const v = await templates.requireVersion(templateId, number);
-    const t = transition(v.row.state, action, { role: user.role, isAuthor: v.row.author_id === user.id });
-    if (!t.ok) throw new HttpError(t.status, t.status === 403 ? 'forbidden' : 'conflict', t.message);
-    const presented = templates.present(templateId, v);
-    if ((action === 'submit' || action === 'approve') && presented.problems.length) {
-      throw new HttpError(400, 'layout-problems', `Version ${number} cannot go on: ${presented.problems[0]!.message}${presented.problems.length > 1 ? ` (and ${presented.problems.length - 1} more)` : ''}`, { problems: presented.problems });
-    }
-    if (action === 'approve') {
-      const convention = await naming.current();
-      const names = versionNamingProblems(v.content, convention);
-      if (names.length && !v.row.naming_waiver) {
-        throw new HttpError(400, 'naming', `Version ${number} breaks the naming convention: ${names[0]!.message}. Fix the names, or a lead waives them in writing before approval.`, { naming: names });
-      }
-    }
-    await db.transaction(async (trx) => {
-      await templatesRepo.setState(trx, v.row.id, t.to);
-      await trx('version_reviews').insert({ version_id: v.row.id, action, comment, user_id: user.id });
-      await audit.record({ userId: user.id, action: `version.${action}`, objectType: 'template-version', objectId: `${templateId}/${number}`, summary: `${presented.name} v${number}: ${v.row.state} → ${t.to}${comment ? ` — "${comment}"` : ''}`, before: { state: v.row.state }, after: { state: t.to, comment: comment || undefined } }, trx);
+    const convention = await naming.current();
+    const { before: v } = await templates.changeVersion(user, templateId, number, action, {
+      check: (v) => {
+        const presented = templates.present(templateId, v);
+        if ((action === 'submit' || action === 'approve') && presented.problems.length) {
+          throw new HttpError(400, 'layout-problems', `Version ${number} cannot go on: ${presented.problems[0]!.message}${presented.problems.length > 1 ? ` (and ${presented.problems.length - 1} more)` : ''}`, { problems: presented.problems });
+        }
+        if (action !== 'approve') return;
+        const names = versionNamingProblems(v.content, convention);
+        if (names.length && !v.row.naming_waiver) {
+          throw new HttpError(400, 'naming', `Version ${number} breaks the naming convention: ${names[0]!.message}. Fix the names, or a lead waives them in writing before approval.`, { naming: names });
+        }
+      },
+      also: async (trx, v) => { await trx('version_reviews').insert({ version_id: v.row.id, action, comment, user_id: user.id }); },
+      audit: (v, to) => ({ action: `version.${action}`, summary: `${v.content.name} v${number}: ${v.row.state} → ${to}${comment ? ` — "${comment}"` : ''}`, before: { state: v.row.state }, after: { state: to, comment: comment || undefined } }),
     });
-    await notify(action, presented, user, comment, v.row.author_id);
+    await notify(action, templates.present(templateId, v), user, comment, v.row.author_id);
     return templates.present(templateId, await templates.requireVersion(templateId, number));
   }
 

@@ -13,7 +13,8 @@ import type { StoredVersion, TemplatesRepo } from '../db/templates-repo';
 import { HttpError, badRequest, conflict, notFound, validationError } from '../middleware/errors';
 import { versionNamingProblems } from '../../shared/naming/version-names';
 import type { NamingService } from './naming';
-import type { AuditRepo } from '../db/audit-repo';
+import type { AuditRecord, AuditRepo } from '../db/audit-repo';
+import { transition, type LifecycleAction } from '../../shared/review/lifecycle';
 
 export const sha256Hex = (text: string) => createHash('sha256').update(text, 'utf8').digest('hex');
 export const contentHash = (content: TemplateContent) => sha256Hex(canonicalJson(layoutForHash(content)));
@@ -24,9 +25,6 @@ export const componentCopy = (c: Component): TemplateComponent => ({
   code: c.code, kind: c.kind, unit: c.unit, name: c.name, dowels: c.dowels, stops: c.stops, jawFaces: c.jawFaces,
   outline: c.outline, clamp: c.clamp, layer: c.layer, seatHeight: c.seatHeight, jawTop: c.jawTop,
 });
-
-/** Released and retired versions are production tooling: they never change. */
-const FROZEN: VersionState[] = ['released', 'retired'];
 
 /**
  * Evaluations by content hash: the evaluation is a pure function of the layout, and a stored
@@ -61,6 +59,37 @@ export function templatesService(deps: { db: Db; templates: TemplatesRepo; catal
     const v = await templates.version(templateId, number, trx);
     if (!v) throw notFound(`Version ${number} of template ${templateId}`);
     return v;
+  }
+
+  /**
+   * Every change of a version goes through here: the lifecycle table (shared/review/lifecycle.ts)
+   * decides on the state read inside the transaction, one conditional update applies it, and the
+   * audit line is written in that same transaction. Zero rows updated means someone else changed
+   * the version in between: 409, nothing written. `check` and `also` must use only `trx`.
+   */
+  async function changeVersion(user: User, templateId: number, number: number, action: LifecycleAction, opts: {
+    revision?: number;
+    check?: (v: StoredVersion) => void;
+    draft?: { content: TemplateContent; hash: string; componentIds: number[] };
+    also?: (trx: Db, v: StoredVersion) => Promise<void>;
+    audit: (v: StoredVersion, to: VersionState) => Omit<AuditRecord, 'userId' | 'objectType' | 'objectId'> & { objectId?: string };
+  }): Promise<{ before: StoredVersion; to: VersionState }> {
+    return db.transaction(async (trx) => {
+      const v = await requireVersion(templateId, number, trx);
+      const t = transition(v.row.state, action, { role: user.role, isAuthor: v.row.author_id === user.id });
+      if (!t.ok) throw new HttpError(t.status, t.status === 403 ? 'forbidden' : 'conflict', t.message);
+      if (opts.revision !== undefined && opts.revision !== v.row.revision) {
+        throw new HttpError(409, 'stale-revision', `Someone saved version ${number} after you opened it (your revision ${opts.revision}, now ${v.row.revision}); nothing of yours was saved. Compare and save again.`, { current: present(templateId, v) });
+      }
+      opts.check?.(v);
+      if (action !== 'new-version') {
+        const ok = await templates.applyTransition(trx, v.row.id, { from: v.row.state, revision: v.row.revision }, t.to, opts.draft);
+        if (!ok) throw new HttpError(409, 'conflict', `Someone else changed version ${number} at the same moment; nothing of yours was saved. Reload it and try again.`);
+      }
+      await opts.also?.(trx, v);
+      await audit.record({ userId: user.id, objectType: 'template-version', objectId: `${templateId}/${number}`, ...opts.audit(v, t.to) }, trx);
+      return { before: v, to: t.to };
+    });
   }
 
   /**
@@ -165,63 +194,57 @@ export function templatesService(deps: { db: Db; templates: TemplatesRepo; catal
     async saveDraft(user: User, templateId: number, number: number, body: SaveVersionInput): Promise<TemplateVersion> {
       await requireTemplate(templateId);
       const current = await requireVersion(templateId, number);
-      if (FROZEN.includes(current.row.state)) throw conflict(`Version ${number} is ${current.row.state}; ${current.row.state} versions never change. Start a new draft from it instead.`);
-      if (current.row.state !== 'draft') throw conflict(`Version ${number} is ${current.row.state}; only drafts can be edited.`);
-      if (body.revision !== current.row.revision) {
-        throw new HttpError(409, 'stale-revision', `Someone saved version ${number} after you opened it (your revision ${body.revision}, now ${current.row.revision}); nothing of yours was saved. Compare and save again.`, { current: present(templateId, current) });
-      }
+      // Name and plate never change within a template; the conditional update guards the rest.
       const { content, evaluation, componentIds } = await assemble({ name: current.content.name, plate: current.content.plate }, body);
-      const saved = await db.transaction(async (trx) => {
-        const ok = await templates.updateDraft(trx, current.row.id, body.revision, content, contentHash(content), componentIds);
-        if (ok) {
-          await audit.record({
-            userId: user.id, action: 'version.save', objectType: 'template-version', objectId: `${templateId}/${number}`,
-            summary: `Saved ${content.name} v${number} (revision ${body.revision + 1}): ${content.placements.length} placements, ${evaluation.stations.length} stations`,
-            before: { revision: body.revision, hash: current.row.content_hash, placements: current.content.placements.length },
-            after: { revision: body.revision + 1, hash: contentHash(content), placements: content.placements.length },
-          }, trx);
-        }
-        return ok;
+      const hash = contentHash(content);
+      await changeVersion(user, templateId, number, 'edit', {
+        revision: body.revision,
+        draft: { content, hash, componentIds },
+        audit: (v) => ({
+          action: 'version.save',
+          summary: `Saved ${content.name} v${number} (revision ${body.revision + 1}): ${content.placements.length} placements, ${evaluation.stations.length} stations`,
+          before: { revision: body.revision, hash: v.row.content_hash, placements: v.content.placements.length },
+          after: { revision: body.revision + 1, hash, placements: content.placements.length },
+        }),
       });
-      if (!saved) {
-        const now = await requireVersion(templateId, number);
-        throw new HttpError(409, 'stale-revision', `Someone saved version ${number} at the same moment; nothing of yours was saved. Compare and save again.`, { current: present(templateId, now) });
-      }
       return present(templateId, await requireVersion(templateId, number), evaluation);
     },
     async newDraft(user: User, templateId: number, from: number): Promise<TemplateVersion> {
       await requireTemplate(templateId);
       const source = await requireVersion(templateId, from);
       const ids = (await catalog.componentsByCodes(source.content.components.map((c) => c.code))).map((c) => c.id);
-      const number = await db.transaction(async (trx) => {
-        const n = await templates.nextNumber(trx, templateId);
-        await templates.insertVersion(trx, { templateId, number: n, state: 'draft', content: source.content, hash: source.row.content_hash, authorId: user.id, componentIds: ids });
-        await audit.record({ userId: user.id, action: 'version.new-draft', objectType: 'template-version', objectId: `${templateId}/${n}`, summary: `Started draft v${n} of ${source.content.name} from v${from}`, after: { from } }, trx);
-        return n;
+      let number = 0;
+      await changeVersion(user, templateId, from, 'new-version', {
+        also: async (trx, v) => {
+          number = await templates.nextNumber(trx, templateId);
+          await templates.insertVersion(trx, { templateId, number, state: 'draft', content: v.content, hash: v.row.content_hash, authorId: user.id, componentIds: ids });
+        },
+        audit: (v) => ({ objectId: `${templateId}/${number}`, action: 'version.new-draft', summary: `Started draft v${number} of ${v.content.name} from v${from}`, after: { from, version: number } }),
       });
       return present(templateId, await requireVersion(templateId, number));
     },
-    /** A lead releases a draft or a version in review; the layout must have no problems. */
     /**
-     * Releases a version: its layout must have no problems, and every name it uses must pass the
-     * naming convention unless a lead waives that with a written reason, kept with the version.
+     * A lead releases a draft or a version in review: its layout must have no problems, and every
+     * name it uses must pass the naming convention unless the lead waives that with a written
+     * reason, kept with the version.
      */
     async release(user: User, templateId: number, number: number, waiver?: string): Promise<TemplateVersion> {
       await requireTemplate(templateId);
-      const v = await requireVersion(templateId, number);
-      if (FROZEN.includes(v.row.state)) throw conflict(`Version ${number} is already ${v.row.state}.`);
-      const evaluation = evaluateStored(v);
-      if (evaluation.problems.length) throw new HttpError(400, 'layout-problems', `Version ${number} cannot be released: ${evaluation.problems[0]!.message}`, { problems: evaluation.problems });
       const convention = await naming.current();
-      const nameProblems = versionNamingProblems(v.content, convention);
-      if (nameProblems.length && !waiver) {
-        throw new HttpError(400, 'naming', `Version ${number} breaks the naming convention (version ${convention.version}): ${nameProblems[0]!.message}${nameProblems.length > 1 ? ` (and ${nameProblems.length - 1} more)` : ''}. Fix the names, or have a lead release it with a written waiver.`, { naming: nameProblems });
-      }
-      if (waiver && user.role !== 'lead') throw new HttpError(403, 'forbidden', 'Only a lead may waive the naming convention.');
-      await db.transaction(async (trx) => {
-        await templates.setState(trx, v.row.id, 'released');
-        await templates.setNaming(trx, v.row.id, { version: convention.version, waiver: nameProblems.length ? waiver! : null, waivedBy: nameProblems.length ? user.id : null });
-        await audit.record({ userId: user.id, action: 'version.release', objectType: 'template-version', objectId: `${templateId}/${number}`, summary: `Released ${v.content.name} v${number}${nameProblems.length ? ` with a naming waiver: "${waiver}"` : ''}`, before: { state: v.row.state }, after: { state: 'released', hash: v.row.content_hash } }, trx);
+      let evaluation: TemplateEvaluation | undefined;
+      let waived = false;
+      await changeVersion(user, templateId, number, 'release', {
+        check: (v) => {
+          evaluation = evaluateStored(v);
+          if (evaluation.problems.length) throw new HttpError(400, 'layout-problems', `Version ${number} cannot be released: ${evaluation.problems[0]!.message}`, { problems: evaluation.problems });
+          const nameProblems = versionNamingProblems(v.content, convention);
+          if (nameProblems.length && !waiver) {
+            throw new HttpError(400, 'naming', `Version ${number} breaks the naming convention (version ${convention.version}): ${nameProblems[0]!.message}${nameProblems.length > 1 ? ` (and ${nameProblems.length - 1} more)` : ''}. Fix the names, or have a lead release it with a written waiver.`, { naming: nameProblems });
+          }
+          waived = nameProblems.length > 0;
+        },
+        also: (trx, v) => templates.setNaming(trx, v.row.id, { version: convention.version, waiver: waived ? waiver! : null, waivedBy: waived ? user.id : null }),
+        audit: (v, to) => ({ action: 'version.release', summary: `Released ${v.content.name} v${number}${waived ? ` with a naming waiver: "${waiver}"` : ''}`, before: { state: v.row.state }, after: { state: to, hash: v.row.content_hash } }),
       });
       return present(templateId, await requireVersion(templateId, number), evaluation);
     },
@@ -262,6 +285,7 @@ export function templatesService(deps: { db: Db; templates: TemplatesRepo; catal
     },
     assemble,
     requireVersion,
+    changeVersion,
   };
 }
 export type TemplatesService = ReturnType<typeof templatesService>;

@@ -6,7 +6,7 @@ import { HttpError, conflict, notFound } from '../middleware/errors';
 import { hashPassword, verifyPassword } from './passwords';
 
 /** With the tokens repository, deactivating a user also ends their unused invitation and reset links. */
-export function usersService(repo: UsersRepo, tokens?: UserTokensRepo, audit?: AuditRepo) {
+export function usersService(repo: UsersRepo, audit: AuditRepo, tokens?: UserTokensRepo) {
   return {
     /** Resolves to the user when the address and password match an active account, else null. */
     async authenticate(email: string, password: string): Promise<User | null> {
@@ -20,9 +20,8 @@ export function usersService(repo: UsersRepo, tokens?: UserTokensRepo, audit?: A
     list: () => repo.list(),
     async create(actor: User, input: CreateUserInput): Promise<User> {
       if (await repo.findWithHashByEmail(input.email)) throw conflict(`A user with the address ${input.email} already exists.`);
-      const user = await repo.insert({ email: input.email, name: input.name, role: input.role, passwordHash: await hashPassword(input.password) });
-      await audit?.record({ userId: actor.id, action: 'user.create', objectType: 'user', objectId: user.id, summary: `Added user ${user.email} as ${user.role}`, after: { email: user.email, role: user.role } });
-      return user;
+      const passwordHash = await hashPassword(input.password);
+      return audit.audited((trx) => repo.insert({ email: input.email, name: input.name, role: input.role, passwordHash }, trx), (user) => ({ userId: actor.id, action: 'user.create', objectType: 'user', objectId: user.id, summary: `Added user ${user.email} as ${user.role}`, after: { email: user.email, role: user.role } }));
     },
     async update(actor: User, id: number, input: UpdateUserInput): Promise<User> {
       const target = await repo.findById(id);
@@ -34,9 +33,8 @@ export function usersService(repo: UsersRepo, tokens?: UserTokensRepo, audit?: A
       if (actor.id === id && input.active === false) throw new HttpError(409, 'conflict', 'You cannot deactivate your own account.');
       // Links first: should the update then fail, the user only has to ask for a new link.
       if (input.active === false && tokens) await tokens.revokeUnused(id, new Date().toISOString());
-      const updated = (await repo.update(id, input))!;
-      await audit?.record({ userId: actor.id, action: 'user.update', objectType: 'user', objectId: id, summary: `Changed user ${target.email}: ${Object.keys(input).join(', ')}`, before: { role: target.role, active: target.active, name: target.name }, after: input });
-      return updated;
+      const updated = await audit.audited((trx) => repo.update(id, input, trx), () => ({ userId: actor.id, action: 'user.update', objectType: 'user', objectId: id, summary: `Changed user ${target.email}: ${Object.keys(input).join(', ')}`, before: { role: target.role, active: target.active, name: target.name }, after: input }));
+      return updated!;
     },
     async setDisplayUnit(id: number, displayUnit: User['displayUnit']): Promise<User> {
       return (await repo.update(id, { displayUnit }))!;

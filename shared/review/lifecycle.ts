@@ -1,8 +1,10 @@
-import type { Role } from '../schemas/auth';
+import { CAN, type Role } from '../schemas/auth';
 import type { VersionState } from '../schemas/template-api';
 
 export const REVIEW_ACTIONS = ['edit', 'submit', 'approve', 'request-changes', 'retire', 'release'] as const;
 export type ReviewAction = (typeof REVIEW_ACTIONS)[number];
+/** Starting a new draft from a version leaves that version as it is, whatever its state. */
+export type LifecycleAction = ReviewAction | 'new-version';
 
 export type Transition = { ok: true; to: VersionState } | { ok: false; status: 403 | 409; message: string };
 
@@ -20,16 +22,17 @@ interface Rule {
  * version back to draft. A lead may also release directly (the lead decides which versions may be
  * released). Released and retired versions never change.
  */
-const RULES: Record<ReviewAction, Rule> = {
-  edit: { roles: ['lead', 'programmer'], from: ['draft'], to: (s) => s, words: 'edit' },
-  submit: { roles: ['lead', 'programmer'], from: ['draft'], to: () => 'in-review', words: 'submit for review' },
-  approve: { roles: ['reviewer', 'lead'], from: ['in-review'], to: () => 'released', notByAuthor: true, words: 'approve' },
-  'request-changes': { roles: ['reviewer', 'lead'], from: ['in-review'], to: () => 'draft', notByAuthor: true, words: 'send back with changes requested' },
-  retire: { roles: ['lead'], from: ['released'], to: () => 'retired', words: 'retire' },
-  release: { roles: ['lead'], from: ['draft', 'in-review'], to: () => 'released', words: 'release' },
+const RULES: Record<LifecycleAction, Rule> = {
+  edit: { roles: CAN.editTemplates, from: ['draft'], to: (s) => s, words: 'edit' },
+  submit: { roles: CAN.editTemplates, from: ['draft'], to: () => 'in-review', words: 'submit for review' },
+  approve: { roles: CAN.signOff, from: ['in-review'], to: () => 'released', notByAuthor: true, words: 'approve' },
+  'request-changes': { roles: CAN.signOff, from: ['in-review'], to: () => 'draft', notByAuthor: true, words: 'send back with changes requested' },
+  retire: { roles: CAN.releaseTemplates, from: ['released'], to: () => 'retired', words: 'retire' },
+  release: { roles: CAN.releaseTemplates, from: ['draft', 'in-review'], to: () => 'released', words: 'release' },
+  'new-version': { roles: CAN.editTemplates, from: ['draft', 'in-review', 'released', 'retired'], to: (s) => s, words: 'start a new draft from' },
 };
 
-export function transition(state: VersionState, action: ReviewAction, actor: { role: Role; isAuthor: boolean }): Transition {
+export function transition(state: VersionState, action: LifecycleAction, actor: { role: Role; isAuthor: boolean }): Transition {
   const rule = RULES[action];
   if (!rule.roles.includes(actor.role)) return { ok: false, status: 403, message: `Your role (${actor.role}) may not ${rule.words} a version; it takes ${rule.roles.join(' or ')}.` };
   if (!rule.from.includes(state)) {

@@ -61,17 +61,46 @@ export type UpdateUserInput = z.infer<typeof UpdateUserInputSchema>;
 
 export const UpdateMeInputSchema = z.object({ displayUnit: UnitSchema.nullable() });
 
-/** What each role may do; the server enforces it, the client uses it to hide controls it would refuse. */
+/**
+ * What each role may do: the one table of roles. The server's routes declare their access from it,
+ * the client hides controls it would refuse, and the README's Roles table must equal it
+ * (tests/shared/roles-readme.test.ts compares the two).
+ */
 export const CAN = {
   editCatalog: ['lead', 'programmer'] as Role[],
   deleteCatalog: ['lead'] as Role[],
+  editTemplates: ['lead', 'programmer'] as Role[],
+  releaseTemplates: ['lead'] as Role[],
+  signOff: ['lead', 'reviewer'] as Role[],
+  editNaming: ['lead'] as Role[],
   editSettings: ['admin', 'lead'] as Role[],
   manageUsers: ['admin'] as Role[],
   readOutbox: ['admin'] as Role[],
-  editTemplates: ['lead', 'programmer'] as Role[],
-  releaseTemplates: ['lead'] as Role[],
-  editNaming: ['lead'] as Role[],
-  /** The operator at the machine, and the job's authors. */
+  readAudit: ['admin', 'lead'] as Role[],
+  editJobs: ['lead', 'programmer'] as Role[],
+  uploadPartPrograms: ['lead', 'programmer'] as Role[],
+  recordBars: ['lead', 'programmer', 'operator'] as Role[],
   editLoadLists: ['lead', 'programmer', 'operator'] as Role[],
+  backups: ['admin'] as Role[],
 } as const;
-export const may = (role: Role | undefined, action: keyof typeof CAN) => !!role && CAN[action].includes(role);
+export type Action = keyof typeof CAN;
+
+/** How the README's Roles table names each action (one row per action). */
+export const ACTION_WORDS: Record<Action, string> = {
+  editCatalog: 'catalog: create and edit',
+  deleteCatalog: 'catalog: delete',
+  editTemplates: 'templates: edit, submit for review',
+  releaseTemplates: 'templates: release, retire',
+  signOff: 'reviews: approve, request changes',
+  editNaming: 'naming convention: edit',
+  editSettings: 'shop settings: edit',
+  manageUsers: 'users: invite, add, change role, deactivate',
+  readOutbox: 'outbox: read',
+  readAudit: 'audit trail: read',
+  editJobs: 'jobs: create and edit',
+  uploadPartPrograms: 'part programs: upload',
+  recordBars: 'measured bars: record',
+  editLoadLists: 'load lists: edit',
+  backups: 'backups',
+};
+export const may = (role: Role | undefined, action: Action) => !!role && CAN[action].includes(role);

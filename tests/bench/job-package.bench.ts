@@ -18,7 +18,7 @@ import { realServer, timeMedian } from './lib';
 export async function run() {
   const { db, server } = await realServer();
   const audit = auditRepo(db);
-  const templates = templatesService({ db, templates: templatesRepo(db), catalog: catalogRepo(db), naming: namingService(namingRepo(db)), audit });
+  const templates = templatesService({ db, templates: templatesRepo(db), catalog: catalogRepo(db), naming: namingService(namingRepo(db), audit), audit });
   const lead = (await usersRepo(db).findWithHashByEmail('lead@gridset.test'))!;
   const c = railBands(2);
   // 20 center rails × 10 stops in use = 200 stations.

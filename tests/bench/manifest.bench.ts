@@ -154,7 +154,7 @@ async function previewAndCommit(buffer: Buffer) {
   const { usersRepo } = await import('../../server/db/users-repo');
   const { db, server } = await realServer();
   const lead = (await usersRepo(db).findWithHashByEmail('lead@gridset.test'))!;
-  const service = manifestService({ db, catalog: catalogRepo(db), naming: namingService(namingRepo(db)), audit: auditRepo(db) });
+  const service = manifestService({ db, catalog: catalogRepo(db), naming: namingService(namingRepo(db), auditRepo(db)), audit: auditRepo(db) });
   const t0 = performance.now();
   const preview = await service.preview(buffer);
   const t1 = performance.now();

@@ -35,7 +35,7 @@ export async function run() {
   const raw = railBandsWithStations(4, 500);
   const rename = (code: string) => (code === 'JR-16' ? 'JR-1.250' : code);
   const content = { ...raw, components: raw.components.map((c) => ({ ...c, code: rename(c.code) })), placements: raw.placements.map((p) => ({ ...p, component: rename(p.component) })) };
-  const service = templatesService({ db, templates: templatesRepo(db), catalog: catalogRepo(db), naming: namingService(namingRepo(db)), audit: auditRepo(db) });
+  const service = templatesService({ db, templates: templatesRepo(db), catalog: catalogRepo(db), naming: namingService(namingRepo(db), auditRepo(db)), audit: auditRepo(db) });
   const lead = (await usersRepo(db).findWithHashByEmail('lead@gridset.test'))!;
   const { id } = await service.importFile(lead, { ...content, name: 'Bench 500' });
   const answer = await (await fetch(`${base}/api/templates/${id}/versions/1/stations`, { headers })).json();

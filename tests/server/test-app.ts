@@ -1,3 +1,4 @@
+import { afterAll, beforeAll } from 'vitest';
 import { mkdtempSync, rmSync } from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
@@ -5,7 +6,7 @@ import request from 'supertest';
 import { createApp } from '../../server/app';
 import { openDb, migrate, type Db } from '../../server/db/knex';
 import { seedDemoDataIfEmpty, DEMO_PASSWORD } from '../../server/db/seed-demo';
-import type { Role } from '../../shared/schemas/auth';
+import { ROLES, type Role } from '../../shared/schemas/auth';
 
 export interface TestApp {
   app: ReturnType<typeof createApp>;
@@ -66,4 +67,23 @@ export async function tableCounts(db: Db, tables: string[]): Promise<Record<stri
   const out: Record<string, number> = {};
   for (const t of tables) out[t] = Number(((await db(t).count({ n: '*' })) as [{ n: number }])[0].n);
   return out;
+}
+
+/** A test app for the file, with one agent with no session and one signed in per role. */
+export function appWithEveryRole(): { t: TestApp; agents: Map<Role | 'none', Agent> } {
+  const ctx = {} as { t: TestApp; agents: Map<Role | 'none', Agent> };
+  beforeAll(async () => {
+    ctx.t = await makeTestApp();
+    ctx.agents = await agentsForEveryRole(ctx.t);
+  });
+  afterAll(async () => { await ctx.t.close(); });
+  return ctx;
+}
+
+/** One agent with no session and one signed in per role, for tests that call a route as everyone. */
+async function agentsForEveryRole(t: TestApp): Promise<Map<Role | 'none', Agent>> {
+  const agents = new Map<Role | 'none', Agent>();
+  agents.set('none', await t.agent());
+  for (const role of ROLES) agents.set(role, await t.agent(role));
+  return agents;
 }

@@ -84,4 +84,12 @@ describe('review lifecycle (draft → in-review → released → retired; change
     const frozen = transition('released', 'edit', { role: 'programmer', isAuthor: true });
     expect(frozen).toMatchObject({ ok: false, status: 409, message: expect.stringMatching(/released versions never change/) });
   });
+
+  // Starting a new draft from a version leaves that version's state alone, from any state;
+  // only the roles that write templates may (README, Roles: "templates: edit").
+  it.each(VERSION_STATES.flatMap((state) => ROLES.map((role) => ({ state, role }))))('new draft from a $state version by a $role', ({ state, role }) => {
+    const expected = role === 'lead' || role === 'programmer' ? state : '403';
+    const t = transition(state, 'new-version', { role, isAuthor: false });
+    expect(t.ok ? t.to : String(t.status)).toBe(expected);
+  });
 });
