@@ -1,4 +1,4 @@
-import { useId, useMemo, useRef, useState, type FormEvent } from 'react';
+import { useEffect, useId, useMemo, useRef, useState, type FormEvent } from 'react';
 import { useQuery } from '@tanstack/react-query';
 import { Download, Upload } from 'lucide-react';
 import type { JobDetail } from '../../../../shared/schemas/job';
@@ -11,7 +11,7 @@ import { Button } from '../../../components/ui/button';
 import { SelectField, TextField } from '../../../components/ui/field';
 import { ErrorText, Notice } from '../../../components/ui/notice';
 import { parseDecimal } from '../parse-decimal';
-import { partProgramTextQuery, tableProgramUrl, useUploadPartProgram } from '../api';
+import { partProgramTextQuery, tableProgramUrl, useLoadList, useUploadPartProgram } from '../api';
 
 const FAMILY_LABEL: Record<string, string> = { expanded: 'Every coordinate rewritten (one work offset)', ...FAMILY_NAMES };
 
@@ -25,6 +25,12 @@ export function PartProgramPanel({ job, canEdit }: { job: JobDetail; canEdit: bo
   const [family, setFamily] = useState<string>('expanded');
   const [order, setOrder] = useState<'station' | 'tool'>('tool');
   const [skip, setSkip] = useState<number[]>([]);
+  // Stations the load list leaves without a bar are skipped unless the programmer changes it.
+  const loadList = useLoadList(job.id, job.stockChecks.length > 0);
+  const [skipTouched, setSkipTouched] = useState(false);
+  useEffect(() => {
+    if (!skipTouched && loadList.data) setSkip(loadList.data.emptyStations.filter((n) => job.stationsUsed.includes(n)));
+  }, [loadList.data, skipTouched, job.stationsUsed]);
   const [safeZ, setSafeZ] = useState('');
   const [base, setBase] = useState('');
   const needsBase = setsOffsets(family);
@@ -34,7 +40,14 @@ export function PartProgramPanel({ job, canEdit }: { job: JobDetail; canEdit: bo
     : p && safeValue !== null && safeValue < p.minimumSafeZ ? `Safe Z must be at least ${formatLength(p.minimumSafeZ, u)} for this job (stock top or tallest clamp plus a clearance).`
     : skip.length === numbers.length ? 'Every station is skipped; leave at least one.'
     : needsBase && base.trim() === '' ? 'This family sets a work offset per station: give the machine position of the shared offset as x,y,z.' : null;
-  const toggle = (n: number) => setSkip((s) => (s.includes(n) ? s.filter((v) => v !== n) : [...s, n].sort((a, b) => a - b)));
+  const toggle = (n: number) => {
+    setSkipTouched(true);
+    setSkip((s) => (s.includes(n) ? s.filter((v) => v !== n) : [...s, n].sort((a, b) => a - b)));
+  };
+  // Station order changes every tool at every station; tool order once per tool segment.
+  const running = numbers.length - skip.length;
+  const perStation = (p?.toolChanges.length ?? 0) * running;
+  const perTool = p?.toolChanges.length ?? 0;
 
   return (
     <section aria-labelledby="program-title" className="flex flex-col gap-4 border-t border-slate-300 pt-4">
@@ -70,9 +83,12 @@ export function PartProgramPanel({ job, canEdit }: { job: JobDetail; canEdit: bo
               <legend className="text-sm font-semibold text-slate-700">Order</legend>
               <label className="flex min-h-10 items-center gap-2"><input type="radio" name="program-order" checked={order === 'tool'} onChange={() => setOrder('tool')} />By tool: each tool once, over every station</label>
               <label className="flex min-h-10 items-center gap-2"><input type="radio" name="program-order" checked={order === 'station'} onChange={() => setOrder('station')} />By station: each station whole in turn</label>
+              {perTool > 1 && running > 1 ? (
+                <p className="text-sm text-slate-700" data-testid="tool-changes">Tool changes a cycle: <span className="num">{perTool}</span> by tool, <span className="num">{perStation}</span> by station — tool order saves <span className="num font-semibold">{perStation - perTool}</span>.</p>
+              ) : null}
             </fieldset>
             <fieldset className="flex flex-col gap-1">
-              <legend className="text-sm font-semibold text-slate-700">Stations to skip (empty nests; only the stations this job uses are written)</legend>
+              <legend className="text-sm font-semibold text-slate-700">Stations to skip (empty nests; only the stations this job uses are written){loadList.data && !skipTouched ? ' — from the load list' : ''}</legend>
               <div className="flex flex-wrap gap-1">
                 {numbers.map((n) => (
                   <label key={n} className={`flex min-h-10 min-w-12 items-center justify-center gap-1 rounded border px-2 font-mono ${skip.includes(n) ? 'border-slate-900 bg-slate-200' : 'border-slate-400 bg-white'}`}>
