@@ -5,6 +5,7 @@ import { execFileSync } from 'node:child_process';
 import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
+import { parseCanon } from './rs274';
 
 export const RS274 = process.env.RS274_PATH ?? '/usr/bin/rs274';
 
@@ -39,14 +40,8 @@ export function rs274Session(): Rs274Session {
         const err = e as { stdout?: string; stderr?: string; status?: number };
         return { canon: [], errors: [`rs274 exited with status ${err.status}`, err.stdout ?? '', err.stderr ?? ''] };
       }
-      const canon: Rs274Run['canon'] = [];
-      const errors: string[] = [];
-      for (const line of out.split('\n')) {
-        const m = /^\s*\d+ N\.{5} ([A-Z0-9_]+)\((.*)\)\s*$/.exec(line);
-        if (m) canon.push({ name: m[1]!, args: m[2]!.split(/[ ,]+/).map(Number).filter((v) => !Number.isNaN(v)) });
-        else if (line.trim() && line.trim() !== 'executing') errors.push(line);
-      }
-      return { canon, errors };
+      const parsed = parseCanon(out);
+      return { canon: parsed.canon.map((c) => ({ name: c.kind, args: c.args })), errors: parsed.errors };
     },
     params() {
       const map = new Map<number, number>();

@@ -7,6 +7,18 @@ import path from 'node:path';
 
 export interface Canon { kind: string; args: number[]; text: string }
 
+/** rs274's output: one canonical machine command a line ("  12 N..... NAME(args)"), anything else an error line. */
+export function parseCanon(out: string): { canon: Canon[]; errors: string[] } {
+  const canon: Canon[] = [];
+  const errors: string[] = [];
+  for (const line of out.split('\n')) {
+    const m = /^\s*\d+ N\.{5} ([A-Z0-9_]+)\((.*)\)\s*$/.exec(line);
+    if (m) canon.push({ kind: m[1]!, args: m[2]!.split(/[ ,]+/).map(Number).filter((v) => !Number.isNaN(v)), text: m[2]! });
+    else if (line.trim() && line.trim() !== 'executing') errors.push(line);
+  }
+  return { canon, errors };
+}
+
 /** A tool table line per LinuxCNC's format: `T1 P1 Z1.0 D0.25`. */
 /** Each run has its own HOME and folder: rs274 keeps its tool table in $HOME/.tool.mmap, which parallel runs would share. */
 export function runRs274(program: string, tools: { t: number; z: number; d: number }[]): { canon: Canon[]; errors: string[] } {
@@ -14,7 +26,6 @@ export function runRs274(program: string, tools: { t: number; z: number; d: numb
   try {
     writeFileSync(path.join(dir, 'tools.tbl'), tools.map((t) => `T${t.t} P${t.t} Z${t.z} D${t.d} ;test tool`).join('\n') + '\n');
     writeFileSync(path.join(dir, 'p.ngc'), program);
-    const canon: Canon[] = [];
     const errors: string[] = [];
     let out: string;
     try {
@@ -24,14 +35,8 @@ export function runRs274(program: string, tools: { t: number; z: number; d: numb
       out = `${err.stdout ?? ''}\n${err.stderr ?? ''}`;
       errors.push(`rs274 exited with status ${err.status}`);
     }
-    for (const line of out.split('\n')) {
-      const m = /^\s*\d+ N\.{5} ([A-Z0-9_]+)\((.*)\)\s*$/.exec(line);
-      if (m) {
-        const args = m[2]!.split(/[ ,]+/).map(Number).filter((v) => !Number.isNaN(v));
-        canon.push({ kind: m[1]!, args, text: m[2]! });
-      } else if (line.trim() && line.trim() !== 'executing') errors.push(line);
-    }
-    return { canon, errors };
+    const parsed = parseCanon(out);
+    return { canon: parsed.canon, errors: [...errors, ...parsed.errors] };
   } finally {
     rmSync(dir, { recursive: true, force: true });
   }
