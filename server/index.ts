@@ -27,7 +27,9 @@ async function main() {
     https: config.https,
     trustProxy: config.trustProxy,
   });
-  const server = app.listen(config.port, () => {
+  // Express 5 calls this back with the error too when the port cannot be had; 'error' below says it.
+  const server = app.listen(config.port, (err?: Error) => {
+    if (err) return;
     console.log(`Gridset is serving http://localhost:${config.port} (data in ${config.dataDir})`);
     console.log(config.smtpUrl ? 'Mail goes out by SMTP (SMTP_URL).' : `Mail stays in the local outbox (${path.join(config.dataDir, 'outbox')}); admins read it under Outbox.`);
   });

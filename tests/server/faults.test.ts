@@ -72,10 +72,14 @@ describe('start-up faults: a message and a non-zero exit', () => {
     try {
       const child = spawn(process.execPath, ['--import', 'tsx', 'server/index.ts'], { env: { ...process.env, PORT: String(port), GRIDSET_DATA_DIR: dataDir, SESSION_SECRET: 'test' }, stdio: ['ignore', 'pipe', 'pipe'] });
       let stderr = '';
+      let stdout = '';
       child.stderr.on('data', (d: Buffer) => { stderr += d.toString(); });
+      child.stdout.on('data', (d: Buffer) => { stdout += d.toString(); });
       const code = await new Promise<number | null>((resolve) => child.on('exit', resolve));
       expect(code).not.toBe(0);
       expect(stderr).toContain(`port ${port} is taken`);
+      // …and never claims to be serving.
+      expect(stdout).not.toMatch(/is serving/);
     } finally {
       taken.close();
       rmSync(dataDir, { recursive: true, force: true });
