@@ -130,6 +130,7 @@ ${svg}
 ${v.placements.map((p) => `<tr><td>${esc(p.id)}</td><td>${esc(p.component)}</td><td class="n">(${p.hole.col}, ${p.hole.row})</td><td class="n">${p.rotation}°</td><td>${esc(byCode.get(p.component) ? componentLayer(byCode.get(p.component)!) : '')}</td><td>${(p.stopsInUse ?? []).map((s) => s + 1).join(', ') || '—'}</td></tr>`).join('\n')}
 </tbody></table>
 <h2>Stations (translation from the shared offset, ${u})</h2>
+<p>Z0 is the shared offset's Z0 (the plate deck under a grid-hole or center offset); each station's Z is its part seat above it.</p>
 <table><thead><tr><th>Station</th><th>X</th><th>Y</th><th>Z</th><th>C</th><th>Width held</th><th>Placement</th></tr></thead><tbody>
 ${used.stations.map((s) => `<tr><td class="n">${s.number}</td><td class="n">${formatNumber(s.x, u)}</td><td class="n">${formatNumber(s.y, u)}</td><td class="n">${formatNumber(s.z, u)}</td><td class="n">${formatNumber(s.c, 'mm')}°</td><td class="n">${s.nominalWidth === null ? '—' : formatNumber(s.nominalWidth, u)}</td><td>${esc(s.placement)}</td></tr>`).join('\n')}
 </tbody></table>
