@@ -15,6 +15,7 @@ import { settingsRepo } from './db/settings-repo';
 import { usersService } from './services/users';
 import { catalogService } from './services/catalog';
 import { apiNotFound, errorHandler } from './middleware/errors';
+import { uploadLimit } from './middleware/upload-limit';
 import { mount, type RouteDef } from './routes/route-table';
 import { authRoutes } from './routes/auth';
 import { userRoutes } from './routes/users';
@@ -60,6 +61,8 @@ export interface AppDeps {
   publicUrl?: string;
   /** Where unexpected errors are logged; tests pass a collector. */
   log?: (err: unknown) => void;
+  /** Uploads one signed-in user may send in 15 minutes (UPLOAD_LIMIT by default); the fuzz tests raise it to reach the readers. */
+  uploadsPer15Minutes?: number;
   /** Served to browsers over HTTPS (GRIDSET_HTTPS=1): every answer then asks for HTTPS only. */
   https?: boolean;
   /** Express's `trust proxy` (TRUST_PROXY): which proxies' X-Forwarded-* headers to believe; loopback by default. */
@@ -133,15 +136,16 @@ export function createApp(deps: AppDeps): GridsetApp {
     },
   });
   api.use(csrfSynchronisedProtection);
+  api.use(uploadLimit(db, deps.uploadsPer15Minutes));
 
   const routes: RouteDef[] = [
     { method: 'get', path: '/health', access: 'public', handler: async (_req, res) => {
       await db.raw('select 1');
       res.json({ ok: true });
     } },
-    ...authRoutes({ users, passport, csrfToken: (req, overwrite) => generateToken(req, overwrite) }),
+    ...authRoutes({ users, passport, csrfToken: (req, overwrite) => generateToken(req, overwrite), db }),
     ...userRoutes(users),
-    ...accountLinkRoutes(accountLinks),
+    ...accountLinkRoutes(accountLinks, db),
     ...outboxRoutes(outboxRepo(db)),
     ...catalogRoutes(catalog),
     ...settingsRoutes(settings, audit),

@@ -7,6 +7,7 @@ import * as jobs from '../../migrations/20261201040000_jobs';
 import * as seatHeight from '../../migrations/20261205020000_seat_height';
 import * as loadLists from '../../migrations/20261205030000_load_lists';
 import * as jobPartRotation from '../../migrations/20261205040000_job_part_rotation';
+import * as rateLimits from '../../migrations/20261205095000_rate_limits';
 import * as partPrograms from '../../migrations/20261205080000_part_programs';
 
 // Migrations are imported statically so the same list runs under tsx, vitest and the bench
@@ -21,6 +22,7 @@ const MIGRATIONS: Record<string, Knex.Migration> = {
   '20261205030000_load_lists': loadLists,
   '20261205040000_job_part_rotation': jobPartRotation,
   '20261205080000_part_programs': partPrograms,
+  '20261205095000_rate_limits': rateLimits,
 };
 
 export const migrationSource: Knex.MigrationSource<string> = {

@@ -4,18 +4,21 @@ import { currentUser } from '../middleware/auth';
 import { FORGOT_PASSWORD_ANSWER, type AccountLinksService } from '../services/account-links';
 import { parseOr400 } from './parse';
 import type { RouteDef } from './route-table';
+import type { Db } from '../db/knex';
+import { DbRateLimitStore } from '../db/rate-limit-store';
 
 const RESET_REQUEST_LIMIT = 5;
 const RESET_REQUEST_WINDOW_MS = 15 * 60 * 1000;
 
 /** Invitations (admin) and the two public pages a mailed link leads to. */
-export function accountLinkRoutes(links: AccountLinksService): RouteDef[] {
+export function accountLinkRoutes(links: AccountLinksService, db: Db): RouteDef[] {
   // Counted per address, like failed sign-ins, so nobody can fill one person's mailbox or the outbox.
   // Unknown addresses count the same, so a 429 says nothing about whether an account exists.
   const resetRequests = rateLimit({
     windowMs: RESET_REQUEST_WINDOW_MS,
     limit: RESET_REQUEST_LIMIT,
     keyGenerator: (req) => `reset:${String(req.body?.email ?? '').trim().toLowerCase()}`,
+    store: new DbRateLimitStore(db, 'reset:'),
     standardHeaders: 'draft-7',
     legacyHeaders: false,
     handler: (_req, res) => {

@@ -10,7 +10,7 @@ import { buildCases, formatReport, runCases } from './drive';
 
 const n = Number(process.env.FUZZ_N ?? 2000);
 const seed = Number(process.env.FUZZ_SEED ?? Date.now() % 2 ** 31);
-const t = await makeTestApp();
+const t = await makeTestApp({ uploadsPer15Minutes: 1_000_000 });
 try {
   const lead = await t.agent('lead');
   const started = Date.now();

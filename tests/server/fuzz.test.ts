@@ -13,7 +13,7 @@ const PER_ROUTE = 300;
 const SEED = 20261205;
 
 let t: TestApp;
-beforeAll(async () => { t = await makeTestApp(); });
+beforeAll(async () => { t = await makeTestApp({ uploadsPer15Minutes: 1_000_000 }); });
 afterAll(async () => { await t.close(); });
 
 describe('fuzz: every upload and JSON write route', () => {

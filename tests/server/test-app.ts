@@ -29,13 +29,13 @@ export interface Agent {
 }
 
 /** A fresh SQLite file per call, migrated and seeded with the demo shop. */
-export async function makeTestApp(opts: { seed?: boolean } = {}): Promise<TestApp> {
+export async function makeTestApp(opts: { seed?: boolean; uploadsPer15Minutes?: number } = {}): Promise<TestApp> {
   const dataDir = mkdtempSync(path.join(os.tmpdir(), 'gridset-test-'));
   const db = openDb(path.join(dataDir, 'test.sqlite'));
   await migrate(db);
   if (opts.seed !== false) await seedDemoDataIfEmpty(db);
   const errors: unknown[] = [];
-  const app = createApp({ db, sessionSecret: 'test-secret', dataDir, log: (e) => errors.push(e) });
+  const app = createApp({ db, sessionSecret: 'test-secret', dataDir, log: (e) => errors.push(e), uploadsPer15Minutes: opts.uploadsPer15Minutes });
   return {
     app, db, dataDir, errors,
     async agent(role) {
