@@ -148,7 +148,7 @@ export function createApp(deps: AppDeps): GridsetApp {
     ...accountLinkRoutes(accountLinks, db),
     ...outboxRoutes(outboxRepo(db)),
     ...catalogRoutes(catalog),
-    ...settingsRoutes(settings, audit),
+    ...settingsRoutes(settings, audit, { dataDir: deps.dataDir, databaseFile: (db.client.config.connection as { filename: string }).filename }),
     ...templateRoutes(templates, settings),
     ...stockCheckRoutes({ dataDir: deps.dataDir, uploadLimitBytes: deps.uploadLimitBytes ?? 20 * 1024 * 1024 }),
     ...namingRoutes(naming),

@@ -4,10 +4,17 @@ import type { SettingsRepo } from '../db/settings-repo';
 import type { AuditRepo } from '../db/audit-repo';
 import { currentUser } from '../middleware/auth';
 import { parseOr400 } from './parse';
+import { createBackup } from '../backup/archive';
 import type { RouteDef } from './route-table';
 
-export function settingsRoutes(settings: SettingsRepo, audit: AuditRepo): RouteDef[] {
+export function settingsRoutes(settings: SettingsRepo, audit: AuditRepo, backup: { dataDir: string; databaseFile: string }): RouteDef[] {
   return [
+    // An admin takes the whole shop home: the database and the stored files, in one checked archive.
+    { method: 'get', path: '/admin/backup', access: CAN.backups, handler: async (req, res) => {
+      const { zip, manifest } = await createBackup(backup.dataDir, backup.databaseFile);
+      await audit.audited(async () => manifest, (m) => ({ userId: currentUser(req).id, action: 'backup.download', objectType: 'backup', objectId: m.createdAt, summary: `Downloaded a backup: the database and ${m.files.length} stored files` }));
+      res.attachment(`gridset-backup-${manifest.createdAt.replace(/[:.]/g, '-')}.zip`).type('application/zip').send(zip);
+    } },
     { method: 'get', path: '/settings', access: 'signed-in', handler: async (_req, res) => {
       res.json(await settings.get());
     } },

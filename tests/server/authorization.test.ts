@@ -72,6 +72,7 @@ const EXPECTED: Record<string, typeof PUBLIC | typeof SIGNED_IN | Action> = {
   'PUT /jobs/:id': 'editJobs',
   'POST /jobs/:id/stock-check': 'recordBars',
   'GET /jobs/:id/load-list': SIGNED_IN,
+  'GET /admin/backup': 'backups',
   'PUT /jobs/:id/load-list': 'editLoadLists',
   'GET /jobs/:id/setup-sheet.html': SIGNED_IN,
   'GET /jobs/:id/package.zip': SIGNED_IN,
