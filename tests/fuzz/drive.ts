@@ -6,7 +6,7 @@
 import type request from 'supertest';
 import type { Agent, TestApp } from '../server/test-app';
 import {
-  dxfSeeds, makeRng, mutateBytes, mutateDxf, mutateJson, mutateXlsx, namedHostileDxf, namedHostileXlsx, xlsxFixtures, type Rng,
+  dxfSeeds, gcodeSeeds, hostileQuery, makeRng, mutateBytes, mutateDxf, mutateJson, mutateXlsx, namedHostileDxf, namedHostileGcode, namedHostileXlsx, xlsxFixtures, type Rng,
 } from './inputs';
 
 type Json = Parameters<typeof mutateJson>[1];
@@ -118,6 +118,8 @@ export async function buildCases(t: TestApp, a: Agent, perRoute: number, seed: n
   uploadRoute('POST /api/manifest/commit', '/api/manifest/commit', xlsxs, namedXlsx, (s) => mutateXlsx(rng, s));
   uploadRoute('POST /api/stock-check/bars-file', '/api/stock-check/bars-file', xlsxs, namedXlsx, (s) => (rng.next() < 0.8 ? mutateXlsx(rng, s) : Buffer.from(`id,width,thickness,corner radius\n${'B1,1,0.5,0.02\n'.repeat(rng.pick([1, 10_001]))}`)));
 
+  uploadRoute('POST /api/jobs/:id/part-program', `/api/jobs/${job.id}/part-program`, gcodeSeeds(), namedHostileGcode(), (s) => mutateBytes(rng, s));
+
   const jsonRoute = (name: string, method: 'post' | 'put', url: () => string, base: () => Json, named: Array<[string, Json]> = []) => {
     const mk = json(name, method, url);
     routes.push({ name, named: named.map(([l, b]) => mk(l, b)), make: () => mk('mutated', mutateJson(rng, base())), raw: [method, url()] });
@@ -137,6 +139,12 @@ export async function buildCases(t: TestApp, a: Agent, perRoute: number, seed: n
   jsonRoute('PUT /api/naming/convention', 'put', () => '/api/naming/convention', () => ({ layer: convention.layer, component: convention.component }));
   jsonRoute('PUT /api/settings', 'put', () => '/api/settings', () => settings);
   jsonRoute('POST /api/templates/:id/versions', 'post', () => '/api/templates/1/versions', () => ({ from: 1 }));
+  const loadList = await get(`/api/jobs/${job.id}/load-list`);
+  jsonRoute('PUT /api/jobs/:id/load-list', 'put', () => `/api/jobs/${job.id}/load-list`, () => ({ rails: loadList.rails.map((r: { jawPlacement: string; setting: number; stations: unknown[] }) => ({ jawPlacement: r.jawPlacement, setting: r.setting, stations: r.stations })) }));
+  // The G-code downloads read only their query: every answer a file or a 4xx, never a 5xx.
+  const queryRoute = (name: string, url: string) => routes.push({ name, named: [], make: () => ({ route: name, label: 'query', send: (ag) => ag.get(`${url}?${hostileQuery(rng)}`) }) });
+  queryRoute('GET /api/templates/:id/versions/:n/offsets.nc', '/api/templates/1/versions/1/offsets.nc');
+  queryRoute('GET /api/jobs/:id/program.nc', `/api/jobs/${job.id}/program.nc`);
   jsonRoute('POST /api/templates/:id/versions/:n/release', 'post', () => `/api/templates/${draftId}/versions/1/release`, () => ({ waiver: 'Checked on the machine by the lead.' }));
 
   // Keep the draft's revision current so saves are judged on their content, not refused as stale.

@@ -203,3 +203,36 @@ export function mutateJson(rng: Rng, body: Json): Json {
   }
   return root;
 }
+
+/** A posted part program of the supported subset (G-code words: NISTIR 6556; canned cycles: LinuxCNC G-code reference). */
+export function gcodeSeeds(): Buffer[] {
+  return [
+    ['%', 'O1000 (BRACKET)', 'G20 G17 G40 G49 G80 G90', 'T4 M6', 'S8000 M3', 'G54', 'G0 X0 Y0', 'G43 H4 Z1.0', 'G1 Z-0.1 F20', 'G2 X1 Y0 I0.5 J0 F30', 'G0 Z1', 'T7 M6', 'G43 H7 Z1', 'G81 G98 X0.5 Y0.25 Z-0.3 R0.1 F10', 'G80', 'G91 G28 Z0', 'M30', '%'].join('\n'),
+    ['G21 G90 G17', 'T1 M6', 'S2000 M3 M8', 'G54 G0 X10 Y5', 'G43 H1 Z25', 'G1 Z-2 F100', 'G3 X20 Y5 R5', 'G0 Z25', 'M9 M5', 'M2'].join('\n'),
+  ].map((t) => Buffer.from(t));
+}
+
+/** Programs that must be refused with a line number, and ones that try the size limits. */
+export function namedHostileGcode(): { name: string; file: Buffer }[] {
+  const head = 'G20 G90 G17\nT1 M6\nG54 G0 X0 Y0\n';
+  return [
+    ['G92 in the part', `${head}G92 X0 Y0\nM30\n`],
+    ['subprogram call', `${head}M98 P2000\nM30\n`],
+    ['G68 rotation', `${head}G68 X0 Y0 R45\nM30\n`],
+    ['parameters', `${head}#1=5\nG1 X#1 F10\nM30\n`],
+    ['G28 in XY', `${head}G28 X0 Y0\nM30\n`],
+    ['200,001 lines', head + 'G1 X0.1 F10\n'.repeat(200_001)],
+    ['one line of 100,000 characters', `${head}(${'A'.repeat(100_000)})\nM30\n`],
+    ['binary', Buffer.from(Array.from({ length: 4096 }, (_, i) => (i * 37) % 256)).toString('latin1')],
+    ['coordinate 1e308', `${head}G1 X1e308 F10\nM30\n`],
+    ['empty', ''],
+  ].map(([name, text]) => ({ name: name!, file: Buffer.from(text!, 'latin1') }));
+}
+
+/** A query string from hostile pieces, for the G-code download routes. */
+export function hostileQuery(rng: Rng): string {
+  const values = ['ngc-g10', 'ngc-g52', 'ext-l20', 'shift-rotate', 'expanded', 'standard', 'extended', 'g10', 'g52', '', 'x'.repeat(5000), '%00', '1,2,3', '1e308,0,0', '-0,-0,-0', 'NaN,1,2', '0,0', '3,7', '999999', '-1', '1.5', 'station', 'tool', '[]', '{}'];
+  const keys = ['family', 'dialect', 'mode', 'base', 'first', 'order', 'skip', 'safeZ'];
+  const n = 1 + Math.floor(rng.next() * 5);
+  return Array.from({ length: n }, () => `${rng.pick(keys)}=${encodeURIComponent(rng.pick(values))}`).join('&');
+}
