@@ -90,7 +90,8 @@ export function WindowChart({ input }: { input: ChartInput }) {
     });
   }
 
-  const width = Math.max(480, boxWidth);
+  // Never wider than its box (a 390 px phone leaves about 340 px): the lanes and ticks thin out instead.
+  const width = Math.max(300, boxWidth);
   const plotL = LEFT;
   const plotR = width - RIGHT;
   const windows = lanes.flatMap((l) => (l.band ? [l.band] : []));

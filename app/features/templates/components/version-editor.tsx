@@ -117,6 +117,7 @@ export function VersionEditor({ templateId, version, catalog, displayUnit, canEd
       {evaluation.pairings.length ? (
         <section aria-labelledby="pairings-title" className="flex flex-col gap-2">
           <h2 id="pairings-title" className="text-lg font-semibold">Widths held</h2>
+          <div className="max-w-full overflow-x-auto">
           <table className="w-fit border-collapse rounded border border-slate-300 bg-white text-[15px]">
             <thead className="bg-slate-100"><tr>{['Fixed jaw', 'Jaw rail', 'On hole', 'Width held', 'Stations'].map((h) => <th key={h} className="px-3 py-2 text-left">{h}</th>)}</tr></thead>
             <tbody>
@@ -131,6 +132,7 @@ export function VersionEditor({ templateId, version, catalog, displayUnit, canEd
               ))}
             </tbody>
           </table>
+          </div>
         </section>
       ) : null}
       <div className="grid grid-cols-1 gap-4 lg:grid-cols-2">
