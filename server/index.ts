@@ -50,7 +50,7 @@ async function main() {
 
 main().catch((err: NodeJS.ErrnoException) => {
   // A data folder the server cannot write is said in one line, not as a stack.
-  const folder = ['EACCES', 'EROFS', 'ENOSPC', 'EPERM', 'SQLITE_CANTOPEN', 'SQLITE_READONLY'].includes(String(err?.code));
+  const folder = ['EACCES', 'EROFS', 'ENOSPC', 'EPERM', 'ENOTDIR', 'SQLITE_CANTOPEN', 'SQLITE_READONLY'].includes(String(err?.code));
   console.error(folder ? `Gridset cannot start: its data folder cannot be written (${err.message}). Check GRIDSET_DATA_DIR and its permissions and free space.` : err);
   process.exit(1);
 });

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { spawn } from 'node:child_process';
 import { createServer, type Server } from 'node:net';
-import { mkdtempSync, rmSync } from 'node:fs';
+import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import express from 'express';
@@ -83,6 +83,23 @@ describe('start-up faults: a message and a non-zero exit', () => {
     } finally {
       taken.close();
       rmSync(dataDir, { recursive: true, force: true });
+    }
+  }, 60_000);
+
+  it('a data folder that cannot be made (its parent is a file)', async () => {
+    // Root may write anywhere, so the folder is made impossible rather than forbidden: a file stands where its parent should.
+    const dir = mkdtempSync(path.join(os.tmpdir(), 'gridset-nodir-'));
+    try {
+      writeFileSync(path.join(dir, 'not-a-folder'), 'x');
+      const child = spawn(process.execPath, ['--import', 'tsx', 'server/index.ts'], { env: { ...process.env, PORT: '0', GRIDSET_DATA_DIR: path.join(dir, 'not-a-folder', 'data'), SESSION_SECRET: 'test' }, stdio: ['ignore', 'pipe', 'pipe'] });
+      let stderr = '';
+      child.stderr.on('data', (d: Buffer) => { stderr += d.toString(); });
+      const code = await new Promise<number | null>((resolve) => child.on('exit', resolve));
+      expect(code).not.toBe(0);
+      expect(stderr.trim().split('\n')).toHaveLength(1);
+      expect(stderr).toMatch(/^Gridset cannot start: its data folder cannot be written \(ENOTDIR/);
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
     }
   }, 60_000);
 });
