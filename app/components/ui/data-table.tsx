@@ -53,7 +53,8 @@ export function DataTable<Row extends RowData>({ columns, data, filter = '', cap
   });
   const rows = table.getRowModel().rows;
   return (
-    <div className="overflow-x-auto rounded border border-slate-300 bg-white">
+    // relative: the visually hidden caption (absolutely placed) stays inside the scroller instead of widening the page.
+    <div className="relative overflow-x-auto rounded border border-slate-300 bg-white">
       <table className="w-full border-collapse text-[15px]">
         <caption className="sr-only">{caption}</caption>
         <thead className="bg-slate-100">

@@ -27,7 +27,7 @@ export function PairingTable({ rails, stations, used, unit, selected, onSelect, 
       {rails.length === 0 ? (
         <p className="rounded border border-slate-300 bg-white p-3 text-slate-800">No jaw rail of this template faces a fixed jaw, so there is no clamp window to check bars against.</p>
       ) : (
-        <div className="overflow-x-auto rounded border border-slate-300 bg-white">
+        <div className="relative overflow-x-auto rounded border border-slate-300 bg-white">
           <table className="w-full border-collapse text-[15px]">
             <caption className="sr-only">Jaw rails of the pinned template, the stations of each the job uses, and the rail whose check is shown</caption>
             <thead className="bg-slate-100">

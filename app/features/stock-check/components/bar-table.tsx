@@ -129,7 +129,7 @@ export function BarTable({ rows, onRowsChange, unit, problems, onCellEdit }: {
   const unitNote = unit ? ` (${unit})` : '';
   return (
     <div className="flex flex-col gap-2">
-      <div className="overflow-x-auto rounded border border-slate-300 bg-white">
+      <div className="relative overflow-x-auto rounded border border-slate-300 bg-white">
         <table className="w-full border-collapse text-base">
           <caption className="sr-only">Measured bars: id, width, thickness and corner radius{unitNote}</caption>
           <thead className="bg-slate-100 text-[15px]">
