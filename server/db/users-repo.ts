@@ -1,4 +1,5 @@
 import type { Db } from './knex';
+import { isoTime } from './dialect';
 import type { Role, User } from '../../shared/schemas/auth';
 import type { Unit } from '../../shared/schemas/common';
 
@@ -21,7 +22,7 @@ const toUser = (r: UserRow): User => ({
   active: !!r.active,
   displayUnit: r.display_unit ?? null,
   invited: r.password_hash === null,
-  createdAt: String(r.created_at),
+  createdAt: isoTime(r.created_at),
 });
 
 export function usersRepo(db: Db) {

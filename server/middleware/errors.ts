@@ -1,5 +1,6 @@
 import type { ErrorRequestHandler, RequestHandler } from 'express';
 import { ZodError } from 'zod';
+import { isUniqueViolation } from '../db/dialect';
 
 /** The one error type routes and services throw; the handler below turns it into the error body. */
 export class HttpError extends Error {
@@ -62,6 +63,8 @@ export function unavailableMessage(err: unknown): string | null {
   return UNAVAILABLE[code] ?? UNAVAILABLE[code.split('_').slice(0, 2).join('_')] ?? null;
 }
 
+export const UNIQUE_RACE_MESSAGE = 'Someone else saved the same code, name or version number at the same moment; reload the page and try again.';
+
 export function errorHandler(log: (err: unknown) => void = console.error): ErrorRequestHandler {
   return (err, _req, res, _next) => {
     if (res.headersSent) {
@@ -89,6 +92,12 @@ export function errorHandler(log: (err: unknown) => void = console.error): Error
             ? 'The request body is too large.'
             : String(err.message || 'The request was refused.');
       res.status(status).json({ error: { code: err.code ? String(err.code).toLowerCase() : 'bad-request', message, details: null } });
+      return;
+    }
+    // Two requests that raced for the same code, name or next number: the second one's insert hits
+    // the database's unique constraint. The first was saved; the second answers 409, saving nothing.
+    if (isUniqueViolation(err)) {
+      res.status(409).json({ error: { code: 'conflict', message: UNIQUE_RACE_MESSAGE, details: null } });
       return;
     }
     const unavailable = unavailableMessage(err);

@@ -5,6 +5,7 @@ import type { ReviewAction } from '../../shared/review/lifecycle';
 import { compareVersions } from '../../shared/compare/compare-versions';
 import { versionNamingProblems } from '../../shared/naming/version-names';
 import type { Db } from '../db/knex';
+import { isoTime } from '../db/dialect';
 import type { UsersRepo } from '../db/users-repo';
 import { HttpError } from '../middleware/errors';
 import type { NamingService } from './naming';
@@ -79,7 +80,7 @@ export function reviewsService(deps: Deps) {
     async reviews(templateId: number, number: number) {
       const v = await templates.requireVersion(templateId, number);
       const rows = await db('version_reviews as r').leftJoin('users as u', 'u.id', 'r.user_id').where('r.version_id', v.row.id).select('r.action', 'r.comment', 'r.created_at', 'u.name', 'u.email').orderBy('r.id');
-      return rows.map((r) => ({ action: r.action, comment: r.comment, at: String(r.created_at), by: r.name ?? null, byEmail: r.email ?? null }));
+      return rows.map((r) => ({ action: r.action, comment: r.comment, at: isoTime(r.created_at), by: r.name ?? null, byEmail: r.email ?? null }));
     },
     async diff(templateId: number, from: number, to: number): Promise<VersionDiff> {
       const [a, b] = await Promise.all([templates.requireVersion(templateId, from), templates.requireVersion(templateId, to)]);

@@ -1,4 +1,5 @@
 import { afterAll, beforeAll } from 'vitest';
+import { randomBytes } from 'node:crypto';
 import { mkdtempSync, rmSync } from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
@@ -28,10 +29,48 @@ export interface Agent {
   delete(url: string): request.Test;
 }
 
-/** A fresh SQLite file per call, migrated and seeded with the demo shop. */
+/**
+ * True in the server-pg test project (GRIDSET_TEST_PG=1 with TEST_DATABASE_URL set): every test app
+ * runs on a fresh PostgreSQL database instead of a SQLite file.
+ */
+export const ON_POSTGRES = process.env.GRIDSET_TEST_PG === '1' && !!process.env.TEST_DATABASE_URL;
+
+/** Why a test of SQLite's own file handling does not run on PostgreSQL. */
+export const SQLITE_ONLY = 'SQLite-specific: it works on the SQLite file itself';
+
+/**
+ * A new, empty PostgreSQL database named gridset_t_<random>, made through the admin URL in
+ * TEST_DATABASE_URL; `drop` ends its connections and removes it.
+ */
+export async function createTestDatabase(adminUrl = process.env.TEST_DATABASE_URL!): Promise<{ url: string; drop(): Promise<void> }> {
+  const name = `gridset_t_${randomBytes(6).toString('hex')}`;
+  const admin = openDb(adminUrl);
+  try {
+    await admin.raw(`CREATE DATABASE ${name}`);
+  } finally {
+    await admin.destroy();
+  }
+  const url = new URL(adminUrl);
+  url.pathname = `/${name}`;
+  return {
+    url: url.toString(),
+    async drop() {
+      const a = openDb(adminUrl);
+      try {
+        await a.raw('SELECT pg_terminate_backend(pid) FROM pg_stat_activity WHERE datname = ? AND pid <> pg_backend_pid()', [name]);
+        await a.raw(`DROP DATABASE IF EXISTS ${name}`);
+      } finally {
+        await a.destroy();
+      }
+    },
+  };
+}
+
+/** A fresh database per call (a SQLite file, or a PostgreSQL database in the server-pg project), migrated and seeded with the demo shop. */
 export async function makeTestApp(opts: { seed?: boolean; uploadsPer15Minutes?: number } = {}): Promise<TestApp> {
   const dataDir = mkdtempSync(path.join(os.tmpdir(), 'gridset-test-'));
-  const db = openDb(path.join(dataDir, 'test.sqlite'));
+  const pg = ON_POSTGRES ? await createTestDatabase() : null;
+  const db = openDb(pg ? pg.url : path.join(dataDir, 'test.sqlite'));
   await migrate(db);
   if (opts.seed !== false) await seedDemoDataIfEmpty(db);
   const errors: unknown[] = [];
@@ -58,6 +97,7 @@ export async function makeTestApp(opts: { seed?: boolean; uploadsPer15Minutes?: 
     },
     async close() {
       await db.destroy();
+      await pg?.drop();
       rmSync(dataDir, { recursive: true, force: true });
     },
   };
