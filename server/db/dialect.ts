@@ -88,3 +88,6 @@ export function isUniqueViolation(err: unknown): boolean {
   const code = (err as { code?: unknown } | null)?.code;
   return code === '23505' || code === 'SQLITE_CONSTRAINT_UNIQUE' || code === 'SQLITE_CONSTRAINT_PRIMARYKEY';
 }
+
+/** PostgreSQL SQLSTATE 22003 numeric_value_out_of_range: a number too large for its column (SQLite stores any size). */
+export const isOutOfRange = (err: unknown): boolean => (err as { code?: unknown } | null)?.code === '22003';

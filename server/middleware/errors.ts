@@ -1,6 +1,6 @@
 import type { ErrorRequestHandler, RequestHandler } from 'express';
 import { ZodError } from 'zod';
-import { isUniqueViolation } from '../db/dialect';
+import { isOutOfRange, isUniqueViolation } from '../db/dialect';
 
 /** The one error type routes and services throw; the handler below turns it into the error body. */
 export class HttpError extends Error {
@@ -98,6 +98,10 @@ export function errorHandler(log: (err: unknown) => void = console.error): Error
     // the database's unique constraint. The first was saved; the second answers 409, saving nothing.
     if (isUniqueViolation(err)) {
       res.status(409).json({ error: { code: 'conflict', message: UNIQUE_RACE_MESSAGE, details: null } });
+      return;
+    }
+    if (isOutOfRange(err)) {
+      res.status(400).json({ error: { code: 'bad-request', message: 'A number in the request is too large to store; use a smaller one.', details: null } });
       return;
     }
     const unavailable = unavailableMessage(err);

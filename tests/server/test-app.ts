@@ -103,6 +103,37 @@ export async function makeTestApp(opts: { seed?: boolean; uploadsPer15Minutes?: 
   };
 }
 
+/** The names of the app's tables, from the database's own catalog (sqlite_master, or information_schema on PostgreSQL). */
+export async function tableNames(db: Db): Promise<string[]> {
+  if (db.client.dialect === 'postgresql') {
+    const r = (await db.raw("select table_name as name from information_schema.tables where table_schema = current_schema() and table_type = 'BASE TABLE' order by 1")) as { rows: { name: string }[] };
+    return r.rows.map((x) => x.name);
+  }
+  const rows = (await db.raw("select name from sqlite_master where type = 'table' order by 1")) as { name: string }[];
+  return rows.map((x) => x.name);
+}
+
+/**
+ * Makes the database refuse (abort) every audit line with `action`, until the returned function is
+ * called: a fault injected to check that a write and its audit line share one transaction. A SQLite
+ * temporary trigger with RAISE(ABORT) (sqlite.org/lang_createtrigger.html), or a PL/pgSQL trigger
+ * that raises an exception (PostgreSQL manual, 43.10 "Trigger Functions").
+ */
+export async function refuseAuditAction(db: Db, action: string): Promise<() => Promise<void>> {
+  if (db.client.dialect === 'postgresql') {
+    await db.raw(`CREATE OR REPLACE FUNCTION refuse_audit() RETURNS trigger AS $$ BEGIN RAISE EXCEPTION 'audit refused for the test'; END $$ LANGUAGE plpgsql`);
+    await db.raw(`CREATE TRIGGER refuse_audit AFTER INSERT ON audit FOR EACH ROW WHEN (NEW.action = '${action.replace(/'/g, "''")}') EXECUTE FUNCTION refuse_audit()`);
+    return async () => { await db.raw('DROP TRIGGER refuse_audit ON audit'); };
+  }
+  await db.raw(`CREATE TEMP TRIGGER refuse_audit AFTER INSERT ON audit WHEN NEW.action = '${action.replace(/'/g, "''")}' BEGIN SELECT RAISE(ABORT, 'audit refused for the test'); END`);
+  return async () => { await db.raw('DROP TRIGGER refuse_audit'); };
+}
+
+/** Every row of a table in a stable order (SQLite's rowid; on PostgreSQL the whole row as text). */
+export function allRows(db: Db, table: string) {
+  return db.client.dialect === 'postgresql' ? db(table).select().orderByRaw('??::text', [table]) : db(table).select().orderBy('rowid');
+}
+
 export async function tableCounts(db: Db, tables: string[]): Promise<Record<string, number>> {
   const out: Record<string, number> = {};
   for (const t of tables) out[t] = Number(((await db(t).count({ n: '*' })) as [{ n: number }])[0].n);
