@@ -91,3 +91,18 @@ export function isUniqueViolation(err: unknown): boolean {
 
 /** PostgreSQL SQLSTATE 22003 numeric_value_out_of_range: a number too large for its column (SQLite stores any size). */
 export const isOutOfRange = (err: unknown): boolean => (err as { code?: unknown } | null)?.code === '22003';
+
+/**
+ * Runs `work` (a whole transaction) again when it lost a race for a unique value it computed, such
+ * as the next version number (max + 1 read by two transactions at once); after `attempts` tries the
+ * unique violation goes on to the error handler, which answers 409.
+ */
+export async function retryUniqueRace<T>(work: () => Promise<T>, attempts = 5): Promise<T> {
+  for (let i = 1; ; i++) {
+    try {
+      return await work();
+    } catch (err) {
+      if (i >= attempts || !isUniqueViolation(err)) throw err;
+    }
+  }
+}
