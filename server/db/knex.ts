@@ -17,6 +17,9 @@ export function dbConfig(target: string): Knex.Config {
       connection: target,
       pool: { min: 0, max: 10 },
       migrations: { migrationSource },
+      // A connection that cannot be had reaches its caller as the error (answered 503, or the one
+      // start-up line); knex's own warning with the stack would only say it twice.
+      log: { warn: (message: string) => { if (!String(message).startsWith('Acquire connection error')) console.warn(message); } },
     };
   }
   return {
