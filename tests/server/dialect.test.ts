@@ -134,3 +134,29 @@ describe(`dialect helpers on ${ON_POSTGRES ? 'PostgreSQL' : 'SQLite'}`, () => {
     for (const a of answers.filter((x) => x.status === 409)) expect(a.body.error.message).toMatch(/try again/);
   });
 });
+
+describe(`races for unique values on ${ON_POSTGRES ? 'PostgreSQL' : 'SQLite'} answer a success or 409, never 500`, () => {
+  const race = async (n: number, send: () => PromiseLike<{ status: number; body: { error?: { message: string } } }>) => {
+    const answers = await Promise.all(Array.from({ length: n }, () => send()));
+    for (const a of answers) expect([200, 201, 409], JSON.stringify(a.body)).toContain(a.status);
+    return answers.map((a) => a.status);
+  };
+
+  it('the next template version number: every new draft gets its own number', async () => {
+    const programmer = await t.agent('programmer');
+    const statuses = await race(6, () => programmer.post('/api/templates/1/versions', { from: 1 }));
+    const numbers = (await programmer.get('/api/templates/1').expect(200)).body.versions.map((v: { number: number }) => v.number) as number[];
+    expect(new Set(numbers).size).toBe(numbers.length);
+    expect(statuses.filter((s) => s === 201).length).toBeGreaterThanOrEqual(1);
+  });
+
+  it('one template name and one plate code: exactly one of the same-named creations is kept', async () => {
+    const programmer = await t.agent('programmer');
+    const names = await race(6, () => programmer.post('/api/templates', { name: 'Raced template', plateId: 1 }));
+    expect(names.filter((s) => s === 201)).toHaveLength(1);
+    const plate = { code: 'GP-RACE', name: 'Raced plate', unit: 'mm', pitch: 50, columns: 6, rows: 4, holeDiameter: 12, thread: 'M12', notes: '' };
+    const plates = await race(6, () => programmer.post('/api/plates', plate));
+    expect(plates.filter((s) => s === 201)).toHaveLength(1);
+    expect(toNumber((await t.db('plates').where({ code: 'GP-RACE' }).count({ n: '*' }))[0]!.n)).toBe(1);
+  });
+});
