@@ -1,6 +1,6 @@
 import type { Knex } from 'knex';
 import type { Db } from './knex';
-import { isoTime, paged, toNumber, whereContains } from './dialect';
+import { isoTime, orderByText, paged, toNumber, whereContains } from './dialect';
 import type { Component, ComponentFields, Plate, PlateFields } from '../../shared/schemas/catalog';
 import type { ListQuery } from '../../shared/schemas/common';
 
@@ -56,7 +56,7 @@ export function catalogRepo(db: Db) {
       const base = db<PlateRow>('plates');
       if (query.q) whereContains(db, base, ['plates.code', 'plates.name'], query.q);
       const [{ total }] = (await base.clone().count({ total: '*' })) as [{ total: number | string }];
-      const rows = await paged(base.clone().leftJoin(plateUse, 'u.plate_id', 'plates.id').select('plates.*', 'u.n as used_by').orderBy('code'), query.limit, query.offset);
+      const rows = await paged(orderByText(db, base.clone().leftJoin(plateUse, 'u.plate_id', 'plates.id').select('plates.*', 'u.n as used_by'), 'plates.code'), query.limit, query.offset);
       return { items: rows.map((r: PlateRow & { used_by: number | string | null }) => plateFromRow(r, toNumber(r.used_by))), total: toNumber(total) };
     },
     async getPlate(id: number): Promise<Plate | undefined> {
@@ -89,7 +89,7 @@ export function catalogRepo(db: Db) {
         return q;
       };
       const [{ total }] = (await filter(db('components as c')).count({ total: '*' })) as [{ total: number | string }];
-      const rows: ComponentRow[] = await paged(filter(components()).orderBy('c.code'), query.limit, query.offset);
+      const rows: ComponentRow[] = await paged(orderByText(db, filter(components()), 'c.code'), query.limit, query.offset);
       return { items: rows.map(componentFromRow), total: toNumber(total) };
     },
     async getComponent(id: number): Promise<Component | undefined> {

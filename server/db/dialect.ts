@@ -27,6 +27,17 @@ export function whereContains<T extends Knex.QueryBuilder>(db: Db, query: T, col
 }
 
 /**
+ * Orders by a text column in code-point order on both: SQLite's default BINARY collation, and
+ * PostgreSQL's "C" collation, whatever locale the database was created with (PostgreSQL manual,
+ * 24.2 "Collation Support"), so lists come in the same order on either.
+ */
+export function orderByText<T extends Knex.QueryBuilder>(db: Db, query: T, column: string, direction: 'asc' | 'desc' = 'asc'): T {
+  if (isPostgres(db)) query.orderByRaw(`?? COLLATE "C" ${direction}`, [column]);
+  else query.orderBy(column, direction);
+  return query;
+}
+
+/**
  * One page of a query: no LIMIT at all when none is asked for (SQLite's "LIMIT -1" is an error on
  * PostgreSQL), and an OFFSET only when it skips rows.
  */

@@ -1,6 +1,7 @@
 import type { Db } from './knex';
 import type { TemplateContent } from '../../shared/schemas/template';
 import type { VersionState } from '../../shared/schemas/template-api';
+import { orderByText } from './dialect';
 
 export interface TemplateRow { id: number; name: string; plate_id: number; created_by: number | null; created_at: string | Date; updated_at: string | Date }
 export interface VersionRow {
@@ -13,7 +14,7 @@ export interface StoredVersion { row: VersionRow; content: TemplateContent }
 export function templatesRepo(db: Db) {
   return {
     async list(): Promise<{ t: TemplateRow & { plate_code: string; plate_unit: string }; versions: VersionRow[] }[]> {
-      const templates = await db('templates as t').join('plates as p', 'p.id', 't.plate_id').select('t.*', 'p.code as plate_code', 'p.unit as plate_unit').orderBy('t.name');
+      const templates = await orderByText(db, db('templates as t').join('plates as p', 'p.id', 't.plate_id').select('t.*', 'p.code as plate_code', 'p.unit as plate_unit'), 't.name');
       const versions: VersionRow[] = await db('template_versions').select('id', 'template_id', 'number', 'state', 'content_hash', 'revision', 'updated_at', 'created_at', 'placement_count').orderBy(['template_id', 'number']);
       const byTemplate = new Map<number, VersionRow[]>();
       for (const v of versions) byTemplate.set(v.template_id, [...(byTemplate.get(v.template_id) ?? []), v]);

@@ -1,5 +1,5 @@
 import type { Db } from './knex';
-import { isoTime } from './dialect';
+import { isoTime, orderByText } from './dialect';
 import type { Role, User } from '../../shared/schemas/auth';
 import type { Unit } from '../../shared/schemas/common';
 
@@ -43,7 +43,7 @@ export function usersRepo(db: Db) {
       return row && { ...toUser(row), passwordHash: row.password_hash };
     },
     async list(): Promise<User[]> {
-      return (await db<UserRow>('users').orderBy('email')).map(toUser);
+      return (await orderByText(db, db('users'), 'email')).map(toUser);
     },
     async insert(u: { email: string; name: string; role: Role; passwordHash: string | null; active?: boolean }, trx: Db = db): Promise<User> {
       const [row] = await trx<UserRow>('users')

@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { DEMO_CONVENTION } from '../../shared/naming/conventions';
-import { containsPattern, deleteSessionsOfUser, isoTime, isoTimeOrNull, isPostgres, isUniqueViolation, paged, timeValue, toBool, toNumber, whereContains } from '../../server/db/dialect';
+import { containsPattern, deleteSessionsOfUser, isoTime, isoTimeOrNull, isPostgres, isUniqueViolation, orderByText, paged, timeValue, toBool, toNumber, whereContains } from '../../server/db/dialect';
 import { makeTestApp, ON_POSTGRES, type TestApp } from './test-app';
 
 /**
@@ -18,6 +18,9 @@ beforeAll(async () => {
     tb.string('code').notNullable().unique();
     tb.timestamps(true, true);
   });
+  // On PostgreSQL the column gets a language-aware collation (ICU's root locale), as a database
+  // created with a locale such as en_US.UTF-8 has, where plain ORDER BY interleaves capitals.
+  if (ON_POSTGRES) await t.db.raw('ALTER TABLE dialect_probe ALTER COLUMN code TYPE varchar(255) COLLATE "und-x-icu"');
   await t.db('dialect_probe').insert(CODES.map((code) => ({ code })));
 });
 afterAll(async () => { await t.close(); });
@@ -40,6 +43,19 @@ describe(`dialect helpers on ${ON_POSTGRES ? 'PostgreSQL' : 'SQLite'}`, () => {
     expect(await search('gp-lower')).toEqual(['GP-LOWER']);
     expect(await search('%')).toEqual(['RAIL 100%']);
     expect(containsPattern('a%b_c\\')).toBe('%a\\%b\\_c\\\\%');
+  });
+
+  it('orders text in code-point order, as JavaScript sorts ASCII strings', async () => {
+    // Array.prototype.sort without a comparator compares UTF-16 code units (ECMA-262, SortCompare);
+    // for these ASCII codes that is code-point order: capitals before small letters.
+    const ordered = (await orderByText(t.db, t.db('dialect_probe').select('code').whereIn('code', CODES), 'code')).map((r: { code: string }) => r.code);
+    expect(ordered).toEqual([...CODES].sort());
+    const reversed = (await orderByText(t.db, t.db('dialect_probe').select('code').whereIn('code', CODES), 'code', 'desc')).map((r: { code: string }) => r.code);
+    expect(reversed).toEqual([...CODES].sort().reverse());
+    if (ON_POSTGRES) {
+      const plain = (await t.db('dialect_probe').select('code').whereIn('code', CODES).orderBy('code')).map((r: { code: string }) => r.code);
+      expect(plain, 'the locale-aware column orders differently without the helper').not.toEqual(ordered);
+    }
   });
 
   it('pages without a limit when none is asked for, and with one when it is', async () => {
