@@ -119,6 +119,14 @@ describe(`dialect helpers on ${ON_POSTGRES ? 'PostgreSQL' : 'SQLite'}`, () => {
     expect([toBool(1), toBool(0), toBool(true), toBool(false), toBool('t'), toBool('f')]).toEqual([true, false, true, false, true, false]);
   });
 
+  it('an upsert (INSERT … ON CONFLICT DO UPDATE, which both databases have) inserts once, then updates that row', async () => {
+    const put = (value: string) => t.db('settings').insert({ key: 'dialect-probe', value }).onConflict('key').merge({ value });
+    await put('first');
+    await put('second');
+    const rows = await t.db('settings').where({ key: 'dialect-probe' }).select('value');
+    expect(rows).toEqual([{ value: 'second' }]);
+  });
+
   it('recognizes a broken unique constraint', async () => {
     const err = await t.db('dialect_probe').insert({ code: 'GP-LOWER' }).then(() => null, (e: unknown) => e);
     expect(err).not.toBeNull();
