@@ -1,6 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { DEMO_CONVENTION } from '../../shared/naming/conventions';
 import { containsPattern, deleteSessionsOfUser, isoTime, isoTimeOrNull, isPostgres, isUniqueViolation, orderByText, paged, timeValue, toBool, toNumber, whereContains } from '../../server/db/dialect';
+import { DbRateLimitStore } from '../../server/db/rate-limit-store';
 import { makeTestApp, ON_POSTGRES, type TestApp } from './test-app';
 
 /**
@@ -125,6 +126,15 @@ describe(`dialect helpers on ${ON_POSTGRES ? 'PostgreSQL' : 'SQLite'}`, () => {
     await put('second');
     const rows = await t.db('settings').where({ key: 'dialect-probe' }).select('value');
     expect(rows).toEqual([{ value: 'second' }]);
+  });
+
+  it('a rate-limit count taken by many requests at once loses none of them', async () => {
+    const store = new DbRateLimitStore(t.db, 'dialect-probe:');
+    store.init({ windowMs: 60_000 } as Parameters<DbRateLimitStore['init']>[0]);
+    const hits = await Promise.all(Array.from({ length: 20 }, () => store.increment('client')));
+    // Each increment answers its own count: together exactly 1..20, whatever order they ran in.
+    expect(hits.map((h) => h.totalHits).sort((a, b) => a - b)).toEqual(Array.from({ length: 20 }, (_, i) => i + 1));
+    expect((await store.get('client'))?.totalHits).toBe(20);
   });
 
   it('recognizes a broken unique constraint', async () => {
