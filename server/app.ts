@@ -8,6 +8,7 @@ import { Passport } from 'passport';
 import { Strategy as LocalStrategy } from 'passport-local';
 import { csrfSync } from 'csrf-sync';
 import type { Db } from './db/knex';
+import { isPostgres } from './db/dialect';
 import { SessionStore } from './db/session-store';
 import { usersRepo } from './db/users-repo';
 import { catalogRepo } from './db/catalog-repo';
@@ -148,7 +149,7 @@ export function createApp(deps: AppDeps): GridsetApp {
     ...accountLinkRoutes(accountLinks, db),
     ...outboxRoutes(outboxRepo(db)),
     ...catalogRoutes(catalog),
-    ...settingsRoutes(settings, audit, { dataDir: deps.dataDir, databaseFile: (db.client.config.connection as { filename: string }).filename }),
+    ...settingsRoutes(settings, audit, { dataDir: deps.dataDir, databaseFile: isPostgres(db) ? undefined : (db.client.config.connection as { filename: string }).filename }),
     ...templateRoutes(templates, settings),
     ...stockCheckRoutes({ dataDir: deps.dataDir, uploadLimitBytes: deps.uploadLimitBytes ?? 20 * 1024 * 1024 }),
     ...namingRoutes(naming),

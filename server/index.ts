@@ -1,6 +1,6 @@
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { readConfig } from './config';
+import { ConfigError, readConfig } from './config';
 import { openDb, migrate } from './db/knex';
 import { seedDemoDataIfEmpty } from './db/seed-demo';
 import { createApp } from './app';
@@ -12,7 +12,7 @@ const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..');
 async function main() {
   const config = readConfig();
   sweepUploadTemp(config.dataDir);
-  const db = openDb(config.databaseFile);
+  const db = openDb(config.database);
   await migrate(db);
   const seeded = await seedDemoDataIfEmpty(db);
   if (seeded) console.log('New database: demo data loaded (demo accounts use the password gridset-demo).');
@@ -30,7 +30,7 @@ async function main() {
   // Express 5 calls this back with the error too when the port cannot be had; 'error' below says it.
   const server = app.listen(config.port, (err?: Error) => {
     if (err) return;
-    console.log(`Gridset is serving http://localhost:${config.port} (data in ${config.dataDir})`);
+    console.log(`Gridset is serving http://localhost:${config.port} (data in ${config.dataDir}${config.databaseUrl ? ', database on PostgreSQL (DATABASE_URL)' : ''})`);
     console.log(config.smtpUrl ? 'Mail goes out by SMTP (SMTP_URL).' : `Mail stays in the local outbox (${path.join(config.dataDir, 'outbox')}); admins read it under Outbox.`);
   });
   server.on('error', (err: NodeJS.ErrnoException) => {
@@ -50,6 +50,15 @@ async function main() {
 
 main().catch((err: NodeJS.ErrnoException) => {
   // A data folder the server cannot write is said in one line, not as a stack.
+  if (err instanceof ConfigError) {
+    console.error(`Gridset cannot start: ${err.message}`);
+    process.exit(1);
+  }
+  // A PostgreSQL server that cannot be reached or refuses the sign-in (node-postgres errors; SQLSTATE 28P01, 3D000).
+  if (['ECONNREFUSED', 'ENOTFOUND', 'ETIMEDOUT', 'EAI_AGAIN', '28P01', '28000', '3D000'].includes(String(err?.code))) {
+    console.error(`Gridset cannot start: the database in DATABASE_URL cannot be used (${err.message}). Check the URL, that PostgreSQL is running, and the user's password.`);
+    process.exit(1);
+  }
   const folder = ['EACCES', 'EROFS', 'ENOSPC', 'EPERM', 'ENOTDIR', 'SQLITE_CANTOPEN', 'SQLITE_READONLY'].includes(String(err?.code));
   console.error(folder ? `Gridset cannot start: its data folder cannot be written (${err.message}). Check GRIDSET_DATA_DIR and its permissions and free space.` : err);
   process.exit(1);

@@ -5,10 +5,11 @@ import { TextField } from '../components/ui/field';
 import { DataTable, columnHelperFor } from '../components/ui/data-table';
 import { ErrorText } from '../components/ui/notice';
 import { useAudit } from '../features/review/api';
+import { formatServerTime } from '../lib/server-time';
 
 const col = columnHelperFor<AuditEntry>();
 const columns = col.columns([
-  col.accessor('at', { header: 'When', cell: (c) => <span className="font-mono text-sm">{c.getValue()}</span> }),
+  col.accessor('at', { header: 'When', cell: (c) => <time dateTime={c.getValue()} className="font-mono text-sm">{formatServerTime(c.getValue(), { seconds: true })}</time> }),
   col.accessor('userEmail', { header: 'Who', cell: (c) => c.getValue() ?? '—' }),
   col.accessor('action', { header: 'What', cell: (c) => <span className="font-mono">{c.getValue()}</span> }),
   col.accessor((e) => `${e.objectType} ${e.objectId}`, { id: 'object', header: 'Object' }),

@@ -15,7 +15,7 @@ import { ApiError } from '../lib/api-client';
 import { applyServerIssues } from '../lib/form-errors';
 import { useMe } from '../features/auth/api';
 import { useJob, useJobStockCheck, useUpdateJob } from '../features/jobs/api';
-import { formatServerTime } from '../features/jobs/job-format';
+import { formatServerTime } from '../lib/server-time';
 import { checkedBeforeEdit, jobCheckRun, jobRails, railClamp, railOfCheck, type JobCheckRun, type JobRail } from '../features/jobs/job-rails';
 import { JobDrawing } from '../features/jobs/components/job-drawing';
 import { JobFiles, JobSetupFacts, NewerReleaseNotice, RuntimeCard } from '../features/jobs/components/job-facts';

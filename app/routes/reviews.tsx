@@ -3,6 +3,7 @@ import { Page } from '../components/ui/page';
 import { ErrorText } from '../components/ui/notice';
 import { useTemplates } from '../features/templates/api';
 import { StateTag } from './templates';
+import { formatServerTime } from '../lib/server-time';
 
 /** "What is waiting for me?": every version in review, with the comparison it should be read against. */
 export function ReviewsRoute() {
@@ -28,7 +29,7 @@ export function ReviewsRoute() {
               <li key={`${t.id}-${v.number}`} className="flex flex-wrap items-center gap-3 rounded border border-slate-300 bg-white p-3">
                 <StateTag state={v.state} />
                 <span className="font-semibold">{t.name} v{v.number}</span>
-                <span className="text-slate-600">on {t.plateCode} · {v.placements} placements · saved {v.updatedAt}</span>
+                <span className="text-slate-600">on {t.plateCode} · {v.placements} placements · saved <time dateTime={v.updatedAt}>{formatServerTime(v.updatedAt)}</time></span>
                 <span className="ml-auto flex gap-3">
                   {before ? <Link className={link} to={`/templates/${t.id}/compare?from=${before}&to=${v.number}`}>Compare v{before} → v{v.number}</Link> : null}
                   <Link className={link} to={`/templates/${t.id}/versions/${v.number}`}>Open v{v.number}</Link>
@@ -41,7 +42,7 @@ export function ReviewsRoute() {
       <section aria-labelledby="drafts-title" className="flex flex-col gap-2">
         <h2 id="drafts-title" className="text-lg font-semibold">Drafts not yet submitted ({drafts.length})</h2>
         <ul className="flex flex-col gap-1">
-          {drafts.map(({ t, v }) => <li key={`${t.id}-${v.number}`}><Link className={link} to={`/templates/${t.id}/versions/${v.number}`}>{t.name} v{v.number}</Link> <span className="text-slate-600">· saved {v.updatedAt}</span></li>)}
+          {drafts.map(({ t, v }) => <li key={`${t.id}-${v.number}`}><Link className={link} to={`/templates/${t.id}/versions/${v.number}`}>{t.name} v{v.number}</Link> <span className="text-slate-600">· saved <time dateTime={v.updatedAt}>{formatServerTime(v.updatedAt)}</time></span></li>)}
         </ul>
       </section>
     </Page>

@@ -1,4 +1,5 @@
 import type { Db } from './knex';
+import { isoTime, timeValue } from './dialect';
 import type { AuditEntry, AuditQuery } from '../../shared/schemas/audit';
 
 export interface AuditRecord {
@@ -37,14 +38,15 @@ export function auditRepo(db: Db) {
       if (q.user) base.where('a.user_id', q.user);
       if (q.object) base.where('a.object_type', q.object);
       if (q.objectId) base.where('a.object_id', q.objectId);
-      if (q.from) base.where('a.created_at', '>=', `${q.from} 00:00:00`);
-      if (q.to) base.where('a.created_at', '<=', `${q.to} 23:59:59`);
+      // Days are UTC days: from the start of `from` up to (not including) the start of the day after `to`.
+      if (q.from) base.where('a.created_at', '>=', timeValue(db, new Date(`${q.from}T00:00:00Z`)));
+      if (q.to) base.where('a.created_at', '<', timeValue(db, new Date(Date.parse(`${q.to}T00:00:00Z`) + 86_400_000)));
       const [{ total }] = (await base.clone().count({ total: '*' })) as [{ total: number }];
       const rows = await base.clone().select('a.*', 'u.email as user_email').orderBy('a.id', 'desc').limit(q.limit).offset(q.offset);
       const parse = (s: string | null) => { if (!s) return null; try { return JSON.parse(s); } catch { return s; } };
       return {
         total: Number(total),
-        items: rows.map((r) => ({ id: r.id, at: String(r.created_at), userId: r.user_id, userEmail: r.user_email ?? null, action: r.action, objectType: r.object_type, objectId: r.object_id, summary: r.summary, before: parse(r.before), after: parse(r.after) })),
+        items: rows.map((r) => ({ id: r.id, at: isoTime(r.created_at), userId: r.user_id, userEmail: r.user_email ?? null, action: r.action, objectType: r.object_type, objectId: r.object_id, summary: r.summary, before: parse(r.before), after: parse(r.after) })),
       };
     },
   };

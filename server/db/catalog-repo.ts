@@ -1,34 +1,42 @@
+import type { Knex } from 'knex';
 import type { Db } from './knex';
+import { isoTime, orderByText, paged, toNumber, whereContains } from './dialect';
 import type { Component, ComponentFields, Plate, PlateFields } from '../../shared/schemas/catalog';
 import type { ListQuery } from '../../shared/schemas/common';
 
 interface PlateRow {
   id: number; code: string; name: string; unit: Plate['unit']; pitch: number; columns: number; rows: number;
-  hole_diameter: number; thread: string; edge_margin: number; notes: string; created_at: string; updated_at: string;
+  hole_diameter: number; thread: string; edge_margin: number; notes: string; created_at: string | Date; updated_at: string | Date;
 }
 
 const plateFromRow = (r: PlateRow, usedBy = 0): Plate => ({
   id: r.id, code: r.code, name: r.name, unit: r.unit, pitch: r.pitch, columns: r.columns, rows: r.rows,
   holeDiameter: r.hole_diameter, thread: r.thread, edgeMargin: r.edge_margin, notes: r.notes, usedBy,
-  createdAt: String(r.created_at), updatedAt: String(r.updated_at),
+  createdAt: isoTime(r.created_at), updatedAt: isoTime(r.updated_at),
 });
 const plateToRow = (p: PlateFields) => ({
   code: p.code, name: p.name, unit: p.unit, pitch: p.pitch, columns: p.columns, rows: p.rows,
   hole_diameter: p.holeDiameter, thread: p.thread, edge_margin: p.edgeMargin ?? p.pitch / 2, notes: p.notes,
 });
 
-/**
- * A component row as its API JSON, built by SQLite's JSON1 functions: the JSON columns are
- * spliced in as they are stored, so a list of a thousand components is never parsed and
- * re-serialized in JavaScript (see the catalog-list benchmark). The one mapping for reads.
- */
-const COMPONENT_JSON = `json_object(
-  'id', c.id, 'code', c.code, 'kind', c.kind, 'name', c.name, 'unit', c.unit,
-  'dowels', json(c.dowels), 'stops', json(c.stops), 'jawFaces', json(c.jaw_faces),
-  'clamp', json(c.clamp), 'outline', json(c.outline), 'layer', c.layer, 'notes', c.notes,
-  'seatHeight', c.seat_height, 'jawTop', c.jaw_top,
-  'outlineFile', json(c.outline_file),
-  'usedBy', coalesce(u.n, 0), 'createdAt', c.created_at, 'updatedAt', c.updated_at)`;
+interface ComponentRow {
+  id: number; code: string; kind: Component['kind']; name: string; unit: Component['unit'];
+  dowels: string; stops: string; jaw_faces: string; clamp: string | null; outline: string | null; outline_file: string | null;
+  layer: string; notes: string; seat_height: number | string; jaw_top: number | string | null;
+  created_at: string | Date; updated_at: string | Date; used_by?: number | string | null;
+}
+
+const json = <T>(text: string | null): T | null => (text === null || text === undefined ? null : (JSON.parse(text) as T));
+
+/** A component row as its API JSON: the one mapping for reads. */
+const componentFromRow = (r: ComponentRow): Component => ({
+  id: r.id, code: r.code, kind: r.kind, name: r.name, unit: r.unit,
+  dowels: json<Component['dowels']>(r.dowels)!, stops: json<Component['stops']>(r.stops)!, jawFaces: json<Component['jawFaces']>(r.jaw_faces)!,
+  clamp: json<Component['clamp']>(r.clamp), outline: json<Component['outline']>(r.outline), layer: r.layer, notes: r.notes,
+  seatHeight: toNumber(r.seat_height), jawTop: r.jaw_top === null ? null : toNumber(r.jaw_top),
+  outlineFile: json<Component['outlineFile']>(r.outline_file),
+  usedBy: toNumber(r.used_by), createdAt: isoTime(r.created_at), updatedAt: isoTime(r.updated_at),
+} as Component);
 const componentToRow = (c: ComponentFields) => ({
   code: c.code, kind: c.kind, name: c.name, unit: c.unit,
   dowels: JSON.stringify(c.dowels), stops: JSON.stringify(c.stops), jaw_faces: JSON.stringify(c.jawFaces),
@@ -36,29 +44,24 @@ const componentToRow = (c: ComponentFields) => ({
   layer: c.layer, notes: c.notes, seat_height: c.seatHeight, jaw_top: c.jawTop,
 });
 
-const USAGE_JOIN = `LEFT JOIN (SELECT component_id, count(DISTINCT version_id) AS n FROM template_version_components GROUP BY component_id) u ON u.component_id = c.id`;
-
-/** LIKE with the user's text escaped, so "%" and "_" in a code match themselves. */
-function likePattern(q: string) {
-  return `%${q.replace(/[\\%_]/g, (m) => `\\${m}`)}%`;
-}
 
 export function catalogRepo(db: Db) {
   // How many templates use a plate, and how many template versions use a component; shown in lists, checked before delete.
   const plateUse = db('templates').select('plate_id').count({ n: '*' }).groupBy('plate_id').as('u');
+  const componentUse = () => db('template_version_components').select('component_id').countDistinct({ n: 'version_id' }).groupBy('component_id').as('u');
+  const components = () => db('components as c').leftJoin(componentUse(), 'u.component_id', 'c.id').select('c.*', 'u.n as used_by');
 
   return {
     async listPlates(query: ListQuery): Promise<{ items: Plate[]; total: number }> {
       const base = db<PlateRow>('plates');
-      if (query.q) base.where((w) => w.whereRaw("code LIKE ? ESCAPE '\\'", [likePattern(query.q!)]).orWhereRaw("name LIKE ? ESCAPE '\\'", [likePattern(query.q!)]));
-      const [{ total }] = (await base.clone().count({ total: '*' })) as [{ total: number }];
-      const rows = await base.clone().leftJoin(plateUse, 'u.plate_id', 'plates.id').select('plates.*', 'u.n as used_by')
-        .orderBy('code').limit(query.limit ?? -1).offset(query.offset);
-      return { items: rows.map((r: PlateRow & { used_by: number | null }) => plateFromRow(r, Number(r.used_by ?? 0))), total: Number(total) };
+      if (query.q) whereContains(db, base, ['plates.code', 'plates.name'], query.q);
+      const [{ total }] = (await base.clone().count({ total: '*' })) as [{ total: number | string }];
+      const rows = await paged(orderByText(db, base.clone().leftJoin(plateUse, 'u.plate_id', 'plates.id').select('plates.*', 'u.n as used_by'), 'plates.code'), query.limit, query.offset);
+      return { items: rows.map((r: PlateRow & { used_by: number | string | null }) => plateFromRow(r, toNumber(r.used_by))), total: toNumber(total) };
     },
     async getPlate(id: number): Promise<Plate | undefined> {
       const r = await db('plates').leftJoin(plateUse, 'u.plate_id', 'plates.id').select('plates.*', 'u.n as used_by').where('plates.id', id).first();
-      return r && plateFromRow(r, Number(r.used_by ?? 0));
+      return r && plateFromRow(r, toNumber(r.used_by));
     },
     async plateCodeTaken(code: string, exceptId?: number) {
       const q = db('plates').whereRaw('lower(code) = lower(?)', [code]);
@@ -78,38 +81,25 @@ export function catalogRepo(db: Db) {
     },
     deletePlate: (id: number, trx: Db = db) => trx('plates').where({ id }).delete(),
 
-    /** The list answer `{items, total}` as JSON text, ready to send. */
-    async listComponentsJson(query: ListQuery & { kind?: string }): Promise<string> {
-      const where: string[] = [];
-      const args: (string | number)[] = [];
-      if (query.q) {
-        const p = likePattern(query.q);
-        where.push("(c.code LIKE ? ESCAPE '\\' OR c.name LIKE ? ESCAPE '\\' OR c.layer LIKE ? ESCAPE '\\')");
-        args.push(p, p, p);
-      }
-      if (query.kind) {
-        where.push('c.kind = ?');
-        args.push(query.kind);
-      }
-      const whereSql = where.length ? `WHERE ${where.join(' AND ')}` : '';
-      const rows = await db.raw(
-        `SELECT json_object(
-           'items', (SELECT json_group_array(json(item) ORDER BY code) FROM (
-              SELECT ${COMPONENT_JSON} AS item, c.code AS code FROM components c ${USAGE_JOIN} ${whereSql}
-              ORDER BY c.code LIMIT ? OFFSET ?)),
-           'total', (SELECT count(*) FROM components c ${whereSql})) AS body`,
-        [...args, query.limit ?? -1, query.offset, ...args],
-      );
-      return (rows as { body: string }[])[0]!.body;
+    /** One page of components (all when no limit), ordered by code, and how many match in all. */
+    async listComponents(query: ListQuery & { kind?: string }): Promise<{ items: Component[]; total: number }> {
+      const filter = <T extends Knex.QueryBuilder>(q: T): T => {
+        if (query.q) whereContains(db, q, ['c.code', 'c.name', 'c.layer'], query.q);
+        if (query.kind) q.where('c.kind', query.kind);
+        return q;
+      };
+      const [{ total }] = (await filter(db('components as c')).count({ total: '*' })) as [{ total: number | string }];
+      const rows: ComponentRow[] = await paged(orderByText(db, filter(components()), 'c.code'), query.limit, query.offset);
+      return { items: rows.map(componentFromRow), total: toNumber(total) };
     },
     async getComponent(id: number): Promise<Component | undefined> {
-      const rows = (await db.raw(`SELECT ${COMPONENT_JSON} AS item FROM components c ${USAGE_JOIN} WHERE c.id = ?`, [id])) as { item: string }[];
-      return rows[0] ? (JSON.parse(rows[0].item) as Component) : undefined;
+      const r: ComponentRow | undefined = await components().where('c.id', id).first();
+      return r && componentFromRow(r);
     },
     async componentsByCodes(codes: string[]): Promise<Component[]> {
       if (codes.length === 0) return [];
-      const rows = (await db.raw(`SELECT ${COMPONENT_JSON} AS item FROM components c ${USAGE_JOIN} WHERE c.code IN (${codes.map(() => '?').join(',')})`, codes)) as { item: string }[];
-      return rows.map((r) => JSON.parse(r.item) as Component);
+      const rows: ComponentRow[] = await components().whereIn('c.code', codes);
+      return rows.map(componentFromRow);
     },
     async componentCodeTaken(code: string, exceptId?: number) {
       const q = db('components').whereRaw('lower(code) = lower(?)', [code]);

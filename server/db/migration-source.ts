@@ -9,6 +9,8 @@ import * as loadLists from '../../migrations/20261205030000_load_lists';
 import * as jobPartRotation from '../../migrations/20261205040000_job_part_rotation';
 import * as rateLimits from '../../migrations/20261205095000_rate_limits';
 import * as partPrograms from '../../migrations/20261205080000_part_programs';
+import * as sessions from '../../migrations/20261205120000_sessions';
+import * as placementCount from '../../migrations/20261205120100_placement_count';
 
 // Migrations are imported statically so the same list runs under tsx, vitest and the bench
 // scripts; knex's directory loader cannot import .ts files by itself.
@@ -23,6 +25,8 @@ const MIGRATIONS: Record<string, Knex.Migration> = {
   '20261205040000_job_part_rotation': jobPartRotation,
   '20261205080000_part_programs': partPrograms,
   '20261205095000_rate_limits': rateLimits,
+  '20261205120000_sessions': sessions,
+  '20261205120100_placement_count': placementCount,
 };
 
 export const migrationSource: Knex.MigrationSource<string> = {

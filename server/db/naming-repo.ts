@@ -1,4 +1,5 @@
 import type { Db } from './knex';
+import { isoTime } from './dialect';
 import { NamingConventionSchema, type NamingConvention } from '../../shared/schemas/naming';
 import { DEFAULT_CONVENTION } from '../../shared/naming/conventions';
 
@@ -14,7 +15,7 @@ export function namingRepo(db: Db) {
     },
     async history(): Promise<{ version: number; createdAt: string; createdBy: number | null }[]> {
       const rows = await db('naming_conventions').select('version', 'created_at', 'created_by').orderBy('version', 'desc');
-      return rows.map((r) => ({ version: r.version, createdAt: String(r.created_at), createdBy: r.created_by }));
+      return rows.map((r) => ({ version: r.version, createdAt: isoTime(r.created_at), createdBy: r.created_by }));
     },
     async save(convention: Omit<NamingConvention, 'version'>, userId: number | null, trx: Db = db): Promise<NamingConvention> {
       const latest = await trx('naming_conventions').max({ v: 'version' });

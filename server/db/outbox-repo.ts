@@ -1,4 +1,5 @@
 import type { Db } from './knex';
+import { toNumber, whereContains } from './dialect';
 import type { ListQuery } from '../../shared/schemas/common';
 import type { OutboxMail } from '../../shared/schemas/outbox';
 
@@ -12,9 +13,6 @@ interface OutboxRow {
 }
 
 const toMail = (r: OutboxRow): OutboxMail => ({ id: r.id, to: r.to, subject: r.subject, text: r.text, sentAt: r.sent_at });
-
-/** LIKE with the user's text escaped, so "%" and "_" match themselves. */
-const likePattern = (q: string) => `%${q.replace(/[\\%_]/g, (m) => `\\${m}`)}%`;
 
 /** A page of mails when no limit is asked for; the outbox only grows. */
 export const OUTBOX_DEFAULT_LIMIT = 100;
@@ -30,17 +28,14 @@ export function outboxRepo(db: Db) {
     },
     async list(query: ListQuery): Promise<{ items: OutboxMail[]; total: number }> {
       const base = db<OutboxRow>('outbox');
-      if (query.q) {
-        const p = likePattern(query.q);
-        base.where((w) => w.whereRaw("\"to\" LIKE ? ESCAPE '\\'", [p]).orWhereRaw("subject LIKE ? ESCAPE '\\'", [p]));
-      }
+      if (query.q) whereContains(db, base, ['to', 'subject'], query.q);
       const [count] = await base.clone().count<{ n: number }[]>({ n: '*' });
       const rows = await base
         .clone()
         .orderBy([{ column: 'sent_at', order: 'desc' }, { column: 'id', order: 'desc' }])
         .limit(query.limit ?? OUTBOX_DEFAULT_LIMIT)
         .offset(query.offset);
-      return { items: rows.map(toMail), total: Number(count?.n ?? 0) };
+      return { items: rows.map(toMail), total: toNumber(count?.n) };
     },
   };
 }

@@ -5,7 +5,7 @@ import type { Db } from './knex';
  * express-rate-limit's Store (its documented interface: init, get, increment, decrement, resetKey)
  * over the app's own database, so two processes on one database count one client together instead
  * of each allowing the limit. A count starts a window on its first hit; a hit after the window
- * starts a new one. Each increment is one transaction (SQLite serializes writers).
+ * starts a new one. Each increment is one atomic statement.
  */
 export class DbRateLimitStore implements Store {
   windowMs = 15 * 60 * 1000;
@@ -29,17 +29,21 @@ export class DbRateLimitStore implements Store {
 
   async increment(key: string): Promise<ClientRateLimitInfo> {
     const k = this.key(key);
-    return this.db.transaction(async (trx) => {
-      const now = Date.now();
-      const row = await trx('rate_limits').where({ key: k }).first();
-      if (!row || Number(row.reset_at) <= now) {
-        const resetAt = now + this.windowMs;
-        await trx('rate_limits').insert({ key: k, hits: 1, reset_at: resetAt }).onConflict('key').merge({ hits: 1, reset_at: resetAt });
-        return { totalHits: 1, resetTime: new Date(resetAt) };
-      }
-      await trx('rate_limits').where({ key: k }).increment('hits', 1);
-      return { totalHits: row.hits + 1, resetTime: new Date(Number(row.reset_at)) };
-    });
+    const now = Date.now();
+    const resetAt = now + this.windowMs;
+    // One atomic upsert (INSERT … ON CONFLICT DO UPDATE … RETURNING, on SQLite 3.35+ and PostgreSQL):
+    // a first hit or a hit after the window starts a new count, any other adds one. Two processes
+    // hitting at once each add theirs; a read-then-write could lose one under PostgreSQL's READ COMMITTED.
+    const expired = this.db.raw('rate_limits.reset_at <= ?', [now]);
+    const [row] = (await this.db('rate_limits')
+      .insert({ key: k, hits: 1, reset_at: resetAt })
+      .onConflict('key')
+      .merge({
+        hits: this.db.raw('CASE WHEN ? THEN 1 ELSE rate_limits.hits + 1 END', [expired]),
+        reset_at: this.db.raw('CASE WHEN ? THEN ? ELSE rate_limits.reset_at END', [expired, resetAt]),
+      })
+      .returning(['hits', 'reset_at'])) as { hits: number | string; reset_at: number | string }[];
+    return { totalHits: Number(row!.hits), resetTime: new Date(Number(row!.reset_at)) };
   }
 
   async decrement(key: string): Promise<void> {

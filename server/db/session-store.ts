@@ -5,7 +5,7 @@ import type { Db } from './knex';
 const TOUCH_EVERY_MS = 60_000;
 
 /**
- * Sessions kept in the app's own SQLite file. express-session touches the stored expiry on every
+ * Sessions kept in the app's own database, in the table its migrations make (never the store's createTable). express-session touches the stored expiry on every
  * request; writing it at most once a minute per session keeps reads from paying a write each
  * (the same idea as connect-mongo's touchAfter). A 12-hour session cannot lapse early for it.
  */
@@ -13,7 +13,7 @@ export class SessionStore extends ConnectSessionKnexStore {
   private lastTouch = new Map<string, number>();
 
   constructor(db: Db) {
-    super({ knex: db, tableName: 'sessions', createTable: true, cleanupInterval: 15 * 60 * 1000 });
+    super({ knex: db, tableName: 'sessions', createTable: false, cleanupInterval: 15 * 60 * 1000 });
   }
 
   override async touch(sid: string, session: SessionData, callback?: () => void): Promise<void> {

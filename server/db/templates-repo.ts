@@ -1,11 +1,12 @@
 import type { Db } from './knex';
 import type { TemplateContent } from '../../shared/schemas/template';
 import type { VersionState } from '../../shared/schemas/template-api';
+import { orderByText } from './dialect';
 
-export interface TemplateRow { id: number; name: string; plate_id: number; created_by: number | null; created_at: string; updated_at: string }
+export interface TemplateRow { id: number; name: string; plate_id: number; created_by: number | null; created_at: string | Date; updated_at: string | Date }
 export interface VersionRow {
   id: number; template_id: number; number: number; state: VersionState; content: string; content_hash: string;
-  revision: number; author_id: number | null; created_at: string; updated_at: string;
+  revision: number; author_id: number | null; created_at: string | Date; updated_at: string | Date; placement_count: number;
   naming_version?: number | null; naming_waiver?: string | null; naming_waived_by?: number | null;
 }
 export interface StoredVersion { row: VersionRow; content: TemplateContent }
@@ -13,8 +14,8 @@ export interface StoredVersion { row: VersionRow; content: TemplateContent }
 export function templatesRepo(db: Db) {
   return {
     async list(): Promise<{ t: TemplateRow & { plate_code: string; plate_unit: string }; versions: VersionRow[] }[]> {
-      const templates = await db('templates as t').join('plates as p', 'p.id', 't.plate_id').select('t.*', 'p.code as plate_code', 'p.unit as plate_unit').orderBy('t.name');
-      const versions: VersionRow[] = await db('template_versions').select('id', 'template_id', 'number', 'state', 'content_hash', 'revision', 'updated_at', 'created_at', db.raw("json_array_length(content, '$.placements') as placements")).orderBy(['template_id', 'number']);
+      const templates = await orderByText(db, db('templates as t').join('plates as p', 'p.id', 't.plate_id').select('t.*', 'p.code as plate_code', 'p.unit as plate_unit'), 't.name');
+      const versions: VersionRow[] = await db('template_versions').select('id', 'template_id', 'number', 'state', 'content_hash', 'revision', 'updated_at', 'created_at', 'placement_count').orderBy(['template_id', 'number']);
       const byTemplate = new Map<number, VersionRow[]>();
       for (const v of versions) byTemplate.set(v.template_id, [...(byTemplate.get(v.template_id) ?? []), v]);
       return templates.map((t) => ({ t, versions: byTemplate.get(t.id) ?? [] }));
@@ -34,7 +35,7 @@ export function templatesRepo(db: Db) {
     },
     async insertVersion(trx: Db, v: { templateId: number; number: number; state: VersionState; content: TemplateContent; hash: string; authorId: number | null; componentIds: number[] }): Promise<number> {
       const [row] = await trx('template_versions')
-        .insert({ template_id: v.templateId, number: v.number, state: v.state, content: JSON.stringify(v.content), content_hash: v.hash, author_id: v.authorId })
+        .insert({ template_id: v.templateId, number: v.number, state: v.state, content: JSON.stringify(v.content), content_hash: v.hash, author_id: v.authorId, placement_count: v.content.placements.length })
         .returning('id');
       const id = (row as { id: number }).id;
       await linkComponents(trx, id, v.componentIds);
@@ -49,7 +50,7 @@ export function templatesRepo(db: Db) {
     async applyTransition(trx: Db, versionId: number, expect: { from: VersionState; revision: number }, to: VersionState, draft?: { content: TemplateContent; hash: string; componentIds: number[] }): Promise<boolean> {
       const n = await trx('template_versions')
         .where({ id: versionId, state: expect.from, revision: expect.revision })
-        .update({ state: to, revision: expect.revision + 1, updated_at: trx.fn.now(), ...(draft ? { content: JSON.stringify(draft.content), content_hash: draft.hash } : {}) });
+        .update({ state: to, revision: expect.revision + 1, updated_at: trx.fn.now(), ...(draft ? { content: JSON.stringify(draft.content), content_hash: draft.hash, placement_count: draft.content.placements.length } : {}) });
       if (n === 0) return false;
       if (draft) {
         await trx('template_version_components').where({ version_id: versionId }).delete();

@@ -1,4 +1,5 @@
 import type { Db } from './knex';
+import { isoTime, orderByText } from './dialect';
 import type { Role, User } from '../../shared/schemas/auth';
 import type { Unit } from '../../shared/schemas/common';
 
@@ -21,7 +22,7 @@ const toUser = (r: UserRow): User => ({
   active: !!r.active,
   displayUnit: r.display_unit ?? null,
   invited: r.password_hash === null,
-  createdAt: String(r.created_at),
+  createdAt: isoTime(r.created_at),
 });
 
 export function usersRepo(db: Db) {
@@ -42,7 +43,7 @@ export function usersRepo(db: Db) {
       return row && { ...toUser(row), passwordHash: row.password_hash };
     },
     async list(): Promise<User[]> {
-      return (await db<UserRow>('users').orderBy('email')).map(toUser);
+      return (await orderByText(db, db('users'), 'email')).map(toUser);
     },
     async insert(u: { email: string; name: string; role: Role; passwordHash: string | null; active?: boolean }, trx: Db = db): Promise<User> {
       const [row] = await trx<UserRow>('users')

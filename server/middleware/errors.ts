@@ -1,5 +1,6 @@
 import type { ErrorRequestHandler, RequestHandler } from 'express';
 import { ZodError } from 'zod';
+import { isOutOfRange, isUniqueViolation } from '../db/dialect';
 
 /** The one error type routes and services throw; the handler below turns it into the error body. */
 export class HttpError extends Error {
@@ -44,6 +45,8 @@ export const apiNotFound: RequestHandler = (req) => {
  * or locked past its timeout (Node's errno codes; SQLite result codes, sqlite.org/rescode.html).
  * Retrying later can work, so they answer 503, never the 500 of a bug.
  */
+const DB_DOWN = 'The database cannot be reached right now; nothing was saved. Try again in a moment, and tell whoever runs Gridset if it goes on.';
+const BUSY = 'The database is busy with other work; nothing was saved, so try again in a moment.';
 const UNAVAILABLE: Record<string, string> = {
   ENOSPC: 'The server is out of disk space, so nothing was saved; tell whoever runs Gridset, then try again.',
   EDQUOT: 'The server is out of disk space, so nothing was saved; tell whoever runs Gridset, then try again.',
@@ -54,13 +57,27 @@ const UNAVAILABLE: Record<string, string> = {
   SQLITE_BUSY: 'The database is busy with other work; nothing was saved, so try again in a moment.',
   SQLITE_LOCKED: 'The database is busy with other work; nothing was saved, so try again in a moment.',
   SQLITE_IOERR: 'The server could not read or write its disk; nothing was saved. Tell whoever runs Gridset.',
+  // PostgreSQL: the server cannot be reached or is restarting (node-postgres socket errors; SQLSTATE
+  // 57P01 admin_shutdown, 57P03 cannot_connect_now, 53300 too_many_connections), or it broke off a
+  // transaction that can simply be run again (40001 serialization_failure, 40P01 deadlock_detected).
+  ECONNREFUSED: DB_DOWN,
+  ECONNRESET: DB_DOWN,
+  '57P01': DB_DOWN,
+  '57P03': DB_DOWN,
+  '53300': BUSY,
+  '40001': BUSY,
+  '40P01': BUSY,
 };
 
 /** The 503 sentence for a fault of the machine, or null. SQLite extended codes (SQLITE_IOERR_WRITE …) count as their primary. */
 export function unavailableMessage(err: unknown): string | null {
   const code = typeof (err as { code?: unknown })?.code === 'string' ? (err as { code: string }).code : '';
+  // Knex gives up waiting for a pooled connection with a KnexTimeoutError (no code).
+  if ((err as { name?: unknown })?.name === 'KnexTimeoutError') return BUSY;
   return UNAVAILABLE[code] ?? UNAVAILABLE[code.split('_').slice(0, 2).join('_')] ?? null;
 }
+
+export const UNIQUE_RACE_MESSAGE = 'Someone else saved the same code, name or version number at the same moment; reload the page and try again.';
 
 export function errorHandler(log: (err: unknown) => void = console.error): ErrorRequestHandler {
   return (err, _req, res, _next) => {
@@ -89,6 +106,16 @@ export function errorHandler(log: (err: unknown) => void = console.error): Error
             ? 'The request body is too large.'
             : String(err.message || 'The request was refused.');
       res.status(status).json({ error: { code: err.code ? String(err.code).toLowerCase() : 'bad-request', message, details: null } });
+      return;
+    }
+    // Two requests that raced for the same code, name or next number: the second one's insert hits
+    // the database's unique constraint. The first was saved; the second answers 409, saving nothing.
+    if (isUniqueViolation(err)) {
+      res.status(409).json({ error: { code: 'conflict', message: UNIQUE_RACE_MESSAGE, details: null } });
+      return;
+    }
+    if (isOutOfRange(err)) {
+      res.status(400).json({ error: { code: 'bad-request', message: 'A number in the request is too large to store; use a smaller one.', details: null } });
       return;
     }
     const unavailable = unavailableMessage(err);

@@ -1,6 +1,6 @@
 import { readFileSync } from 'node:fs';
 import { CAN } from '../../shared/schemas/auth';
-import { IdParamSchema } from '../../shared/schemas/common';
+import { IdParamSchema, ROW_ID_MAX, TOO_LARGE_ID } from '../../shared/schemas/common';
 import { z } from 'zod';
 import { currentUser } from '../middleware/auth';
 import { singleFileUpload, usingUpload } from '../middleware/upload';
@@ -21,7 +21,7 @@ export function manifestRoutes(deps: { manifest: ManifestService; templates: Tem
       res.type(XLSX).attachment('gridset-manifest.xlsx').send(xlsx);
     } },
     { method: 'get', path: '/templates/:id/versions/:n/manifest.xlsx', access: 'signed-in', handler: async (req, res) => {
-      const { id, n } = parseOr400(IdParamSchema.extend({ n: z.coerce.number().int().positive() }), req.params, 'address');
+      const { id, n } = parseOr400(IdParamSchema.extend({ n: z.coerce.number().int().positive().max(ROW_ID_MAX, TOO_LARGE_ID) }), req.params, 'address');
       const v = await templates.version(id, n);
       const xlsx = await manifest.exportCatalog({ unit: v.unit, rows: v.stations });
       res.type(XLSX).attachment(`manifest-${id}-v${n}.xlsx`).send(xlsx);

@@ -1,17 +1,17 @@
 import { CAN } from '../../shared/schemas/auth';
 import { z } from 'zod';
-import { IdParamSchema } from '../../shared/schemas/common';
+import { IdParamSchema, ROW_ID_MAX, TOO_LARGE_ID } from '../../shared/schemas/common';
 import { currentUser } from '../middleware/auth';
 import type { ReviewsService } from '../services/reviews';
 import { parseOr400 } from './parse';
 import type { RouteDef } from './route-table';
 
-const VersionParamsSchema = IdParamSchema.extend({ n: z.coerce.number({ message: 'The version number in the address must be a whole number.' }).int().positive() });
+const VersionParamsSchema = IdParamSchema.extend({ n: z.coerce.number({ message: 'The version number in the address must be a whole number.' }).int().positive().max(ROW_ID_MAX, TOO_LARGE_ID) });
 const CommentSchema = z.object({ comment: z.string().trim().max(4000, 'Comments are limited to 4,000 characters.').default('') });
 const ChangesSchema = z.object({ comment: z.string({ message: 'Say what to change: a comment is required.' }).trim().min(3, 'Say what to change: a comment is required.').max(4000) });
 const DiffQuerySchema = z.object({
-  from: z.coerce.number({ message: 'from must be a version number.' }).int().positive('from must be a version number.'),
-  to: z.coerce.number({ message: 'to must be a version number.' }).int().positive('to must be a version number.'),
+  from: z.coerce.number({ message: 'from must be a version number.' }).int().positive('from must be a version number.').max(ROW_ID_MAX, TOO_LARGE_ID),
+  to: z.coerce.number({ message: 'to must be a version number.' }).int().positive('to must be a version number.').max(ROW_ID_MAX, TOO_LARGE_ID),
 });
 
 // Each step's route admits the roles the lifecycle table (shared/review/lifecycle.ts) names for it;

@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { CAN } from '../../shared/schemas/auth';
-import { IdParamSchema } from '../../shared/schemas/common';
+import { IdParamSchema, ROW_ID_MAX, TOO_LARGE_ID } from '../../shared/schemas/common';
 import { CreateTemplateInputSchema, NewVersionInputSchema, ReleaseInputSchema, OffsetsQuerySchema, SaveVersionInputSchema } from '../../shared/schemas/template-api';
 import { toTemplateFile } from '../../shared/interchange/template-file';
 import { currentUser } from '../middleware/auth';
@@ -15,7 +15,7 @@ import { parseOr400 } from './parse';
 import type { RouteDef } from './route-table';
 
 const VersionParamsSchema = IdParamSchema.extend({
-  n: z.coerce.number({ message: 'The version number in the address must be a whole number.' }).int().positive(),
+  n: z.coerce.number({ message: 'The version number in the address must be a whole number.' }).int().positive().max(ROW_ID_MAX, TOO_LARGE_ID),
 });
 
 /** A file name safe in a Content-Disposition header: the template name, version and kind. */

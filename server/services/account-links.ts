@@ -7,6 +7,7 @@ import type { TokenPurpose, UserTokensRepo } from '../db/user-tokens-repo';
 import type { Mailer } from '../mail/mailer';
 import { HttpError, conflict } from '../middleware/errors';
 import { hashPassword } from './passwords';
+import { deleteSessionsOfUser, isUniqueViolation } from '../db/dialect';
 
 /** How long a link works: a week to accept an invitation, an hour to reset a password. */
 export const LINK_LIFETIME_MS: Record<TokenPurpose, number> = {
@@ -117,7 +118,7 @@ export function accountLinksService(deps: Deps) {
           return { user, tokenId: id, token };
         });
       } catch (err) {
-        if (String((err as { code?: string }).code).startsWith('SQLITE_CONSTRAINT')) throw conflict(`A user with the address ${input.email} already exists.`);
+        if (isUniqueViolation(err)) throw conflict(`A user with the address ${input.email} already exists.`);
         throw err;
       }
       try {
@@ -156,9 +157,7 @@ export function accountLinksService(deps: Deps) {
         const how = t!.purpose === 'invite' ? 'accepted the invitation and chose a password' : 'set a new password from a reset link';
         await audit.record({ userId: t!.userId, action: t!.purpose === 'invite' ? 'user.invite-accepted' : 'user.password-reset', objectType: 'user', objectId: t!.userId, summary: `${found!.email} ${how}` }, trx);
         // A new password ends every session of the account (OWASP Forgot Password Cheat Sheet).
-        if (await trx.schema.hasTable('sessions')) {
-          await trx('sessions').whereRaw("json_extract(sess, '$.passport.user') = ?", [t!.userId]).del();
-        }
+        await deleteSessionsOfUser(trx, t!.userId);
       });
       return { email: found!.email };
     },

@@ -11,6 +11,7 @@ import { jobRails, railsUsed, stationsUsed } from '../../shared/jobs/stations-us
 import { partOverlapProblems, settingsProblem, widthProblem, type JobProblem, type PartRotation } from '../../shared/jobs/job-problems';
 import { evaluateTemplate } from '../../shared/stations/evaluate-template';
 import type { Db } from '../db/knex';
+import { isoTime } from '../db/dialect';
 import type { JobRow, JobsRepo } from '../db/jobs-repo';
 import type { AuditRepo } from '../db/audit-repo';
 import { badRequest, notFound } from '../middleware/errors';
@@ -48,7 +49,7 @@ export function jobsService(deps: { db: Db; jobs: JobsRepo; templates: Templates
       ...fields(r), id: r.id, templateName: r.template_name, unit: v.unit, versionState: v.state, contentHash: v.contentHash,
       stations: v.stations.length, stationsUsed: used, runtimeMinutes: runtimeMinutes(used.length, r.cycle_minutes, r.load_minutes),
       newerRelease: newest !== null && newest > r.number ? newest : null,
-      hasPartOutline: !!r.part_outline, createdAt: String(r.created_at), updatedAt: String(r.updated_at),
+      hasPartOutline: !!r.part_outline, createdAt: isoTime(r.created_at), updatedAt: isoTime(r.updated_at),
     };
   }
 
@@ -63,7 +64,7 @@ export function jobsService(deps: { db: Db; jobs: JobsRepo; templates: Templates
 
   async function partProgram(r: JobRow, v: TemplateVersion): Promise<PartProgramInfo | null> {
     const p = await programs.head(r.id);
-    return p ? { ...JSON.parse(p.summary), sha256: p.sha256, updatedAt: String(p.updated_at), minimumSafeZ: safeZFloor(r, v) } : null;
+    return p ? { ...JSON.parse(p.summary), sha256: p.sha256, updatedAt: isoTime(p.updated_at), minimumSafeZ: safeZFloor(r, v) } : null;
   }
 
   async function detail(id: number): Promise<JobDetail & { version: number }> {
@@ -72,7 +73,7 @@ export function jobsService(deps: { db: Db; jobs: JobsRepo; templates: Templates
     const checks = await jobs.stockChecks(id);
     const stockChecks: JobStockCheck[] = checks.map((c) => {
       const req = JSON.parse(c.request);
-      return { id: c.id, jawPlacement: c.jaw_placement, at: String(c.created_at), by: c.by_name ?? null, nominalOpening: req.nominalOpening, unit: req.unit, appliesTo: req.appliesTo ?? [], bars: req.bars, result: JSON.parse(c.result), rails: req.rails ?? [], railsNotChecked: req.railsNotChecked ?? [] };
+      return { id: c.id, jawPlacement: c.jaw_placement, at: isoTime(c.created_at), by: c.by_name ?? null, nominalOpening: req.nominalOpening, unit: req.unit, appliesTo: req.appliesTo ?? [], bars: req.bars, result: JSON.parse(c.result), rails: req.rails ?? [], railsNotChecked: req.railsNotChecked ?? [] };
     });
     const f = fields(r);
     const { rails, used, usedRails } = usedOf(r, v);

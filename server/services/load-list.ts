@@ -4,6 +4,7 @@ import type { LoadList, LoadListInput } from '../../shared/schemas/load-list';
 import { checkLoadList, proposeLoadList, type LoadRail } from '../../shared/clamps/load-list';
 import type { Db } from '../db/knex';
 import type { AuditRepo } from '../db/audit-repo';
+import { loadListsRepo } from '../db/load-lists-repo';
 import { HttpError, conflict } from '../middleware/errors';
 import type { JobsService } from './jobs';
 
@@ -28,6 +29,7 @@ function railsOf(job: JobDetail): LoadRail[] {
  */
 export function loadListService(deps: { db: Db; jobs: JobsService; audit: AuditRepo }) {
   const { db, jobs, audit } = deps;
+  const lists = loadListsRepo(db);
 
   async function basis(jobId: number) {
     const job = await jobs.detail(jobId);
@@ -40,7 +42,7 @@ export function loadListService(deps: { db: Db; jobs: JobsService; audit: AuditR
   return {
     async get(jobId: number): Promise<LoadList> {
       const { check, checks, rails } = await basis(jobId);
-      const row = await db('job_load_lists').where({ job_id: jobId }).first();
+      const row = await lists.get(jobId);
       if (row && row.stock_check_id === check.id) return { proposed: false, revision: row.revision, stockCheckId: check.id, ...JSON.parse(row.content) };
       return { proposed: true, revision: row?.revision ?? 0, stockCheckId: check.id, ...proposeLoadList(rails, checks) };
     },
@@ -49,12 +51,11 @@ export function loadListService(deps: { db: Db; jobs: JobsService; audit: AuditR
       const checked = checkLoadList(input, rails, checks);
       if (!checked.ok) throw new HttpError(400, 'load-list', checked.message);
       return db.transaction(async (trx) => {
-        const row = await trx('job_load_lists').where({ job_id: jobId }).first();
+        const row = await lists.get(jobId, trx);
         const current = row?.revision ?? 0;
-        if (input.revision !== undefined && input.revision !== current) throw conflict(`Someone saved this load list after you opened it (revision ${current}); reload it and make your change again.`);
-        const content = JSON.stringify(checked.list);
-        if (row) await trx('job_load_lists').where({ job_id: jobId, revision: current }).update({ content, stock_check_id: check.id, revision: current + 1, updated_by: user.id, updated_at: trx.fn.now() });
-        else await trx('job_load_lists').insert({ job_id: jobId, stock_check_id: check.id, content, revision: 1, updated_by: user.id });
+        const changed = () => conflict(`Someone saved this load list after you opened it (revision ${current}); reload it and make your change again.`);
+        if (input.revision !== undefined && input.revision !== current) throw changed();
+        if (!(await lists.save(trx, jobId, current, { stockCheckId: check.id, content: JSON.stringify(checked.list), userId: user.id }))) throw changed();
         await audit.record({ userId: user.id, action: 'job.load-list', objectType: 'job', objectId: jobId, summary: `Kept the load list: ${checked.list.rails.map((r) => `${r.jawPlacement} at setting ${r.setting + 1}`).join(', ')}; empty stations ${checked.list.emptyStations.join(', ') || 'none'}`, after: checked.list }, trx);
         return { proposed: false, revision: current + 1, stockCheckId: check.id, ...checked.list };
       });

@@ -28,7 +28,7 @@ export function manifestService(deps: { db: Db; catalog: CatalogRepo; naming: Na
   const { db, catalog, naming, audit } = deps;
 
   async function allComponents(): Promise<Component[]> {
-    return (JSON.parse(await catalog.listComponentsJson({ offset: 0 })) as { items: Component[] }).items;
+    return (await catalog.listComponents({ offset: 0 })).items;
   }
 
   /** An upload is a workbook when it is a zip (Office Open XML), else CSV text; judged by content, not name. */

@@ -1,6 +1,7 @@
 import type { NamingCheckResult, NamingConvention, NamingTarget } from '../../shared/schemas/naming';
 import { checkName } from '../../shared/naming/check-name';
 import type { NamingRepo } from '../db/naming-repo';
+import { retryUniqueRace } from '../db/dialect';
 import type { AuditRepo } from '../db/audit-repo';
 import { HttpError } from '../middleware/errors';
 
@@ -9,7 +10,8 @@ export function namingService(repo: NamingRepo, audit: AuditRepo) {
     current: () => repo.current(),
     history: () => repo.history(),
     async save(c: Omit<NamingConvention, 'version'>, userId: number) {
-      return audit.audited((trx) => repo.save(c, userId, trx), (saved) => ({ userId, action: 'naming.save', objectType: 'naming', objectId: saved.version, summary: `Saved naming convention version ${saved.version}`, after: saved }));
+      // Two leads saving at once both read the same latest version; the one that loses saves again as the next.
+      return retryUniqueRace(() => audit.audited((trx) => repo.save(c, userId, trx), (saved) => ({ userId, action: 'naming.save', objectType: 'naming', objectId: saved.version, summary: `Saved naming convention version ${saved.version}`, after: saved })));
     },
     async check(target: NamingTarget, name: string): Promise<NamingCheckResult> {
       const convention = await repo.current();

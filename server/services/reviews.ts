@@ -5,6 +5,7 @@ import type { ReviewAction } from '../../shared/review/lifecycle';
 import { compareVersions } from '../../shared/compare/compare-versions';
 import { versionNamingProblems } from '../../shared/naming/version-names';
 import type { Db } from '../db/knex';
+import { reviewsRepo } from '../db/reviews-repo';
 import type { UsersRepo } from '../db/users-repo';
 import { HttpError } from '../middleware/errors';
 import type { NamingService } from './naming';
@@ -24,6 +25,7 @@ interface Deps {
 
 export function reviewsService(deps: Deps) {
   const { db, templates, users, naming, mailer, publicUrl } = deps;
+  const trail = reviewsRepo(db);
 
   async function step(user: User, templateId: number, number: number, action: ReviewAction, comment = '') {
     const convention = await naming.current();
@@ -39,7 +41,7 @@ export function reviewsService(deps: Deps) {
           throw new HttpError(400, 'naming', `Version ${number} breaks the naming convention: ${names[0]!.message}. Fix the names, or a lead waives them in writing before approval.`, { naming: names });
         }
       },
-      also: async (trx, v) => { await trx('version_reviews').insert({ version_id: v.row.id, action, comment, user_id: user.id }); },
+      also: (trx, v) => trail.add(trx, { versionId: v.row.id, action, comment, userId: user.id }),
       audit: (v, to) => ({ action: `version.${action}`, summary: `${v.content.name} v${number}: ${v.row.state} → ${to}${comment ? ` — "${comment}"` : ''}`, before: { state: v.row.state }, after: { state: to, comment: comment || undefined } }),
     });
     await notify(action, templates.present(templateId, v), user, comment, v.row.author_id);
@@ -78,8 +80,7 @@ export function reviewsService(deps: Deps) {
     retire: (u: User, id: number, n: number) => step(u, id, n, 'retire'),
     async reviews(templateId: number, number: number) {
       const v = await templates.requireVersion(templateId, number);
-      const rows = await db('version_reviews as r').leftJoin('users as u', 'u.id', 'r.user_id').where('r.version_id', v.row.id).select('r.action', 'r.comment', 'r.created_at', 'u.name', 'u.email').orderBy('r.id');
-      return rows.map((r) => ({ action: r.action, comment: r.comment, at: String(r.created_at), by: r.name ?? null, byEmail: r.email ?? null }));
+      return trail.trail(v.row.id);
     },
     async diff(templateId: number, from: number, to: number): Promise<VersionDiff> {
       const [a, b] = await Promise.all([templates.requireVersion(templateId, from), templates.requireVersion(templateId, to)]);

@@ -8,6 +8,7 @@ import { canonicalJson } from '../../shared/interchange/canonical-json';
 import { layoutForHash, TEMPLATE_FORMAT, TEMPLATE_FORMAT_VERSION } from '../../shared/interchange/template-file';
 import { evaluateTemplate, type TemplateEvaluation } from '../../shared/stations/evaluate-template';
 import type { Db } from '../db/knex';
+import { isoTime, toNumber } from '../db/dialect';
 import type { CatalogRepo } from '../db/catalog-repo';
 import type { StoredVersion, TemplatesRepo } from '../db/templates-repo';
 import { HttpError, badRequest, conflict, notFound, validationError } from '../middleware/errors';
@@ -133,7 +134,7 @@ export function templatesService(deps: { db: Db; templates: TemplatesRepo; catal
       ...v.content,
       numbering: v.content.numbering ?? { order: 'row-by-row' },
       templateId, version: v.row.number, state: v.row.state, revision: v.row.revision, contentHash: v.row.content_hash,
-      stations: evaluation.stations, problems: evaluation.problems, pairings: evaluation.pairings, updatedAt: String(v.row.updated_at),
+      stations: evaluation.stations, problems: evaluation.problems, pairings: evaluation.pairings, updatedAt: isoTime(v.row.updated_at),
       namingWaiver: v.row.naming_waiver ?? null,
       authorId: v.row.author_id ?? null,
     };
@@ -162,8 +163,8 @@ export function templatesService(deps: { db: Db; templates: TemplatesRepo; catal
       const rows = await templates.list();
       const items = rows.map(({ t, versions }) => ({
         id: t.id, name: t.name, plateId: t.plate_id, plateCode: t.plate_code, unit: t.plate_unit as TemplateSummary['unit'],
-        versions: versions.map((v) => ({ number: v.number, state: v.state, contentHash: v.content_hash, placements: Number((v as unknown as { placements: number }).placements ?? 0), updatedAt: String(v.updated_at) })),
-        createdAt: String(t.created_at), updatedAt: String(t.updated_at),
+        versions: versions.map((v) => ({ number: v.number, state: v.state, contentHash: v.content_hash, placements: toNumber(v.placement_count), updatedAt: isoTime(v.updated_at) })),
+        createdAt: isoTime(t.created_at), updatedAt: isoTime(t.updated_at),
       }));
       return { items, total: items.length };
     },

@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { listOf } from './common';
+import { ROW_ID_MAX, TOO_LARGE_ID, listOf } from './common';
 
 export const AuditEntrySchema = z.object({
   id: z.number().int(),
@@ -21,7 +21,7 @@ const day = z
   .regex(/^\d{4}-\d{2}-\d{2}$/, 'Dates are written YYYY-MM-DD, e.g. 2026-12-01.')
   .refine((s) => !Number.isNaN(Date.parse(s)) && new Date(s).toISOString().startsWith(s), 'That is not a calendar date; write YYYY-MM-DD, e.g. 2026-12-01.');
 export const AuditQuerySchema = z.object({
-  user: z.coerce.number().int().positive().optional(),
+  user: z.coerce.number().int().positive().max(ROW_ID_MAX, TOO_LARGE_ID).optional(),
   object: z.string().max(40).optional(),
   objectId: z.string().max(40).optional(),
   from: day.optional(),

@@ -30,8 +30,15 @@ export const plainText = (label: string, max: number, multiline = false) =>
 export const PointSchema = z.object({ x: finite('x'), y: finite('y') });
 export type Point = z.infer<typeof PointSchema>;
 
+/**
+ * The largest id or version number a record can have: ids and numbers are 32-bit integer columns
+ * (PostgreSQL "integer", 2^31 - 1), so anything larger names no record.
+ */
+export const ROW_ID_MAX = 2_147_483_647;
+export const TOO_LARGE_ID = `Ids and version numbers are at most ${ROW_ID_MAX}; no record has a larger one.`;
+
 export const IdParamSchema = z.object({
-  id: z.coerce.number({ message: 'The id in the address must be a whole number.' }).int().positive(),
+  id: z.coerce.number({ message: 'The id in the address must be a whole number.' }).int().positive().max(ROW_ID_MAX, TOO_LARGE_ID),
 });
 
 /** Paging and text filter for every catalog list: ?limit=&offset=&q= */

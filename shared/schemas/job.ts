@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { UnitSchema, finite, listOf, nonNegative, plainText, positive } from './common';
+import { ROW_ID_MAX, TOO_LARGE_ID, UnitSchema, finite, listOf, nonNegative, plainText, positive } from './common';
 import { OutlineSchema } from './geometry';
 import { PairingSchema, StationSchema } from './template';
 import { MeasuredBarSchema, StockCheckRequestSchema, StockCheckResponseSchema } from './stock-check';
@@ -20,8 +20,8 @@ export const JobInputSchema = z.object({
   name: text('Job name', 120),
   partNumber: text('Part number', 60),
   partRevision: plainText('Revision', 20).trim().default(''),
-  templateId: z.number({ message: 'Choose a template.' }).int().positive('Choose a template.'),
-  version: z.number({ message: 'Choose a released version.' }).int().positive('Choose a released version.'),
+  templateId: z.number({ message: 'Choose a template.' }).int().positive('Choose a template.').max(ROW_ID_MAX, TOO_LARGE_ID),
+  version: z.number({ message: 'Choose a released version.' }).int().positive('Choose a released version.').max(ROW_ID_MAX, TOO_LARGE_ID),
   stock: StockSizeSchema,
   carrier: positive('Carrier thickness'),
   clearance: nonNegative('Tool clearance'),

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { ROW_ID_MAX, TOO_LARGE_ID } from './common';
 
 /** The load list of a job's cycle (shared/clamps/load-list.ts): one setting per jaw rail, one bar per station. */
 export const LoadListStationSchema = z.object({
@@ -26,7 +27,7 @@ export const LoadListSchema = z.object({
   proposed: z.boolean(),
   revision: z.number().int(),
   /** The stock check the list was made from. */
-  stockCheckId: z.number().int(),
+  stockCheckId: z.number().int().max(ROW_ID_MAX, TOO_LARGE_ID),
   rails: z.array(LoadListRailSchema.extend({ targetOpening: z.number(), room: z.number(), shift: z.number() })),
   /** Station numbers with no bar this cycle, ascending. */
   emptyStations: z.array(z.number().int()),

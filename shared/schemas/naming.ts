@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { ROW_ID_MAX, TOO_LARGE_ID } from './common';
 import { compileRule } from '../naming/compile-rule';
 import { hasControl } from './limits';
 
@@ -94,7 +95,7 @@ export type NamingRule = z.output<typeof RuleShapeSchema>;
 
 export const NamingConventionSchema = z.object({
   /** Raised by one each time the lead saves a change, so a check can say which rules it used. */
-  version: z.number({ message: 'version must be a whole number.' }).int('version must be a whole number.').min(1, 'version must be 1 or more.'),
+  version: z.number({ message: 'version must be a whole number.' }).int('version must be a whole number.').min(1, 'version must be 1 or more.').max(ROW_ID_MAX, TOO_LARGE_ID),
   layer: LayerRuleSchema,
   component: ComponentRuleSchema,
 }, { error: 'The naming convention must be an object with version, layer and component.' });

@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { CONTROL_FAMILIES, familyFromAlias, type ControlFamily } from '../gcode/control-families';
-import { listOf } from './common';
+import { ROW_ID_MAX, TOO_LARGE_ID, listOf } from './common';
 import {
   NumberingSchema, PairingSchema, PlacementSchema, ProblemSchema, SharedOffsetSchema, StationSchema,
   TemplateComponentSchema, TemplateContentFieldsSchema, PlateRefSchema, checkStationCount,
@@ -15,7 +15,7 @@ export type VersionState = z.infer<typeof VersionStateSchema>;
 
 export const CreateTemplateInputSchema = z.object({
   name: plainText('Template name', 120).trim().min(1, 'Template name is required.'),
-  plateId: z.number({ message: 'Choose a plate.' }).int().positive('Choose a plate.'),
+  plateId: z.number({ message: 'Choose a plate.' }).int().positive('Choose a plate.').max(ROW_ID_MAX, TOO_LARGE_ID),
 });
 export type CreateTemplateInput = z.infer<typeof CreateTemplateInputSchema>;
 
@@ -84,7 +84,7 @@ export const ReleaseInputSchema = z.object({
   waiver: plainText('The waiver', 2000, true).trim().min(10, 'A waiver needs a written reason of at least 10 characters.').optional(),
 });
 
-export const NewVersionInputSchema = z.object({ from: z.number({ message: 'from must be the number of the version to copy.' }).int().min(1) });
+export const NewVersionInputSchema = z.object({ from: z.number({ message: 'from must be the number of the version to copy.' }).int().min(1).max(ROW_ID_MAX, TOO_LARGE_ID) });
 
 const familyWords = CONTROL_FAMILIES.join(', ');
 const coordinate = /^\s*-?\d+(\.\d+)?\s*$/;

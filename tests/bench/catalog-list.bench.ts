@@ -15,8 +15,8 @@ export async function run() {
     for (const c of rows) await catalogRepo(trx).insertComponent(c);
   });
   // The bare routes serve the same answers as parsed objects kept in memory.
-  const page = JSON.parse(await repo.listComponentsJson({ limit: 50, offset: 0 }));
-  const full = JSON.parse(await repo.listComponentsJson({ offset: 0 }));
+  const page = await repo.listComponents({ limit: 50, offset: 0 });
+  const full = await repo.listComponents({ offset: 0 });
   const bare = express();
   bare.get('/page', (_req, res) => { res.json(page); });
   bare.get('/full', (_req, res) => { res.json(full); });

@@ -4,7 +4,7 @@
  * whether a refused write changed any table's row count, and any error the app logged.
  */
 import type request from 'supertest';
-import type { Agent, TestApp } from '../server/test-app';
+import { tableNames, type Agent, type TestApp } from '../server/test-app';
 import {
   dxfSeeds, gcodeSeeds, hostileQuery, makeRng, mutateBytes, mutateDxf, mutateJson, mutateXlsx, namedHostileDxf, namedHostileGcode, namedHostileXlsx, xlsxFixtures, type Rng,
 } from './inputs';
@@ -27,9 +27,8 @@ export interface FuzzReport {
 const COUNTED_OUT = new Set(['sessions', 'rate_limits', 'sqlite_sequence', 'knex_migrations', 'knex_migrations_lock']);
 
 async function tableCounts(t: TestApp): Promise<string> {
-  const rows = (await t.db.raw("select name from sqlite_master where type = 'table'")) as { name: string }[];
   const out: string[] = [];
-  for (const { name } of rows) {
+  for (const name of await tableNames(t.db)) {
     if (COUNTED_OUT.has(name)) continue;
     const [{ n }] = (await t.db(name).count({ n: '*' })) as [{ n: number }];
     out.push(`${name}=${n}`);

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import type { Role } from '../../shared/schemas/auth';
-import { appWithEveryRole, type Agent } from './test-app';
+import { allRows, appWithEveryRole, refuseAuditAction, type Agent } from './test-app';
 
 /**
  * Every write keeps its audit line in the same transaction: after success both are there; when
@@ -72,7 +72,7 @@ const CASES: Case[] = [
   },
 ];
 
-const snapshot = async (tables: string[]) => JSON.stringify(await Promise.all(tables.map((name) => ctx.t.db(name).select().orderBy('rowid'))));
+const snapshot = async (tables: string[]) => JSON.stringify(await Promise.all(tables.map((name) => allRows(ctx.t.db, name))));
 const auditCount = async (action: string) => Number(((await ctx.t.db('audit').where({ action }).count({ n: '*' })) as [{ n: number }])[0].n);
 
 describe('every write and its audit line share one transaction', () => {
@@ -81,12 +81,12 @@ describe('every write and its audit line share one transaction', () => {
     const before = await snapshot(c.tables);
     const audits = await auditCount(c.action);
 
-    await ctx.t.db.raw(`CREATE TEMP TRIGGER refuse_audit AFTER INSERT ON audit WHEN NEW.action = '${c.action}' BEGIN SELECT RAISE(ABORT, 'audit refused for the test'); END`);
+    const allow = await refuseAuditAction(ctx.t.db, c.action);
     try {
       const failed = await c.call(prepared);
       expect(failed.status).toBeGreaterThanOrEqual(400);
     } finally {
-      await ctx.t.db.raw('DROP TRIGGER refuse_audit');
+      await allow();
     }
     expect(await snapshot(c.tables), 'the write is undone with its audit line').toBe(before);
     expect(await auditCount(c.action)).toBe(audits);

@@ -1,4 +1,5 @@
 import { afterAll, beforeAll } from 'vitest';
+import { randomBytes } from 'node:crypto';
 import { mkdtempSync, rmSync } from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
@@ -28,10 +29,48 @@ export interface Agent {
   delete(url: string): request.Test;
 }
 
-/** A fresh SQLite file per call, migrated and seeded with the demo shop. */
+/**
+ * True in the server-pg test project (GRIDSET_TEST_PG=1 with TEST_DATABASE_URL set): every test app
+ * runs on a fresh PostgreSQL database instead of a SQLite file.
+ */
+export const ON_POSTGRES = process.env.GRIDSET_TEST_PG === '1' && !!process.env.TEST_DATABASE_URL;
+
+/** Why a test of SQLite's own file handling does not run on PostgreSQL. */
+export const SQLITE_ONLY = 'SQLite-specific: it works on the SQLite file itself';
+
+/**
+ * A new, empty PostgreSQL database named gridset_t_<random>, made through the admin URL in
+ * TEST_DATABASE_URL; `drop` ends its connections and removes it.
+ */
+export async function createTestDatabase(adminUrl = process.env.TEST_DATABASE_URL!): Promise<{ url: string; drop(): Promise<void> }> {
+  const name = `gridset_t_${randomBytes(6).toString('hex')}`;
+  const admin = openDb(adminUrl);
+  try {
+    await admin.raw(`CREATE DATABASE ${name}`);
+  } finally {
+    await admin.destroy();
+  }
+  const url = new URL(adminUrl);
+  url.pathname = `/${name}`;
+  return {
+    url: url.toString(),
+    async drop() {
+      const a = openDb(adminUrl);
+      try {
+        await a.raw('SELECT pg_terminate_backend(pid) FROM pg_stat_activity WHERE datname = ? AND pid <> pg_backend_pid()', [name]);
+        await a.raw(`DROP DATABASE IF EXISTS ${name}`);
+      } finally {
+        await a.destroy();
+      }
+    },
+  };
+}
+
+/** A fresh database per call (a SQLite file, or a PostgreSQL database in the server-pg project), migrated and seeded with the demo shop. */
 export async function makeTestApp(opts: { seed?: boolean; uploadsPer15Minutes?: number } = {}): Promise<TestApp> {
   const dataDir = mkdtempSync(path.join(os.tmpdir(), 'gridset-test-'));
-  const db = openDb(path.join(dataDir, 'test.sqlite'));
+  const pg = ON_POSTGRES ? await createTestDatabase() : null;
+  const db = openDb(pg ? pg.url : path.join(dataDir, 'test.sqlite'));
   await migrate(db);
   if (opts.seed !== false) await seedDemoDataIfEmpty(db);
   const errors: unknown[] = [];
@@ -58,9 +97,41 @@ export async function makeTestApp(opts: { seed?: boolean; uploadsPer15Minutes?: 
     },
     async close() {
       await db.destroy();
+      await pg?.drop();
       rmSync(dataDir, { recursive: true, force: true });
     },
   };
+}
+
+/** The names of the app's tables, from the database's own catalog (sqlite_master, or information_schema on PostgreSQL). */
+export async function tableNames(db: Db): Promise<string[]> {
+  if (db.client.dialect === 'postgresql') {
+    const r = (await db.raw("select table_name as name from information_schema.tables where table_schema = current_schema() and table_type = 'BASE TABLE' order by 1")) as { rows: { name: string }[] };
+    return r.rows.map((x) => x.name);
+  }
+  const rows = (await db.raw("select name from sqlite_master where type = 'table' order by 1")) as { name: string }[];
+  return rows.map((x) => x.name);
+}
+
+/**
+ * Makes the database refuse (abort) every audit line with `action`, until the returned function is
+ * called: a fault injected to check that a write and its audit line share one transaction. A SQLite
+ * temporary trigger with RAISE(ABORT) (sqlite.org/lang_createtrigger.html), or a PL/pgSQL trigger
+ * that raises an exception (PostgreSQL manual, 43.10 "Trigger Functions").
+ */
+export async function refuseAuditAction(db: Db, action: string): Promise<() => Promise<void>> {
+  if (db.client.dialect === 'postgresql') {
+    await db.raw(`CREATE OR REPLACE FUNCTION refuse_audit() RETURNS trigger AS $$ BEGIN RAISE EXCEPTION 'audit refused for the test'; END $$ LANGUAGE plpgsql`);
+    await db.raw(`CREATE TRIGGER refuse_audit AFTER INSERT ON audit FOR EACH ROW WHEN (NEW.action = '${action.replace(/'/g, "''")}') EXECUTE FUNCTION refuse_audit()`);
+    return async () => { await db.raw('DROP TRIGGER refuse_audit ON audit'); };
+  }
+  await db.raw(`CREATE TEMP TRIGGER refuse_audit AFTER INSERT ON audit WHEN NEW.action = '${action.replace(/'/g, "''")}' BEGIN SELECT RAISE(ABORT, 'audit refused for the test'); END`);
+  return async () => { await db.raw('DROP TRIGGER refuse_audit'); };
+}
+
+/** Every row of a table in a stable order (SQLite's rowid; on PostgreSQL the whole row as text). */
+export function allRows(db: Db, table: string) {
+  return db.client.dialect === 'postgresql' ? db(table).select().orderByRaw('??::text', [table]) : db(table).select().orderBy('rowid');
 }
 
 export async function tableCounts(db: Db, tables: string[]): Promise<Record<string, number>> {

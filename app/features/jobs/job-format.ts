@@ -22,15 +22,3 @@ export function stationRuns(numbers: readonly number[]): string {
   }
   return runs.join(', ');
 }
-
-/** The server writes SQLite's CURRENT_TIMESTAMP ("2026-12-01 14:05:09", UTC); shown in the browser's local time. */
-export function parseServerTime(at: string): Date | null {
-  const iso = /^\d{4}-\d\d-\d\d \d\d:\d\d:\d\d$/.test(at) ? `${at.replace(' ', 'T')}Z` : at;
-  const d = new Date(iso);
-  return Number.isNaN(d.getTime()) ? null : d;
-}
-
-export function formatServerTime(at: string): string {
-  const d = parseServerTime(at);
-  return d ? d.toLocaleString(undefined, { year: 'numeric', month: 'short', day: 'numeric', hour: '2-digit', minute: '2-digit' }) : at;
-}

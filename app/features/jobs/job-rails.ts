@@ -4,7 +4,7 @@ import type { JobDetail, JobStockCheck } from '../../../shared/schemas/job';
 import type { StockCheckRequest, StockCheckResponse } from '../../../shared/schemas/stock-check';
 import type { Pairing, TemplateComponent } from '../../../shared/schemas/template';
 import { clampIn } from '../../../shared/jobs/stations-used';
-import { parseServerTime } from './job-format';
+import { parseServerTime } from '../../lib/server-time';
 
 /** One jaw rail of the pinned template: the placements that hold a width, grouped as the server checks them. */
 export interface JobRail {

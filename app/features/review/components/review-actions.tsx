@@ -6,6 +6,7 @@ import { transition } from '../../../../shared/review/lifecycle';
 import { Button } from '../../../components/ui/button';
 import { ErrorText } from '../../../components/ui/notice';
 import { useReviewStep, useTrail } from '../api';
+import { formatServerTime } from '../../../lib/server-time';
 
 const STEP_WORDS: Record<string, string> = { submit: 'submitted for review', approve: 'approved', 'request-changes': 'sent back with changes requested', retire: 'retired', release: 'released' };
 
@@ -44,7 +45,7 @@ export function ReviewActions({ version, user, isAuthor, previous, unsavedChange
       {trail.data?.items.length ? (
         <ol className="flex flex-col gap-1 border-t border-slate-200 pt-2">
           {trail.data.items.map((r, i) => (
-            <li key={i}><span className="font-mono text-sm text-slate-600">{r.at}</span> · <span className="font-semibold">{r.by ?? 'someone'}</span> {STEP_WORDS[r.action] ?? r.action}{r.comment ? <>: <q>{r.comment}</q></> : null}</li>
+            <li key={i}><time dateTime={r.at} className="font-mono text-sm text-slate-600">{formatServerTime(r.at)}</time> · <span className="font-semibold">{r.by ?? 'someone'}</span> {STEP_WORDS[r.action] ?? r.action}{r.comment ? <>: <q>{r.comment}</q></> : null}</li>
           ))}
         </ol>
       ) : <p className="text-slate-600">No review steps yet.</p>}
