@@ -3,6 +3,7 @@
 import { readFileSync } from 'node:fs';
 import path from 'node:path';
 import { restoreBackup } from '../server/backup/archive';
+import { databaseUrlOf } from '../server/config';
 
 const args = process.argv.slice(2);
 const file = args.find((a) => !a.startsWith('--'));
@@ -12,7 +13,7 @@ if (!file) {
 }
 const dataDir = path.resolve(process.env.GRIDSET_DATA_DIR ?? './data');
 try {
-  const manifest = await restoreBackup(readFileSync(file), dataDir, { force: args.includes('--force') });
+  const manifest = await restoreBackup(readFileSync(file), dataDir, { force: args.includes('--force'), databaseUrl: databaseUrlOf() });
   console.log(`Restored the backup of ${manifest.createdAt} into ${dataDir}: the database and ${manifest.files.length} stored files. Start Gridset as usual; it migrates the database if it is older.`);
 } catch (e) {
   console.error(`Nothing restored: ${e instanceof Error ? e.message : String(e)}`);

@@ -7,8 +7,7 @@ import helmet from 'helmet';
 import { Passport } from 'passport';
 import { Strategy as LocalStrategy } from 'passport-local';
 import { csrfSync } from 'csrf-sync';
-import type { Db } from './db/knex';
-import { isPostgres } from './db/dialect';
+import { targetOf, type Db } from './db/knex';
 import { SessionStore } from './db/session-store';
 import { usersRepo } from './db/users-repo';
 import { catalogRepo } from './db/catalog-repo';
@@ -149,7 +148,7 @@ export function createApp(deps: AppDeps): GridsetApp {
     ...accountLinkRoutes(accountLinks, db),
     ...outboxRoutes(outboxRepo(db)),
     ...catalogRoutes(catalog),
-    ...settingsRoutes(settings, audit, { dataDir: deps.dataDir, databaseFile: isPostgres(db) ? undefined : (db.client.config.connection as { filename: string }).filename }),
+    ...settingsRoutes(settings, audit, { dataDir: deps.dataDir, database: targetOf(db) }),
     ...templateRoutes(templates, settings),
     ...stockCheckRoutes({ dataDir: deps.dataDir, uploadLimitBytes: deps.uploadLimitBytes ?? 20 * 1024 * 1024 }),
     ...namingRoutes(naming),

@@ -4,6 +4,8 @@ import os from 'node:os';
 import path from 'node:path';
 import Database from 'better-sqlite3';
 import JSZip from 'jszip';
+import { isPostgresUrl, openDb } from '../db/knex';
+import { dumpPostgres, restorePostgres } from './postgres-dump';
 
 /**
  * One archive holds everything a shop would lose with the machine: the database, copied online with
@@ -11,11 +13,13 @@ import JSZip from 'jszip';
  * writes, WAL included — a plain file copy can miss what is still in the -wal file), and the stored
  * files of the data folder (uploaded originals, the mail outbox). manifest.json lists every file
  * with its SHA-256 (FIPS 180-4), so a restore can refuse an archive that changed.
- * SQLite only: a PostgreSQL database is backed up with pg_dump.
+ * On PostgreSQL the database part is pg_dump's custom format instead (postgres-dump.ts), in the
+ * same archive with the same manifest, restored by pg_restore.
  */
 
 export const BACKUP_FORMAT = 'gridset-backup';
 const DB_ENTRY = 'gridset.sqlite';
+const PG_ENTRY = 'gridset.pgdump';
 /** Folders of the data dir whose files are kept; uploads/tmp holds only unfinished uploads. */
 const KEPT_FOLDERS = ['uploads', 'outbox'];
 
@@ -49,8 +53,28 @@ function filesUnder(dataDir: string): string[] {
   return out.sort();
 }
 
-/** The backup archive of a data folder and its SQLite database, as a zip in memory. */
-export async function createBackup(dataDir: string, databaseFile: string): Promise<{ zip: Buffer; manifest: BackupManifest }> {
+/** The newest migration a PostgreSQL database has run. */
+async function postgresSchema(url: string): Promise<string | null> {
+  const db = openDb(url);
+  try {
+    return ((await db('knex_migrations').orderBy('id', 'desc').first('name')) as { name?: string } | undefined)?.name ?? null;
+  } catch {
+    return null;
+  } finally {
+    await db.destroy();
+  }
+}
+
+/**
+ * The backup archive of a data folder and its database (a SQLite file, or a postgres:// URL dumped
+ * with pg_dump), as a zip in memory.
+ */
+export async function createBackup(dataDir: string, database: string): Promise<{ zip: Buffer; manifest: BackupManifest }> {
+  if (isPostgresUrl(database)) {
+    const dump = await dumpPostgres(database);
+    return packArchive(dataDir, PG_ENTRY, dump, await postgresSchema(database));
+  }
+  const databaseFile = database;
   const tmp = mkdtempSync(path.join(os.tmpdir(), 'gridset-backup-'));
   try {
     const copy = path.join(tmp, DB_ENTRY);
@@ -69,21 +93,25 @@ export async function createBackup(dataDir: string, databaseFile: string): Promi
     } finally {
       check.close();
     }
-    const db = readFileSync(copy);
-    const zip = new JSZip();
-    zip.file(DB_ENTRY, db);
-    const files: BackupEntry[] = [];
-    for (const rel of filesUnder(dataDir)) {
-      const body = readFileSync(path.join(dataDir, rel));
-      zip.file(`files/${rel}`, body);
-      files.push(entry(rel, body));
-    }
-    const manifest: BackupManifest = { format: BACKUP_FORMAT, formatVersion: 1, createdAt: new Date().toISOString(), schema, database: entry(DB_ENTRY, db), files };
-    zip.file('manifest.json', JSON.stringify(manifest, null, 2));
-    return { zip: await zip.generateAsync({ type: 'nodebuffer', compression: 'DEFLATE' }), manifest };
+    return await packArchive(dataDir, DB_ENTRY, readFileSync(copy), schema);
   } finally {
     rmSync(tmp, { recursive: true, force: true });
   }
+}
+
+/** The zip: the database entry, the data folder's kept files, and the manifest of their hashes. */
+async function packArchive(dataDir: string, dbEntry: string, db: Buffer, schema: string | null): Promise<{ zip: Buffer; manifest: BackupManifest }> {
+  const zip = new JSZip();
+  zip.file(dbEntry, db);
+  const files: BackupEntry[] = [];
+  for (const rel of filesUnder(dataDir)) {
+    const body = readFileSync(path.join(dataDir, rel));
+    zip.file(`files/${rel}`, body);
+    files.push(entry(rel, body));
+  }
+  const manifest: BackupManifest = { format: BACKUP_FORMAT, formatVersion: 1, createdAt: new Date().toISOString(), schema, database: entry(dbEntry, db), files };
+  zip.file('manifest.json', JSON.stringify(manifest, null, 2));
+  return { zip: await zip.generateAsync({ type: 'nodebuffer', compression: 'DEFLATE' }), manifest };
 }
 
 /** Why a restore was refused; nothing was written. */
@@ -93,9 +121,10 @@ const safeRelative = (p: string) => !path.isAbsolute(p) && !p.split(/[\\/]/).inc
 
 /**
  * Restores an archive into a data folder that is not being served. Every file's hash is checked
- * before anything is written; the database is written beside its place and renamed into it.
+ * before anything is written; a SQLite database is written beside its place and renamed into it, a
+ * PostgreSQL dump is restored into `databaseUrl` by pg_restore in one transaction.
  */
-export async function restoreBackup(archive: Buffer, dataDir: string, opts: { force?: boolean } = {}): Promise<BackupManifest> {
+export async function restoreBackup(archive: Buffer, dataDir: string, opts: { force?: boolean; databaseUrl?: string } = {}): Promise<BackupManifest> {
   let zip: JSZip;
   try {
     zip = await JSZip.loadAsync(archive);
@@ -113,14 +142,48 @@ export async function restoreBackup(archive: Buffer, dataDir: string, opts: { fo
     if (body.length !== e.size || sha256(body) !== e.sha256) throw new RestoreRefused(`${e.path} in the backup does not match its SHA-256 in manifest.json: the archive was changed or damaged; nothing was restored.`);
     return body;
   };
-  const db = await read(DB_ENTRY, manifest.database);
+  const isDump = manifest.database.path === PG_ENTRY;
+  if (isDump && !opts.databaseUrl) throw new RestoreRefused('This backup holds a PostgreSQL database: set DATABASE_URL to the database to restore it into; nothing was restored.');
+  if (!isDump && opts.databaseUrl) throw new RestoreRefused('This backup holds a SQLite database: restore it without DATABASE_URL, then move it with npm run copy-to-postgres; nothing was restored.');
+  const db = await read(isDump ? PG_ENTRY : DB_ENTRY, manifest.database);
   const files: Array<[string, Buffer]> = [];
   for (const e of manifest.files) {
     if (!safeRelative(e.path)) throw new RestoreRefused(`The backup names a file outside the data folder (${e.path}); nothing was restored.`);
     files.push([e.path, await read(`files/${e.path}`, e)]);
   }
+  if (isDump) await restoreDump(db, opts.databaseUrl!, !!opts.force);
+  else restoreSqlite(db, dataDir, !!opts.force);
+  for (const [rel, body] of files) {
+    const abs = path.join(dataDir, rel);
+    mkdirSync(path.dirname(abs), { recursive: true });
+    writeFileSync(abs, body);
+  }
+  return manifest;
+}
+
+/** pg_restore into the database at `url`; one that already holds Gridset's tables only with force (dropped first). */
+async function restoreDump(dump: Buffer, url: string, force: boolean): Promise<void> {
+  const db = openDb(url);
+  try {
+    if ((await db.schema.hasTable('knex_migrations')) && !force) throw new RestoreRefused('The database in DATABASE_URL already holds a Gridset database; restore into an empty database, or pass --force to replace it.');
+  } finally {
+    await db.destroy();
+  }
+  const tmp = mkdtempSync(path.join(os.tmpdir(), 'gridset-restore-'));
+  try {
+    const file = path.join(tmp, PG_ENTRY);
+    writeFileSync(file, dump, { mode: 0o600 });
+    await restorePostgres(url, file, { clean: force });
+  } catch (e) {
+    throw e instanceof RestoreRefused ? e : new RestoreRefused(`${e instanceof Error ? e.message : String(e)}; pg_restore ran in one transaction, so nothing was restored.`);
+  } finally {
+    rmSync(tmp, { recursive: true, force: true });
+  }
+}
+
+function restoreSqlite(db: Buffer, dataDir: string, force: boolean): void {
   const target = path.join(dataDir, DB_ENTRY);
-  if (existsSync(target) && !opts.force) throw new RestoreRefused(`${dataDir} already holds a database; restore into an empty folder, or pass --force to replace it.`);
+  if (existsSync(target) && !force) throw new RestoreRefused(`${dataDir} already holds a database; restore into an empty folder, or pass --force to replace it.`);
 
   mkdirSync(dataDir, { recursive: true });
   const staged = `${target}.restoring`;
@@ -142,10 +205,4 @@ export async function restoreBackup(archive: Buffer, dataDir: string, opts: { fo
     rmSync(`${staged}${suffix}`, { force: true });
   }
   renameSync(staged, target);
-  for (const [rel, body] of files) {
-    const abs = path.join(dataDir, rel);
-    mkdirSync(path.dirname(abs), { recursive: true });
-    writeFileSync(abs, body);
-  }
-  return manifest;
 }

@@ -3,18 +3,15 @@ import { ShopSettingsSchema } from '../../shared/schemas/settings';
 import type { SettingsRepo } from '../db/settings-repo';
 import type { AuditRepo } from '../db/audit-repo';
 import { currentUser } from '../middleware/auth';
-import { HttpError } from '../middleware/errors';
 import { parseOr400 } from './parse';
 import { createBackup } from '../backup/archive';
 import type { RouteDef } from './route-table';
 
-export function settingsRoutes(settings: SettingsRepo, audit: AuditRepo, backup: { dataDir: string; databaseFile: string | undefined }): RouteDef[] {
+export function settingsRoutes(settings: SettingsRepo, audit: AuditRepo, backup: { dataDir: string; database: string }): RouteDef[] {
   return [
     // An admin takes the whole shop home: the database and the stored files, in one checked archive.
     { method: 'get', path: '/admin/backup', access: CAN.backups, handler: async (req, res) => {
-      // The archive copies a SQLite file; a PostgreSQL database has no file here to copy.
-      if (!backup.databaseFile) throw new HttpError(409, 'backup-postgres', 'This Gridset keeps its data in PostgreSQL (DATABASE_URL): back the database up with pg_dump, and the data folder with your file backups.');
-      const { zip, manifest } = await createBackup(backup.dataDir, backup.databaseFile);
+      const { zip, manifest } = await createBackup(backup.dataDir, backup.database);
       await audit.audited(async () => manifest, (m) => ({ userId: currentUser(req).id, action: 'backup.download', objectType: 'backup', objectId: m.createdAt, summary: `Downloaded a backup: the database and ${m.files.length} stored files` }));
       res.attachment(`gridset-backup-${manifest.createdAt.replace(/[:.]/g, '-')}.zip`).type('application/zip').send(zip);
     } },
