@@ -38,6 +38,16 @@ export function orderByText<T extends Knex.QueryBuilder>(db: Db, query: T, colum
 }
 
 /**
+ * Locks the rows a query reads until the transaction ends (SELECT … FOR UPDATE on PostgreSQL), so a
+ * check and the write that depends on it cannot interleave with another transaction's. SQLite has
+ * one writer at a time and no row locks: the query is left as it is.
+ */
+export function forUpdate<T extends Knex.QueryBuilder>(db: Db, query: T): T {
+  if (isPostgres(db)) query.forUpdate();
+  return query;
+}
+
+/**
  * One page of a query: no LIMIT at all when none is asked for (SQLite's "LIMIT -1" is an error on
  * PostgreSQL), and an OFFSET only when it skips rows.
  */

@@ -193,4 +193,17 @@ describe(`races for unique values on ${ON_POSTGRES ? 'PostgreSQL' : 'SQLite'} an
     expect(plates.filter((s) => s === 201)).toHaveLength(1);
     expect(toNumber((await t.db('plates').where({ code: 'GP-RACE' }).count({ n: '*' }))[0]!.n)).toBe(1);
   });
+
+  it('two admins taken out of the admin role at once: one stays', async () => {
+    const admin = await t.agent('admin');
+    const me = (await admin.get('/api/auth/me').expect(200)).body.user.id as number;
+    const other = (await admin.post('/api/users', { email: 'second-admin@gridset.test', name: 'Second admin', role: 'admin', password: 'a long enough password 1' }).expect(201)).body;
+    const activeAdmins = async () => toNumber((await t.db('users').where({ role: 'admin', active: true }).count({ n: '*' }))[0]!.n);
+    const before = await activeAdmins();
+    const both = await Promise.all([admin.patch(`/api/users/${other.id}`, { role: 'lead' }), admin.patch(`/api/users/${me}`, { role: 'lead' })]);
+    for (const a of both) expect([200, 409], JSON.stringify(a.body)).toContain(a.status);
+    const demoted = both.filter((a) => a.status === 200).length;
+    expect(await activeAdmins()).toBe(before - demoted);
+    expect(await activeAdmins()).toBeGreaterThanOrEqual(1);
+  });
 });
