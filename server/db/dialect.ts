@@ -110,6 +110,15 @@ export function isUniqueViolation(err: unknown): boolean {
   return code === '23505' || code === 'SQLITE_CONSTRAINT_UNIQUE' || code === 'SQLITE_CONSTRAINT_PRIMARYKEY';
 }
 
+/**
+ * True for a broken FOREIGN KEY constraint: PostgreSQL SQLSTATE 23503 foreign_key_violation, SQLite
+ * SQLITE_CONSTRAINT_FOREIGNKEY. A row deleted while another request points a new row at it.
+ */
+export function isForeignKeyViolation(err: unknown): boolean {
+  const code = (err as { code?: unknown } | null)?.code;
+  return code === '23503' || code === 'SQLITE_CONSTRAINT_FOREIGNKEY';
+}
+
 /** PostgreSQL SQLSTATE 22003 numeric_value_out_of_range: a number too large for its column (SQLite stores any size). */
 export const isOutOfRange = (err: unknown): boolean => (err as { code?: unknown } | null)?.code === '22003';
 

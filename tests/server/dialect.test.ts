@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { DEMO_CONVENTION } from '../../shared/naming/conventions';
-import { containsPattern, deleteSessionsOfUser, isoTime, isoTimeOrNull, isPostgres, isUniqueViolation, orderByText, paged, timeValue, toBool, toNumber, whereContains } from '../../server/db/dialect';
+import { containsPattern, deleteSessionsOfUser, isoTime, isoTimeOrNull, isForeignKeyViolation, isPostgres, isUniqueViolation, orderByText, paged, timeValue, toBool, toNumber, whereContains } from '../../server/db/dialect';
 import { DbRateLimitStore } from '../../server/db/rate-limit-store';
 import { makeTestApp, ON_POSTGRES, type TestApp } from './test-app';
 
@@ -142,6 +142,10 @@ describe(`dialect helpers on ${ON_POSTGRES ? 'PostgreSQL' : 'SQLite'}`, () => {
     expect(err).not.toBeNull();
     expect(isUniqueViolation(err)).toBe(true);
     expect(isUniqueViolation(new Error('other'))).toBe(false);
+    // A template on a plate that does not exist breaks templates.plate_id → plates.id.
+    const fk = await t.db('templates').insert({ name: 'No such plate', plate_id: 999_999 }).then(() => null, (e: unknown) => e);
+    expect(isForeignKeyViolation(fk)).toBe(true);
+    expect(isUniqueViolation(fk)).toBe(false);
   });
 
   it("deletes the stored sessions of one user and keeps everyone else's", async () => {
