@@ -38,6 +38,16 @@ export function orderByText<T extends Knex.QueryBuilder>(db: Db, query: T, colum
 }
 
 /**
+ * Locks the rows a query reads until the transaction ends (SELECT … FOR UPDATE on PostgreSQL), so a
+ * check and the write that depends on it cannot interleave with another transaction's. SQLite has
+ * one writer at a time and no row locks: the query is left as it is.
+ */
+export function forUpdate<T extends Knex.QueryBuilder>(db: Db, query: T): T {
+  if (isPostgres(db)) query.forUpdate();
+  return query;
+}
+
+/**
  * One page of a query: no LIMIT at all when none is asked for (SQLite's "LIMIT -1" is an error on
  * PostgreSQL), and an OFFSET only when it skips rows.
  */
@@ -98,6 +108,15 @@ export async function deleteSessionsOfUser(db: Db, userId: number): Promise<numb
 export function isUniqueViolation(err: unknown): boolean {
   const code = (err as { code?: unknown } | null)?.code;
   return code === '23505' || code === 'SQLITE_CONSTRAINT_UNIQUE' || code === 'SQLITE_CONSTRAINT_PRIMARYKEY';
+}
+
+/**
+ * True for a broken FOREIGN KEY constraint: PostgreSQL SQLSTATE 23503 foreign_key_violation, SQLite
+ * SQLITE_CONSTRAINT_FOREIGNKEY. A row deleted while another request points a new row at it.
+ */
+export function isForeignKeyViolation(err: unknown): boolean {
+  const code = (err as { code?: unknown } | null)?.code;
+  return code === '23503' || code === 'SQLITE_CONSTRAINT_FOREIGNKEY';
 }
 
 /** PostgreSQL SQLSTATE 22003 numeric_value_out_of_range: a number too large for its column (SQLite stores any size). */

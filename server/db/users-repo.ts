@@ -1,5 +1,5 @@
 import type { Db } from './knex';
-import { isoTime, orderByText } from './dialect';
+import { forUpdate, isoTime, orderByText } from './dialect';
 import type { Role, User } from '../../shared/schemas/auth';
 import type { Unit } from '../../shared/schemas/common';
 
@@ -65,9 +65,10 @@ export function usersRepo(db: Db) {
     async remove(id: number, trx: Db = db): Promise<void> {
       await trx('users').where({ id }).del();
     },
-    async countActiveAdmins(): Promise<number> {
-      const r = await db('users').where({ role: 'admin', active: true }).count<{ n: number }[]>({ n: '*' });
-      return Number(r[0]?.n ?? 0);
+    /** Active admins; inside a transaction their rows stay locked until it ends, so two demotions cannot both pass. */
+    async countActiveAdmins(trx: Db = db): Promise<number> {
+      const rows = await forUpdate(trx, trx('users').where({ role: 'admin', active: true }).select('id'));
+      return rows.length;
     },
   };
 }

@@ -1,6 +1,6 @@
 import type { ErrorRequestHandler, RequestHandler } from 'express';
 import { ZodError } from 'zod';
-import { isOutOfRange, isUniqueViolation } from '../db/dialect';
+import { isForeignKeyViolation, isOutOfRange, isUniqueViolation } from '../db/dialect';
 
 /** The one error type routes and services throw; the handler below turns it into the error body. */
 export class HttpError extends Error {
@@ -79,6 +79,8 @@ export function unavailableMessage(err: unknown): string | null {
 
 export const UNIQUE_RACE_MESSAGE = 'Someone else saved the same code, name or version number at the same moment; reload the page and try again.';
 
+export const IN_USE_RACE_MESSAGE = 'Something this change depends on was changed or deleted at the same moment; reload the page and try again.';
+
 export function errorHandler(log: (err: unknown) => void = console.error): ErrorRequestHandler {
   return (err, _req, res, _next) => {
     if (res.headersSent) {
@@ -112,6 +114,10 @@ export function errorHandler(log: (err: unknown) => void = console.error): Error
     // the database's unique constraint. The first was saved; the second answers 409, saving nothing.
     if (isUniqueViolation(err)) {
       res.status(409).json({ error: { code: 'conflict', message: UNIQUE_RACE_MESSAGE, details: null } });
+      return;
+    }
+    if (isForeignKeyViolation(err)) {
+      res.status(409).json({ error: { code: 'conflict', message: IN_USE_RACE_MESSAGE, details: null } });
       return;
     }
     if (isOutOfRange(err)) {
