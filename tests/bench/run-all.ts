@@ -2,6 +2,7 @@ export {};
 // `npm run bench [name…]`: runs each benchmark in turn (never part of `npm test`).
 const BENCHES: Record<string, () => Promise<{ run: () => Promise<void> }>> = {
   'catalog-list': () => import('./catalog-list.bench'),
+  'read-path': () => import('./read-path.bench'),
   stations: () => import('./stations.bench'),
   'stock-check': () => import('./stock-check.bench'),
   dxf: () => import('./dxf.bench'),
