@@ -16,6 +16,8 @@ export interface Config {
   /** What `openDb` opens: the PostgreSQL URL when set, else the SQLite file. */
   database: string;
   sessionSecret: string;
+  /** GRIDSET_DEMO (default on): an empty database gets the invented demo shop and its demo accounts. */
+  demo: boolean;
   uploadLimitBytes: number;
   /** smtp:// or smtps:// URL of the server that delivers mail; without it mail stays in the local outbox. */
   smtpUrl: string | undefined;
@@ -59,6 +61,7 @@ export function readConfig(env: NodeJS.ProcessEnv = process.env): Config {
     databaseUrl,
     database: databaseUrl ?? databaseFile,
     sessionSecret: env.SESSION_SECRET || loadOrCreateSecret(dataDir),
+    demo: !['0', 'false', 'no', 'off'].includes((env.GRIDSET_DEMO ?? '').trim().toLowerCase()),
     uploadLimitBytes: Math.round(uploadMb * 1024 * 1024),
     smtpUrl: env.SMTP_URL || undefined,
     mailFrom: env.GRIDSET_MAIL_FROM || undefined,

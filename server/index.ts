@@ -3,6 +3,8 @@ import { fileURLToPath } from 'node:url';
 import { ConfigError, readConfig } from './config';
 import { openDb, migrate } from './db/knex';
 import { seedDemoDataIfEmpty } from './db/seed-demo';
+import { oneProcessAtATime } from './db/dialect';
+import { usersRepo } from './db/users-repo';
 import { createApp } from './app';
 import { createMailer } from './mail/mailer';
 import { sweepUploadTemp } from './middleware/upload';
@@ -14,8 +16,12 @@ async function main() {
   sweepUploadTemp(config.dataDir);
   const db = openDb(config.database);
   await migrate(db);
-  const seeded = await seedDemoDataIfEmpty(db);
+  // Processes starting together on one PostgreSQL database load the demo shop once between them.
+  const seeded = config.demo && (await oneProcessAtATime(db, () => seedDemoDataIfEmpty(db)));
   if (seeded) console.log('New database: demo data loaded (demo accounts use the password gridset-demo).');
+  if (!config.demo && (await usersRepo(db).countActiveAdmins()) === 0) {
+    console.log('No admin yet: run `npm run add-admin -- you@your-shop.example "Your Name"` on this server for the link to choose a password.');
+  }
   const app = createApp({
     db,
     sessionSecret: config.sessionSecret,

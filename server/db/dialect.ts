@@ -136,3 +136,20 @@ export async function retryUniqueRace<T>(work: () => Promise<T>, attempts = 5): 
     }
   }
 }
+
+/** The advisory-lock key every Gridset process takes to load the demo shop (any fixed 64-bit number). */
+const START_LOCK = 0x47524944; // "GRID"
+
+/**
+ * Runs start-up work (loading the demo shop into an empty database) in one process at a time. Several
+ * processes starting together on one PostgreSQL database wait on a transaction-level advisory lock
+ * (PostgreSQL manual, 9.27.10 "Advisory Lock Functions"), so the second finds the work done. A SQLite
+ * file has one process; its single connection must stay free for the work itself.
+ */
+export async function oneProcessAtATime<T>(db: Db, work: () => Promise<T>): Promise<T> {
+  if (!isPostgres(db)) return work();
+  return db.transaction(async (trx) => {
+    await trx.raw('select pg_advisory_xact_lock(?)', [START_LOCK]);
+    return work();
+  });
+}
