@@ -1,23 +1,30 @@
 import { createHash } from 'node:crypto';
-import { existsSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, renameSync, rmSync, statSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdirSync, mkdtempSync, readFileSync, renameSync, rmSync, writeFileSync } from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import Database from 'better-sqlite3';
 import JSZip from 'jszip';
+import { isKey, type FileStore } from '../storage/file-store';
+import { localFileStore } from '../storage/local-store';
 
 /**
  * One archive holds everything a shop would lose with the machine: the database, copied online with
  * SQLite's backup API (better-sqlite3's db.backup(): a consistent snapshot even while the server
  * writes, WAL included — a plain file copy can miss what is still in the -wal file), and the stored
- * files of the data folder (uploaded originals, the mail outbox). manifest.json lists every file
- * with its SHA-256 (FIPS 180-4), so a restore can refuse an archive that changed.
- * SQLite only: a PostgreSQL database is backed up with pg_dump.
+ * files (uploaded originals, the mail outbox's .eml files), read through the file store, so the
+ * archive holds them whether they live in the data folder or in an S3 bucket (up to
+ * MAX_BACKUP_FILE_BYTES in all; a larger bucket is backed up by the storage's own versioning or
+ * replication, and the backup says so rather than leave them out quietly). manifest.json lists every
+ * file with its SHA-256 (FIPS 180-4), so a restore can refuse an archive that changed, and says where
+ * the files came from. SQLite only: a PostgreSQL database is backed up with pg_dump.
  */
 
 export const BACKUP_FORMAT = 'gridset-backup';
 const DB_ENTRY = 'gridset.sqlite';
-/** Folders of the data dir whose files are kept; uploads/tmp holds only unfinished uploads. */
-const KEPT_FOLDERS = ['uploads', 'outbox'];
+/** Key prefixes of kept files; the store never lists uploads/tmp (unfinished uploads). */
+const KEPT_PREFIXES = ['uploads/', 'outbox/'];
+/** Stored files the in-memory archive takes in all; more is refused with a sentence saying how to back them up. */
+export const MAX_BACKUP_FILE_BYTES = 1024 * 1024 * 1024;
 
 export interface BackupEntry { path: string; size: number; sha256: string }
 export interface BackupManifest {
@@ -28,29 +35,29 @@ export interface BackupManifest {
   schema: string | null;
   database: BackupEntry;
   files: BackupEntry[];
+  /** Where the files were read from (absent in archives made before stores): the data folder or a bucket. */
+  storage?: { kind: 'local' | 's3'; location: string };
 }
+
+/** The kept files are more than one archive should hold in memory; nothing was written. */
+export class BackupTooLarge extends Error {}
 
 const sha256 = (b: Buffer) => createHash('sha256').update(b).digest('hex');
 const entry = (p: string, b: Buffer): BackupEntry => ({ path: p, size: b.length, sha256: sha256(b) });
 
-function filesUnder(dataDir: string): string[] {
-  const out: string[] = [];
-  const walk = (rel: string) => {
-    const abs = path.join(dataDir, rel);
-    if (!existsSync(abs)) return;
-    for (const name of readdirSync(abs)) {
-      const r = path.posix.join(rel, name);
-      if (r === 'uploads/tmp') continue;
-      if (statSync(path.join(dataDir, r)).isDirectory()) walk(r);
-      else out.push(r);
-    }
-  };
-  for (const f of KEPT_FOLDERS) walk(f);
-  return out.sort();
+async function keptFiles(files: FileStore): Promise<string[]> {
+  const all = (await Promise.all(KEPT_PREFIXES.map((p) => files.list(p)))).flat();
+  const total = all.reduce((n, f) => n + f.size, 0);
+  if (total > MAX_BACKUP_FILE_BYTES) {
+    const mb = (b: number) => (b / 1024 / 1024).toFixed(0);
+    throw new BackupTooLarge(`The stored files (${all.length}, ${mb(total)} MB in ${files.location}) are more than the ${mb(MAX_BACKUP_FILE_BYTES)} MB a backup archive holds; back them up with the storage's own versioning or replication (or copies of the folder), and the database with this backup.`);
+  }
+  return all.map((f) => f.key).sort();
 }
 
-/** The backup archive of a data folder and its SQLite database, as a zip in memory. */
-export async function createBackup(dataDir: string, databaseFile: string): Promise<{ zip: Buffer; manifest: BackupManifest }> {
+/** The backup archive of the SQLite database and the kept files in `files`, as a zip in memory. */
+export async function createBackup(files: FileStore, databaseFile: string): Promise<{ zip: Buffer; manifest: BackupManifest }> {
+  const kept = await keptFiles(files);
   const tmp = mkdtempSync(path.join(os.tmpdir(), 'gridset-backup-'));
   try {
     const copy = path.join(tmp, DB_ENTRY);
@@ -72,13 +79,18 @@ export async function createBackup(dataDir: string, databaseFile: string): Promi
     const db = readFileSync(copy);
     const zip = new JSZip();
     zip.file(DB_ENTRY, db);
-    const files: BackupEntry[] = [];
-    for (const rel of filesUnder(dataDir)) {
-      const body = readFileSync(path.join(dataDir, rel));
-      zip.file(`files/${rel}`, body);
-      files.push(entry(rel, body));
+    const entries: BackupEntry[] = [];
+    for (const key of kept) {
+      const body = await files.get(key, { maxBytes: MAX_BACKUP_FILE_BYTES });
+      // Removed between the listing and now: nothing to keep.
+      if (!body) continue;
+      zip.file(`files/${key}`, body);
+      entries.push(entry(key, body));
     }
-    const manifest: BackupManifest = { format: BACKUP_FORMAT, formatVersion: 1, createdAt: new Date().toISOString(), schema, database: entry(DB_ENTRY, db), files };
+    const manifest: BackupManifest = {
+      format: BACKUP_FORMAT, formatVersion: 1, createdAt: new Date().toISOString(), schema, database: entry(DB_ENTRY, db), files: entries,
+      storage: { kind: files.kind, location: files.location },
+    };
     zip.file('manifest.json', JSON.stringify(manifest, null, 2));
     return { zip: await zip.generateAsync({ type: 'nodebuffer', compression: 'DEFLATE' }), manifest };
   } finally {
@@ -89,13 +101,13 @@ export async function createBackup(dataDir: string, databaseFile: string): Promi
 /** Why a restore was refused; nothing was written. */
 export class RestoreRefused extends Error {}
 
-const safeRelative = (p: string) => !path.isAbsolute(p) && !p.split(/[\\/]/).includes('..') && p.length > 0;
 
 /**
  * Restores an archive into a data folder that is not being served. Every file's hash is checked
- * before anything is written; the database is written beside its place and renamed into it.
+ * before anything is written; the database is written beside its place and renamed into it. The
+ * files go into `opts.files` (the store S3_URL names) or else the data folder, under the same keys.
  */
-export async function restoreBackup(archive: Buffer, dataDir: string, opts: { force?: boolean } = {}): Promise<BackupManifest> {
+export async function restoreBackup(archive: Buffer, dataDir: string, opts: { force?: boolean; files?: FileStore } = {}): Promise<BackupManifest> {
   let zip: JSZip;
   try {
     zip = await JSZip.loadAsync(archive);
@@ -116,7 +128,7 @@ export async function restoreBackup(archive: Buffer, dataDir: string, opts: { fo
   const db = await read(DB_ENTRY, manifest.database);
   const files: Array<[string, Buffer]> = [];
   for (const e of manifest.files) {
-    if (!safeRelative(e.path)) throw new RestoreRefused(`The backup names a file outside the data folder (${e.path}); nothing was restored.`);
+    if (typeof e.path !== 'string' || !isKey(e.path)) throw new RestoreRefused(`The backup names a file outside the data folder (${e.path}); nothing was restored.`);
     files.push([e.path, await read(`files/${e.path}`, e)]);
   }
   const target = path.join(dataDir, DB_ENTRY);
@@ -142,10 +154,7 @@ export async function restoreBackup(archive: Buffer, dataDir: string, opts: { fo
     rmSync(`${staged}${suffix}`, { force: true });
   }
   renameSync(staged, target);
-  for (const [rel, body] of files) {
-    const abs = path.join(dataDir, rel);
-    mkdirSync(path.dirname(abs), { recursive: true });
-    writeFileSync(abs, body);
-  }
+  const store = opts.files ?? localFileStore(dataDir);
+  for (const [key, body] of files) await store.put(key, body);
   return manifest;
 }
