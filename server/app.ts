@@ -50,6 +50,8 @@ import { accountLinkRoutes } from './routes/account-links';
 import { outboxRoutes } from './routes/outbox';
 import type { FileStore } from './storage/file-store';
 import { localFileStore } from './storage/local-store';
+import { originalFilesService } from './services/original-files';
+import { originalFileRoutes } from './routes/original-files';
 
 export interface AppDeps {
   db: Db;
@@ -164,6 +166,7 @@ export function createApp(deps: AppDeps): GridsetApp {
     ...jobRoutes(jobs, loadListService({ db, jobs, audit }), programs),
     ...manifestRoutes({ manifest: manifestService({ db, catalog: catalogRepo(db), naming, audit }), templates, dataDir: deps.dataDir, uploadLimitBytes: deps.uploadLimitBytes ?? 20 * 1024 * 1024 }),
     ...dxfRoutes({ dataDir: deps.dataDir, files, uploadLimitBytes: deps.uploadLimitBytes ?? 20 * 1024 * 1024, catalog, jobs, naming }),
+    ...originalFileRoutes(originalFilesService({ files, catalog, jobs })),
     ...partProgramRoutes({ dataDir: deps.dataDir, uploadLimitBytes: deps.uploadLimitBytes ?? 20 * 1024 * 1024, programs }),
   ];
   mount(api, routes);

@@ -5,7 +5,10 @@ import os from 'node:os';
 import path from 'node:path';
 import { Readable } from 'node:stream';
 import S3rver from 's3rver';
-import { GetObjectCommand, S3Client } from '@aws-sdk/client-s3';
+import { DeleteObjectCommand, GetObjectCommand, S3Client } from '@aws-sdk/client-s3';
+import request from 'supertest';
+import { createApp } from '../../server/app';
+import { DEMO_PASSWORD } from '../../server/db/seed-demo';
 import { ConfigError, s3SettingsOf } from '../../server/config';
 import { createBackup, restoreBackup } from '../../server/backup/archive';
 import { StoreError, type FileStore } from '../../server/storage/file-store';
@@ -219,6 +222,36 @@ describe('an app on the S3 store', () => {
     expect(sha256(body)).toBe(expected);
     expect(body.length).toBe(fixture.length);
     expect(existsSync(path.join(t.dataDir, 'uploads')) ? readdirSync(path.join(t.dataDir, 'uploads')).filter((f) => f.endsWith('.dxf')) : []).toEqual([]);
+  });
+
+  it('another app process on the same database and bucket serves the original; a missing object is a 404 with a sentence', async () => {
+    // A second app with its own data folder and its own client of the bucket, as a second process behind a load balancer.
+    const other = createApp({ db: t.db, sessionSecret: 'test-secret', dataDir: tempDir('second-process'), files: s3FileStore(s3Settings({ prefix })) });
+    const http = request.agent(other);
+    const csrf = (await http.get('/api/auth/csrf').expect(200)).body.token as string;
+    await http.post('/api/auth/login').set('X-CSRF-Token', csrf).send({ email: 'operator@gridset.test', password: DEMO_PASSWORD }).expect(200);
+    const res = await http.get('/api/components/2/outline-file.dxf').buffer(true)
+      .parse((r, cb) => { const c: Buffer[] = []; r.on('data', (d: Buffer) => c.push(d)); r.on('end', () => cb(null, Buffer.concat(c))); }).expect(200);
+    expect(sha256(res.body as Buffer)).toBe(sha256(fixture));
+    // RFC 6266 §4.1: the file name as a token or a quoted string.
+    expect(res.headers['content-disposition']).toMatch(/^attachment; filename="?jaw-rail\.dxf"?$/);
+
+    // A component whose outline was never read from a file, and an object removed from the bucket behind Gridset's back.
+    const none = await http.get('/api/components/1/outline-file.dxf');
+    expect(none.status).toBe(404);
+    expect(none.body.error.code).toBe('no-original');
+    await store.client.send(new DeleteObjectCommand({ Bucket: BUCKET, Key: `${prefix}uploads/${sha256(fixture)}.dxf` }));
+    const gone = await http.get('/api/components/2/outline-file.dxf');
+    expect(gone.status).toBe(404);
+    const code = (await http.get('/api/components/2').expect(200)).body.code as string;
+    expect(gone.body.error).toMatchObject({ code: 'original-missing', message: `The file jaw-rail.dxf that Component ${code}'s outline was read from is no longer in the file storage; upload it again to keep it.` });
+    // Uploading it again keeps it again (the store is asked, not a memory of what was sent).
+    const lead = await t.agent('lead');
+    await lead.http.post('/api/components/2/outline').set('X-CSRF-Token', lead.token)
+      .field('datumX', '1').field('datumY', '0.75')
+      .field('layerMap', JSON.stringify({ 'RAIL-OUTLINE': 'FX-JR-1000', 'RAIL-DOWEL': 'FX-JR-1000', 'RAIL-BOLT': 'FX-JR-1000' }))
+      .attach('file', fixture, 'jaw-rail.dxf').expect(200);
+    expect(await store.has(`uploads/${sha256(fixture)}.dxf`)).toBe(true);
   });
 
   it('keeps the outbox in the database only: the admin reads it, no .eml is written', async () => {
