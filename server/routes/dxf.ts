@@ -77,7 +77,7 @@ export function dxfRoutes(deps: { dataDir: string; files: FileStore; uploadLimit
       const { inspection, sha256 } = inspectUploadedDxf(file.path);
       const { outline, unit } = normalizeOutline(inspection, f.unit ?? null, component.unit, { x: f.datumX ?? 0, y: f.datumY ?? 0 });
       const mapped = await mapLayers(outline, f.layerMap);
-      await keepOriginal(files, file.path, sha256, file.size);
+      await keepOriginal(files, file.path, sha256);
       res.json(await catalog.setOutline(currentUser(req).id, id, mapped, { name: file.originalname, size: file.size, sha256, unit }));
     }) },
     { method: 'post', path: '/jobs/:id/outline', access: CAN.editJobs, before: upload, handler: (req, res) => usingUpload(req.file, async (file) => {
@@ -88,7 +88,7 @@ export function dxfRoutes(deps: { dataDir: string; files: FileStore; uploadLimit
       // The part's datum corner defaults to the lower-left corner of its extents: the corner that sits against the stop.
       const datum = { x: f.datumX ?? inspection.bbox?.minX ?? 0, y: f.datumY ?? inspection.bbox?.minY ?? 0 };
       const { outline, unit } = normalizeOutline(inspection, f.unit ?? null, job.unit, datum);
-      await keepOriginal(files, file.path, sha256, file.size);
+      await keepOriginal(files, file.path, sha256);
       res.json(await jobs.setPartOutline(currentUser(req), id, outline, { name: file.originalname, size: file.size, sha256, unit, datum }));
     }) },
   ];

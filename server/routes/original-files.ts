@@ -1,14 +1,23 @@
-import { pipeline } from 'node:stream/promises';
 import type { Response } from 'express';
 import { IdParamSchema } from '../../shared/schemas/common';
 import type { OriginalFile, OriginalFilesService } from '../services/original-files';
 import { parseOr400 } from './parse';
 import type { RouteDef } from './route-table';
 
-/** Streams a kept file as a download; opened before any header is set, so a refusal still answers as a JSON error. */
-async function sendOriginal(res: Response, file: OriginalFile) {
+/**
+ * Streams a kept file as a download; opened before any header is set, so a refusal still answers as a
+ * JSON error. A reader that goes away ends the read; a storage that fails midway ends the answer.
+ */
+function sendOriginal(res: Response, file: OriginalFile): Promise<void> {
   res.attachment(file.name).type('application/dxf').set('Content-Length', String(file.size));
-  await pipeline(file.body, res);
+  return new Promise<void>((resolve, reject) => {
+    file.body.once('error', reject);
+    res.once('close', () => {
+      file.body.destroy();
+      resolve();
+    });
+    file.body.pipe(res);
+  });
 }
 
 export function originalFileRoutes(originals: OriginalFilesService): RouteDef[] {

@@ -1,5 +1,6 @@
 import { createHash } from 'node:crypto';
-import { createReadStream, readFileSync } from 'node:fs';
+import { readFileSync } from 'node:fs';
+import { readFile } from 'node:fs/promises';
 import type { Unit } from '../../shared/schemas/common';
 import { OutlineSchema, type Outline } from '../../shared/schemas/geometry';
 import { LIMITS } from '../../shared/schemas/limits';
@@ -24,11 +25,12 @@ export function inspectUploadedDxf(filePath: string): { text: string; inspection
 /**
  * Keeps the original file in the file store, named by its content hash, once what it holds was
  * accepted; the key, `uploads/<sha256>.dxf`. The same content is kept once: a file already there is
- * not sent again.
+ * not sent again. The file (within the upload limit) is sent as one buffer, which the S3 client can
+ * retry after a dropped connection; a stream body cannot be sent twice.
  */
-export async function keepOriginal(files: FileStore, tmpPath: string, sha256: string, size: number): Promise<string> {
+export async function keepOriginal(files: FileStore, tmpPath: string, sha256: string): Promise<string> {
   const key = originalDxfKey(sha256);
-  if (!(await files.has(key))) await files.put(key, createReadStream(tmpPath), { contentType: 'application/dxf', size });
+  if (!(await files.has(key))) await files.put(key, await readFile(tmpPath), { contentType: 'application/dxf' });
   return key;
 }
 
