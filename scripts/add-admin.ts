@@ -26,7 +26,7 @@ try {
   await migrate(db);
   const links = accountLinksService({
     db, users: usersRepo(db), tokens: userTokensRepo(db), audit: auditRepo(db),
-    mailer: createMailer({ db, dataDir: config.dataDir, smtpUrl: config.smtpUrl, from: config.mailFrom }),
+    mailer: createMailer({ db, smtpUrl: config.smtpUrl, from: config.mailFrom }),
     publicUrl: config.publicUrl, log: console.error,
   });
   const { user, link } = await links.firstAdmin(parsed.data);

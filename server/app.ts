@@ -47,15 +47,22 @@ import { userTokensRepo } from './db/user-tokens-repo';
 import { accountLinksService } from './services/account-links';
 import { accountLinkRoutes } from './routes/account-links';
 import { outboxRoutes } from './routes/outbox';
+import type { FileStore } from './storage/file-store';
+import { localFileStore } from './storage/local-store';
+import { originalFilesService } from './services/original-files';
+import { originalFileRoutes } from './routes/original-files';
 
 export interface AppDeps {
   db: Db;
   sessionSecret: string;
+  /** The data folder: multer's temporary upload files, and the kept files unless `files` says otherwise. */
   dataDir: string;
+  /** Where kept files live (DXF originals, the local outbox's .eml files); the data folder by default, a bucket when S3_URL is set. */
+  files?: FileStore;
   /** Built client (vite build output); served with a single-page fallback when present. */
   clientDir?: string;
   uploadLimitBytes?: number;
-  /** Sends every mail (invitations, password resets, review notices); by default the local outbox in dataDir. */
+  /** Sends every mail (invitations, password resets, review notices); by default the local outbox (rows, and .eml files when files are local). */
   mailer?: Mailer;
   /** The address links in mails point at. */
   publicUrl?: string;
@@ -82,7 +89,8 @@ export function createApp(deps: AppDeps): GridsetApp {
   const userRows = usersRepo(db);
   const userTokens = userTokensRepo(db);
   const users = usersService(userRows, audit, userTokens);
-  const mailer = deps.mailer ?? createMailer({ db, dataDir: deps.dataDir });
+  const files = deps.files ?? localFileStore(deps.dataDir);
+  const mailer = deps.mailer ?? createMailer({ db, emlFiles: files.kind === 'local' ? files : undefined });
   const accountLinks = accountLinksService({ db, users: userRows, tokens: userTokens, audit, mailer, publicUrl: deps.publicUrl ?? 'http://localhost:3000', log: deps.log ?? console.error });
   const catalog = catalogService(catalogRepo(db), naming, audit);
   const templates = templatesService({ db, templates: templatesRepo(db), catalog: catalogRepo(db), naming, audit });
@@ -148,7 +156,7 @@ export function createApp(deps: AppDeps): GridsetApp {
     ...accountLinkRoutes(accountLinks, db),
     ...outboxRoutes(outboxRepo(db)),
     ...catalogRoutes(catalog),
-    ...settingsRoutes(settings, audit, { dataDir: deps.dataDir, database: targetOf(db) }),
+    ...settingsRoutes(settings, audit, { files, database: targetOf(db) }),
     ...templateRoutes(templates, settings),
     ...stockCheckRoutes({ dataDir: deps.dataDir, uploadLimitBytes: deps.uploadLimitBytes ?? 20 * 1024 * 1024 }),
     ...namingRoutes(naming),
@@ -156,7 +164,8 @@ export function createApp(deps: AppDeps): GridsetApp {
     ...auditRoutes(audit),
     ...jobRoutes(jobs, loadListService({ db, jobs, audit }), programs),
     ...manifestRoutes({ manifest: manifestService({ db, catalog: catalogRepo(db), naming, audit }), templates, dataDir: deps.dataDir, uploadLimitBytes: deps.uploadLimitBytes ?? 20 * 1024 * 1024 }),
-    ...dxfRoutes({ dataDir: deps.dataDir, uploadLimitBytes: deps.uploadLimitBytes ?? 20 * 1024 * 1024, catalog, jobs, naming }),
+    ...dxfRoutes({ dataDir: deps.dataDir, files, uploadLimitBytes: deps.uploadLimitBytes ?? 20 * 1024 * 1024, catalog, jobs, naming }),
+    ...originalFileRoutes(originalFilesService({ files, catalog, jobs })),
     ...partProgramRoutes({ dataDir: deps.dataDir, uploadLimitBytes: deps.uploadLimitBytes ?? 20 * 1024 * 1024, programs }),
   ];
   mount(api, routes);

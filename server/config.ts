@@ -2,6 +2,7 @@ import { randomBytes } from 'node:crypto';
 import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
 import path from 'node:path';
 import { isPostgresUrl } from './db/knex';
+import type { S3Settings } from './storage/s3-store';
 
 /** A setting in the environment that cannot work; start-up says its message in one line. */
 export class ConfigError extends Error {}
@@ -28,6 +29,8 @@ export interface Config {
   https: boolean;
   /** TRUST_PROXY: the proxies whose X-Forwarded-Proto and -For are believed (Express "trust proxy"); loopback by default. */
   trustProxy: string | boolean | number;
+  /** S3_URL when set: kept files (DXF originals) live in that bucket instead of the data folder. */
+  s3: S3Settings | undefined;
 }
 
 /**
@@ -68,6 +71,54 @@ export function readConfig(env: NodeJS.ProcessEnv = process.env): Config {
     publicUrl: env.GRIDSET_PUBLIC_URL ?? `http://localhost:${port}`,
     https: env.GRIDSET_HTTPS === '1' || env.GRIDSET_HTTPS === 'true',
     trustProxy: trustProxyOf(env.TRUST_PROXY),
+    s3: s3SettingsOf(env),
+  };
+}
+
+const S3_EXAMPLE = 'http://minio.example.lan:9000/gridset-files';
+// Amazon S3 User Guide, "General purpose bucket naming rules": 3–63 characters, lowercase letters,
+// digits, dots and hyphens, beginning and ending with a letter or digit.
+const BUCKET = /^[a-z0-9][a-z0-9.-]{1,61}[a-z0-9]$/;
+const PREFIX_PART = /^[A-Za-z0-9][A-Za-z0-9._-]*$/;
+
+/**
+ * S3_URL when set: `http(s)://host[:port]/bucket[/key/prefix]` of an S3-compatible service (path-style
+ * addressing), `?region=` optional. Credentials from S3_ACCESS_KEY_ID and S3_SECRET_ACCESS_KEY, or
+ * `user:password@` in the URL (percent-encoded), else the AWS SDK's own chain (AWS_ACCESS_KEY_ID …).
+ * Region from `?region=`, S3_REGION, AWS_REGION, else us-east-1. Every mistake is one sentence that
+ * never repeats a secret.
+ */
+export function s3SettingsOf(env: NodeJS.ProcessEnv = process.env): S3Settings | undefined {
+  const raw = env.S3_URL?.trim();
+  if (!raw) return undefined;
+  let url: URL;
+  try {
+    url = new URL(raw);
+  } catch {
+    throw new ConfigError(`S3_URL must be a URL with the bucket as its path, such as ${S3_EXAMPLE}; unset it to keep files in the data folder.`);
+  }
+  if (url.protocol !== 'http:' && url.protocol !== 'https:') throw new ConfigError(`S3_URL must start with https:// or http:// (the storage service's address), such as ${S3_EXAMPLE}; got ${url.protocol}//.`);
+  for (const name of url.searchParams.keys()) {
+    if (name !== 'region') throw new ConfigError(`S3_URL takes only the option ?region=…; remove "${name}".`);
+  }
+  const parts = decodeURIComponent(url.pathname).split('/').filter(Boolean);
+  const bucket = parts[0];
+  if (!bucket) throw new ConfigError(`S3_URL must name the bucket as its path, such as ${S3_EXAMPLE}.`);
+  if (!BUCKET.test(bucket) || bucket.includes('..')) throw new ConfigError(`S3_URL names the bucket "${bucket}", which is not a valid bucket name: use 3 to 63 lowercase letters, digits, dots and hyphens, starting and ending with a letter or digit.`);
+  const bad = parts.slice(1).find((p) => !PREFIX_PART.test(p));
+  if (bad !== undefined) throw new ConfigError(`S3_URL's folder after the bucket has the part "${bad}"; use letters, digits, dots, hyphens and underscores, each part starting with a letter or digit.`);
+  const prefix = parts.length > 1 ? `${parts.slice(1).join('/')}/` : '';
+  const region = url.searchParams.get('region') || env.S3_REGION || env.AWS_REGION || 'us-east-1';
+  if (!/^[a-z0-9-]{1,40}$/.test(region)) throw new ConfigError(`The S3 region "${region.slice(0, 40)}" is not a region name such as us-east-1; correct S3_REGION or ?region= in S3_URL.`);
+  const id = url.username ? decodeURIComponent(url.username) : env.S3_ACCESS_KEY_ID || undefined;
+  const secret = url.password ? decodeURIComponent(url.password) : env.S3_SECRET_ACCESS_KEY || undefined;
+  if (!!id !== !!secret) throw new ConfigError('Give both the S3 access key ID and its secret (S3_ACCESS_KEY_ID and S3_SECRET_ACCESS_KEY), or neither to use the AWS SDK\'s own settings.');
+  return {
+    endpoint: `${url.protocol}//${url.host}`,
+    bucket,
+    prefix,
+    region,
+    credentials: id && secret ? { accessKeyId: id, secretAccessKey: secret } : undefined,
   };
 }
 

@@ -8,12 +8,16 @@ import { usersRepo } from './db/users-repo';
 import { createApp } from './app';
 import { createMailer } from './mail/mailer';
 import { sweepUploadTemp } from './middleware/upload';
+import { createFileStore } from './storage/create-store';
+import { StoreError } from './storage/file-store';
 
 const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..');
 
 async function main() {
   const config = readConfig();
   sweepUploadTemp(config.dataDir);
+  const files = createFileStore(config);
+  await files.check();
   const db = openDb(config.database);
   await migrate(db);
   // Processes starting together on one PostgreSQL database load the demo shop once between them.
@@ -26,9 +30,11 @@ async function main() {
     db,
     sessionSecret: config.sessionSecret,
     dataDir: config.dataDir,
+    files,
     clientDir: path.join(root, 'dist'),
     uploadLimitBytes: config.uploadLimitBytes,
-    mailer: createMailer({ db, dataDir: config.dataDir, smtpUrl: config.smtpUrl, from: config.mailFrom }),
+    // The .eml copies are for someone at the server's own folder; with S3 the database rows are the outbox.
+    mailer: createMailer({ db, emlFiles: files.kind === 'local' ? files : undefined, smtpUrl: config.smtpUrl, from: config.mailFrom }),
     publicUrl: config.publicUrl,
     https: config.https,
     trustProxy: config.trustProxy,
@@ -37,7 +43,8 @@ async function main() {
   const server = app.listen(config.port, (err?: Error) => {
     if (err) return;
     console.log(`Gridset is serving http://localhost:${config.port} (data in ${config.dataDir}${config.databaseUrl ? ', database on PostgreSQL (DATABASE_URL)' : ''})`);
-    console.log(config.smtpUrl ? 'Mail goes out by SMTP (SMTP_URL).' : `Mail stays in the local outbox (${path.join(config.dataDir, 'outbox')}); admins read it under Outbox.`);
+    console.log(`Kept files (DXF originals) are in ${files.kind === 's3' ? `object storage, ${files.location} (S3_URL)` : files.location}.`);
+    console.log(config.smtpUrl ? 'Mail goes out by SMTP (SMTP_URL).' : files.kind === 's3' ? 'Mail stays in the outbox in the database; admins read it under Outbox.' : `Mail stays in the local outbox (${path.join(config.dataDir, 'outbox')}); admins read it under Outbox.`);
   });
   server.on('error', (err: NodeJS.ErrnoException) => {
     console.error(err.code === 'EADDRINUSE'
@@ -56,6 +63,10 @@ async function main() {
 
 main().catch((err: NodeJS.ErrnoException) => {
   // A data folder the server cannot write is said in one line, not as a stack.
+  if (err instanceof StoreError) {
+    console.error(`Gridset cannot start: ${err.message}`);
+    process.exit(1);
+  }
   if (err instanceof ConfigError) {
     console.error(`Gridset cannot start: ${err.message}`);
     process.exit(1);

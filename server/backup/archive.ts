@@ -1,27 +1,34 @@
 import { createHash } from 'node:crypto';
-import { existsSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, renameSync, rmSync, statSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdirSync, mkdtempSync, readFileSync, renameSync, rmSync, writeFileSync } from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import Database from 'better-sqlite3';
 import JSZip from 'jszip';
 import { isPostgresUrl, openDb } from '../db/knex';
+import { isKey, type FileStore } from '../storage/file-store';
+import { localFileStore } from '../storage/local-store';
 import { dumpPostgres, restorePostgres } from './postgres-dump';
 
 /**
  * One archive holds everything a shop would lose with the machine: the database, copied online with
  * SQLite's backup API (better-sqlite3's db.backup(): a consistent snapshot even while the server
  * writes, WAL included — a plain file copy can miss what is still in the -wal file), and the stored
- * files of the data folder (uploaded originals, the mail outbox). manifest.json lists every file
- * with its SHA-256 (FIPS 180-4), so a restore can refuse an archive that changed.
- * On PostgreSQL the database part is pg_dump's custom format instead (postgres-dump.ts), in the
- * same archive with the same manifest, restored by pg_restore.
+ * files (uploaded originals, the mail outbox's .eml files), read through the file store, so the
+ * archive holds them whether they live in the data folder or in an S3 bucket (up to
+ * MAX_BACKUP_FILE_BYTES in all; a larger bucket is backed up by the storage's own versioning or
+ * replication, and the backup says so rather than leave them out quietly). manifest.json lists every
+ * file with its SHA-256 (FIPS 180-4), so a restore can refuse an archive that changed, and says where
+ * the files came from. On PostgreSQL the database part is pg_dump's custom format instead
+ * (postgres-dump.ts), in the same archive with the same manifest, restored by pg_restore.
  */
 
 export const BACKUP_FORMAT = 'gridset-backup';
 const DB_ENTRY = 'gridset.sqlite';
 const PG_ENTRY = 'gridset.pgdump';
-/** Folders of the data dir whose files are kept; uploads/tmp holds only unfinished uploads. */
-const KEPT_FOLDERS = ['uploads', 'outbox'];
+/** Key prefixes of kept files; the store never lists uploads/tmp (unfinished uploads). */
+const KEPT_PREFIXES = ['uploads/', 'outbox/'];
+/** Stored files the in-memory archive takes in all; more is refused with a sentence saying how to back them up. */
+export const MAX_BACKUP_FILE_BYTES = 1024 * 1024 * 1024;
 
 export interface BackupEntry { path: string; size: number; sha256: string }
 export interface BackupManifest {
@@ -32,25 +39,24 @@ export interface BackupManifest {
   schema: string | null;
   database: BackupEntry;
   files: BackupEntry[];
+  /** Where the files were read from (absent in archives made before stores): the data folder or a bucket. */
+  storage?: { kind: 'local' | 's3'; location: string };
 }
+
+/** The kept files are more than one archive should hold in memory; nothing was written. */
+export class BackupTooLarge extends Error {}
 
 const sha256 = (b: Buffer) => createHash('sha256').update(b).digest('hex');
 const entry = (p: string, b: Buffer): BackupEntry => ({ path: p, size: b.length, sha256: sha256(b) });
 
-function filesUnder(dataDir: string): string[] {
-  const out: string[] = [];
-  const walk = (rel: string) => {
-    const abs = path.join(dataDir, rel);
-    if (!existsSync(abs)) return;
-    for (const name of readdirSync(abs)) {
-      const r = path.posix.join(rel, name);
-      if (r === 'uploads/tmp') continue;
-      if (statSync(path.join(dataDir, r)).isDirectory()) walk(r);
-      else out.push(r);
-    }
-  };
-  for (const f of KEPT_FOLDERS) walk(f);
-  return out.sort();
+async function keptFiles(files: FileStore): Promise<string[]> {
+  const all = (await Promise.all(KEPT_PREFIXES.map((p) => files.list(p)))).flat();
+  const total = all.reduce((n, f) => n + f.size, 0);
+  if (total > MAX_BACKUP_FILE_BYTES) {
+    const mb = (b: number) => (b / 1024 / 1024).toFixed(0);
+    throw new BackupTooLarge(`The stored files (${all.length}, ${mb(total)} MB in ${files.location}) are more than the ${mb(MAX_BACKUP_FILE_BYTES)} MB a backup archive holds; back them up with the storage's own versioning or replication (or copies of the folder), and the database with this backup.`);
+  }
+  return all.map((f) => f.key).sort();
 }
 
 /** The newest migration a PostgreSQL database has run. */
@@ -65,51 +71,56 @@ async function postgresSchema(url: string): Promise<string | null> {
   }
 }
 
-/**
- * The backup archive of a data folder and its database (a SQLite file, or a postgres:// URL dumped
- * with pg_dump), as a zip in memory.
- */
-export async function createBackup(dataDir: string, database: string): Promise<{ zip: Buffer; manifest: BackupManifest }> {
-  if (isPostgresUrl(database)) {
-    const dump = await dumpPostgres(database);
-    return packArchive(dataDir, PG_ENTRY, dump, await postgresSchema(database));
+/** The newest migration in a copy of a SQLite database. */
+function sqliteSchema(file: string): string | null {
+  const check = new Database(file, { readonly: true });
+  try {
+    return (check.prepare('select name from knex_migrations order by id desc limit 1').get() as { name?: string } | undefined)?.name ?? null;
+  } catch {
+    return null;
+  } finally {
+    check.close();
   }
-  const databaseFile = database;
+}
+
+/**
+ * The backup archive of the database (a SQLite file, copied online; or a postgres:// URL, dumped with
+ * pg_dump) and the kept files in `files`, as a zip in memory.
+ */
+export async function createBackup(files: FileStore, database: string): Promise<{ zip: Buffer; manifest: BackupManifest }> {
+  const kept = await keptFiles(files);
+  if (isPostgresUrl(database)) return packArchive(files, kept, PG_ENTRY, await dumpPostgres(database), await postgresSchema(database));
   const tmp = mkdtempSync(path.join(os.tmpdir(), 'gridset-backup-'));
   try {
     const copy = path.join(tmp, DB_ENTRY);
-    const source = new Database(databaseFile, { fileMustExist: true });
+    const source = new Database(database, { fileMustExist: true });
     try {
       await source.backup(copy);
     } finally {
       source.close();
     }
-    const check = new Database(copy, { readonly: true });
-    let schema: string | null = null;
-    try {
-      schema = (check.prepare('select name from knex_migrations order by id desc limit 1').get() as { name?: string } | undefined)?.name ?? null;
-    } catch {
-      schema = null;
-    } finally {
-      check.close();
-    }
-    return await packArchive(dataDir, DB_ENTRY, readFileSync(copy), schema);
+    return await packArchive(files, kept, DB_ENTRY, readFileSync(copy), sqliteSchema(copy));
   } finally {
     rmSync(tmp, { recursive: true, force: true });
   }
 }
 
-/** The zip: the database entry, the data folder's kept files, and the manifest of their hashes. */
-async function packArchive(dataDir: string, dbEntry: string, db: Buffer, schema: string | null): Promise<{ zip: Buffer; manifest: BackupManifest }> {
+/** The zip: the database entry, the kept files, and the manifest of their hashes. */
+async function packArchive(files: FileStore, kept: string[], dbEntry: string, db: Buffer, schema: string | null): Promise<{ zip: Buffer; manifest: BackupManifest }> {
   const zip = new JSZip();
   zip.file(dbEntry, db);
-  const files: BackupEntry[] = [];
-  for (const rel of filesUnder(dataDir)) {
-    const body = readFileSync(path.join(dataDir, rel));
-    zip.file(`files/${rel}`, body);
-    files.push(entry(rel, body));
+  const entries: BackupEntry[] = [];
+  for (const key of kept) {
+    const body = await files.get(key, { maxBytes: MAX_BACKUP_FILE_BYTES });
+    // Removed between the listing and now: nothing to keep.
+    if (!body) continue;
+    zip.file(`files/${key}`, body);
+    entries.push(entry(key, body));
   }
-  const manifest: BackupManifest = { format: BACKUP_FORMAT, formatVersion: 1, createdAt: new Date().toISOString(), schema, database: entry(dbEntry, db), files };
+  const manifest: BackupManifest = {
+    format: BACKUP_FORMAT, formatVersion: 1, createdAt: new Date().toISOString(), schema, database: entry(dbEntry, db), files: entries,
+    storage: { kind: files.kind, location: files.location },
+  };
   zip.file('manifest.json', JSON.stringify(manifest, null, 2));
   return { zip: await zip.generateAsync({ type: 'nodebuffer', compression: 'DEFLATE' }), manifest };
 }
@@ -117,14 +128,14 @@ async function packArchive(dataDir: string, dbEntry: string, db: Buffer, schema:
 /** Why a restore was refused; nothing was written. */
 export class RestoreRefused extends Error {}
 
-const safeRelative = (p: string) => !path.isAbsolute(p) && !p.split(/[\\/]/).includes('..') && p.length > 0;
 
 /**
- * Restores an archive into a data folder that is not being served. Every file's hash is checked
- * before anything is written; a SQLite database is written beside its place and renamed into it, a
- * PostgreSQL dump is restored into `databaseUrl` by pg_restore in one transaction.
+ * Restores an archive while Gridset is stopped. Every file's hash is checked before anything is
+ * written; a SQLite database is written beside its place in the data folder and renamed into it, a
+ * PostgreSQL dump is restored into `databaseUrl` by pg_restore in one transaction. The files go into
+ * `opts.files` (the store S3_URL names) or else the data folder, under the same keys.
  */
-export async function restoreBackup(archive: Buffer, dataDir: string, opts: { force?: boolean; databaseUrl?: string } = {}): Promise<BackupManifest> {
+export async function restoreBackup(archive: Buffer, dataDir: string, opts: { force?: boolean; files?: FileStore; databaseUrl?: string } = {}): Promise<BackupManifest> {
   let zip: JSZip;
   try {
     zip = await JSZip.loadAsync(archive);
@@ -148,16 +159,13 @@ export async function restoreBackup(archive: Buffer, dataDir: string, opts: { fo
   const db = await read(isDump ? PG_ENTRY : DB_ENTRY, manifest.database);
   const files: Array<[string, Buffer]> = [];
   for (const e of manifest.files) {
-    if (!safeRelative(e.path)) throw new RestoreRefused(`The backup names a file outside the data folder (${e.path}); nothing was restored.`);
+    if (typeof e.path !== 'string' || !isKey(e.path)) throw new RestoreRefused(`The backup names a file outside the data folder (${e.path}); nothing was restored.`);
     files.push([e.path, await read(`files/${e.path}`, e)]);
   }
   if (isDump) await restoreDump(db, opts.databaseUrl!, !!opts.force);
   else restoreSqlite(db, dataDir, !!opts.force);
-  for (const [rel, body] of files) {
-    const abs = path.join(dataDir, rel);
-    mkdirSync(path.dirname(abs), { recursive: true });
-    writeFileSync(abs, body);
-  }
+  const store = opts.files ?? localFileStore(dataDir);
+  for (const [key, body] of files) await store.put(key, body);
   return manifest;
 }
 
@@ -181,6 +189,7 @@ async function restoreDump(dump: Buffer, url: string, force: boolean): Promise<v
   }
 }
 
+/** The SQLite file written beside its place, checked, and renamed into it. */
 function restoreSqlite(db: Buffer, dataDir: string, force: boolean): void {
   const target = path.join(dataDir, DB_ENTRY);
   if (existsSync(target) && !force) throw new RestoreRefused(`${dataDir} already holds a database; restore into an empty folder, or pass --force to replace it.`);

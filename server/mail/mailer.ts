@@ -1,8 +1,7 @@
-import { mkdir, writeFile } from 'node:fs/promises';
-import path from 'node:path';
 import nodemailer from 'nodemailer';
 import type { Db } from '../db/knex';
 import { outboxRepo } from '../db/outbox-repo';
+import type { FileStore } from '../storage/file-store';
 
 export interface OutgoingMail {
   to: string;
@@ -23,8 +22,12 @@ export interface Mailer {
 
 export interface MailerOptions {
   db: Db;
-  /** The outbox folder is `<dataDir>/outbox`. */
-  dataDir: string;
+  /**
+   * Where each locally kept mail is also written as an .eml file (key `outbox/<time>-<id>.eml`): the
+   * data folder's store. Omitted (as with S3 storage, where processes share no folder) the database
+   * row is the whole outbox; admins read the outbox from the database either way.
+   */
+  emlFiles?: FileStore;
   /** smtp:// or smtps:// URL; without it mail stays in the local outbox. */
   smtpUrl?: string;
   from?: string;
@@ -37,14 +40,14 @@ const fileStamp = (d: Date) => d.toISOString().replace(/[-:.]/g, '');
 
 /**
  * Without SMTP_URL, nodemailer's stream transport builds the message and Gridset keeps it: a row in
- * `outbox` and an .eml file (RFC 5322, CRLF line ends) under <dataDir>/outbox, named
- * <time>-<outbox id>.eml. With SMTP_URL the message goes to that server and the row is still kept.
+ * `outbox` and, when `emlFiles` is given, an .eml file (RFC 5322, CRLF line ends) at outbox/<time>-<outbox
+ * id>.eml in that store. With SMTP_URL the message goes to that server and the row is still kept.
  * Never call send() inside a database transaction: it writes through the app's only connection.
  */
 export function createMailer(opts: MailerOptions): Mailer {
   const outbox = outboxRepo(opts.db);
   const from = opts.from ?? DEFAULT_FROM;
-  const outboxDir = path.join(opts.dataDir, 'outbox');
+  const emlFiles = opts.emlFiles;
 
   if (opts.smtpUrl) {
     const smtp = nodemailer.createTransport(opts.smtpUrl);
@@ -66,12 +69,16 @@ export function createMailer(opts: MailerOptions): Mailer {
       const message = info.message;
       if (!Buffer.isBuffer(message)) throw new Error('The stream transport did not hand back the message as a buffer.');
       const sentAt = new Date();
-      await mkdir(outboxDir, { recursive: true });
+      const row = { to: mail.to, subject: mail.subject, text: mail.text, sentAt: sentAt.toISOString(), emlFile: null };
+      if (!emlFiles) {
+        await outbox.insert(row);
+        return;
+      }
       // The row and the file together: a failed write leaves no row pointing at nothing.
       await opts.db.transaction(async (trx) => {
-        const id = await outbox.insert({ to: mail.to, subject: mail.subject, text: mail.text, sentAt: sentAt.toISOString(), emlFile: null }, trx);
+        const id = await outbox.insert(row, trx);
         const file = `${fileStamp(sentAt)}-${id}.eml`;
-        await writeFile(path.join(outboxDir, file), message, { flag: 'wx', mode: 0o600 });
+        await emlFiles.put(`outbox/${file}`, message, { contentType: 'message/rfc822' });
         await outbox.setFile(id, file, trx);
       });
     },

@@ -60,6 +60,8 @@ const UNAVAILABLE: Record<string, string> = {
   // PostgreSQL: the server cannot be reached or is restarting (node-postgres socket errors; SQLSTATE
   // 57P01 admin_shutdown, 57P03 cannot_connect_now, 53300 too_many_connections), or it broke off a
   // transaction that can simply be run again (40001 serialization_failure, 40P01 deadlock_detected).
+  // The file storage (server/storage): a bucket that cannot be reached or refuses the request.
+  STORAGE_UNAVAILABLE: 'The file storage cannot be used right now, so nothing was saved; try again in a moment, and tell whoever runs Gridset if it goes on.',
   ECONNREFUSED: DB_DOWN,
   ECONNRESET: DB_DOWN,
   '57P01': DB_DOWN,

@@ -12,6 +12,7 @@ import { boundedJson, inspectUploadedDxf, keepOriginal, normalizeOutline } from 
 import type { CatalogService } from '../services/catalog';
 import type { JobsService } from '../services/jobs';
 import type { NamingService } from '../services/naming';
+import type { FileStore } from '../storage/file-store';
 import { parseOr400 } from './parse';
 import type { RouteDef } from './route-table';
 
@@ -26,8 +27,8 @@ const OutlineFieldsSchema = z.object({
   layerMap: z.string().max(20_000).optional(),
 });
 
-export function dxfRoutes(deps: { dataDir: string; uploadLimitBytes: number; catalog: CatalogService; jobs: JobsService; naming: NamingService }): RouteDef[] {
-  const { dataDir, catalog, jobs, naming } = deps;
+export function dxfRoutes(deps: { dataDir: string; files: FileStore; uploadLimitBytes: number; catalog: CatalogService; jobs: JobsService; naming: NamingService }): RouteDef[] {
+  const { dataDir, files, catalog, jobs, naming } = deps;
   const upload = singleFileUpload(dataDir, deps.uploadLimitBytes);
 
   /** Each layer of the file against the convention, with a proposed conforming name where one is simple to find. */
@@ -76,7 +77,7 @@ export function dxfRoutes(deps: { dataDir: string; uploadLimitBytes: number; cat
       const { inspection, sha256 } = inspectUploadedDxf(file.path);
       const { outline, unit } = normalizeOutline(inspection, f.unit ?? null, component.unit, { x: f.datumX ?? 0, y: f.datumY ?? 0 });
       const mapped = await mapLayers(outline, f.layerMap);
-      keepOriginal(dataDir, file.path, sha256);
+      await keepOriginal(files, file.path, sha256);
       res.json(await catalog.setOutline(currentUser(req).id, id, mapped, { name: file.originalname, size: file.size, sha256, unit }));
     }) },
     { method: 'post', path: '/jobs/:id/outline', access: CAN.editJobs, before: upload, handler: (req, res) => usingUpload(req.file, async (file) => {
@@ -87,7 +88,7 @@ export function dxfRoutes(deps: { dataDir: string; uploadLimitBytes: number; cat
       // The part's datum corner defaults to the lower-left corner of its extents: the corner that sits against the stop.
       const datum = { x: f.datumX ?? inspection.bbox?.minX ?? 0, y: f.datumY ?? inspection.bbox?.minY ?? 0 };
       const { outline, unit } = normalizeOutline(inspection, f.unit ?? null, job.unit, datum);
-      keepOriginal(dataDir, file.path, sha256);
+      await keepOriginal(files, file.path, sha256);
       res.json(await jobs.setPartOutline(currentUser(req), id, outline, { name: file.originalname, size: file.size, sha256, unit, datum }));
     }) },
   ];

@@ -1,12 +1,13 @@
 import { createHash } from 'node:crypto';
-import { copyFileSync, mkdirSync, readFileSync } from 'node:fs';
-import path from 'node:path';
+import { readFileSync } from 'node:fs';
+import { readFile } from 'node:fs/promises';
 import type { Unit } from '../../shared/schemas/common';
 import { OutlineSchema, type Outline } from '../../shared/schemas/geometry';
 import { LIMITS } from '../../shared/schemas/limits';
 import { convert } from '../../shared/units/units';
 import { DxfError, inspectDxf, type DxfInspection } from '../dxf/read-dxf';
 import { HttpError, badRequest, validationError } from '../middleware/errors';
+import { originalDxfKey, type FileStore } from '../storage/file-store';
 
 /** Reads an uploaded DXF; a file Gridset cannot read is a 400 that names the problem (and line or block). */
 export function inspectUploadedDxf(filePath: string): { text: string; inspection: DxfInspection; sha256: string } {
@@ -21,13 +22,16 @@ export function inspectUploadedDxf(filePath: string): { text: string; inspection
   }
 }
 
-/** Keeps the original file, named by its content hash, once what it holds was accepted. */
-export function keepOriginal(dataDir: string, tmpPath: string, sha256: string): string {
-  const dir = path.join(dataDir, 'uploads');
-  mkdirSync(dir, { recursive: true });
-  const target = path.join(dir, `${sha256}.dxf`);
-  copyFileSync(tmpPath, target);
-  return target;
+/**
+ * Keeps the original file in the file store, named by its content hash, once what it holds was
+ * accepted; the key, `uploads/<sha256>.dxf`. The same content is kept once: a file already there is
+ * not sent again. The file (within the upload limit) is sent as one buffer, which the S3 client can
+ * retry after a dropped connection; a stream body cannot be sent twice.
+ */
+export async function keepOriginal(files: FileStore, tmpPath: string, sha256: string): Promise<string> {
+  const key = originalDxfKey(sha256);
+  if (!(await files.has(key))) await files.put(key, await readFile(tmpPath), { contentType: 'application/dxf' });
+  return key;
 }
 
 /**

@@ -83,6 +83,8 @@ const EXPECTED: Record<string, typeof PUBLIC | typeof SIGNED_IN | Action> = {
   'POST /manifest/preview': 'editCatalog',
   'POST /manifest/commit': 'editCatalog',
   'POST /components/:id/outline': 'editCatalog',
+  'GET /components/:id/outline-file.dxf': SIGNED_IN,
+  'GET /jobs/:id/part-file.dxf': SIGNED_IN,
   'POST /jobs/:id/outline': 'editJobs',
   'POST /jobs/:id/part-program': 'uploadPartPrograms',
   'GET /jobs/:id/program.nc': SIGNED_IN,

@@ -5,6 +5,7 @@ import path from 'node:path';
 import Database from 'better-sqlite3';
 import JSZip from 'jszip';
 import { createBackup, restoreBackup } from '../../server/backup/archive';
+import { localFileStore } from '../../server/storage/local-store';
 import { openDb, migrate } from '../../server/db/knex';
 import { createTestDatabase, makeTestApp, ON_POSTGRES, SQLITE_ONLY, type Agent, type TestApp } from './test-app';
 
@@ -44,7 +45,7 @@ describe.skipIf(ON_POSTGRES)(`backup and restore (${SQLITE_ONLY})`, () => {
       placements: [{ id: 'P1', component: 'CR-8', hole: { col: 1 + (i % 3), row: 1 }, rotation: 0, stopsInUse: [0] }],
     });
     const writes = (async () => { for (let i = 0; i < 12; i++) expect((await save(i)).status).toBe(200); })();
-    const [{ zip, manifest }] = await Promise.all([createBackup(t.dataDir, dbFile()), writes]);
+    const [{ zip, manifest }] = await Promise.all([createBackup(localFileStore(t.dataDir), dbFile()), writes]);
     expect(manifest.schema).toMatch(/^\d{14}_/);
     expect(manifest.files.map((f) => f.path)).toContain('outbox/marker.eml');
 
@@ -68,7 +69,7 @@ describe.skipIf(ON_POSTGRES)(`backup and restore (${SQLITE_ONLY})`, () => {
   });
 
   it('refuses a tampered archive naming the file, and an occupied folder without --force, writing nothing', async () => {
-    const { zip } = await createBackup(t.dataDir, dbFile());
+    const { zip } = await createBackup(localFileStore(t.dataDir), dbFile());
     const archive = await JSZip.loadAsync(zip);
     archive.file('files/outbox/marker.eml', 'Subject: changed');
     const tampered = await archive.generateAsync({ type: 'nodebuffer' });

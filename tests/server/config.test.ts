@@ -1,26 +1,16 @@
 import { afterAll, describe, expect, it } from 'vitest';
-import { spawn } from 'node:child_process';
 import { mkdtempSync, rmSync } from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import { ConfigError, readConfig } from '../../server/config';
 import { dbConfig, isPostgresUrl } from '../../server/db/knex';
+import { startFails as startServer } from './start-fails';
 
 const dirs: string[] = [];
 const dataDir = () => { const d = mkdtempSync(path.join(os.tmpdir(), 'gridset-config-')); dirs.push(d); return d; };
 afterAll(() => { for (const d of dirs) rmSync(d, { recursive: true, force: true }); });
 
-/** The start-up output of the server with `env`, which must stop before it serves. */
-async function startFails(env: Record<string, string>): Promise<{ code: number | null; stderr: string }> {
-  const clean = Object.fromEntries(Object.entries(process.env).filter(([k]) => !['DATABASE_URL', 'SESSION_SECRET'].includes(k)));
-  const child = spawn(process.execPath, ['--import', 'tsx', 'server/index.ts'], { env: { ...clean, PORT: '0', GRIDSET_DATA_DIR: dataDir(), ...env }, stdio: ['ignore', 'pipe', 'pipe'] });
-  let stderr = '';
-  child.stderr.on('data', (d: Buffer) => { stderr += d.toString(); });
-  const timer = setTimeout(() => child.kill(), 45_000);
-  const code = await new Promise<number | null>((resolve) => child.on('exit', resolve));
-  clearTimeout(timer);
-  return { code, stderr };
-}
+const startFails = (env: Record<string, string>) => startServer(env, dataDir());
 
 describe('choosing the database', () => {
   it('uses the SQLite file in the data folder when DATABASE_URL is unset, as before', () => {

@@ -360,7 +360,7 @@ describe('mailer over SMTP', () => {
     await new Promise<void>((resolve) => server.listen(0, '127.0.0.1', resolve));
     try {
       const port = (server.address() as AddressInfo).port;
-      const mailer = createMailer({ db: t.db, dataDir: t.dataDir, smtpUrl: `smtp://127.0.0.1:${port}?ignoreTLS=true`, from: 'Shop <shop@example.com>' });
+      const mailer = createMailer({ db: t.db, smtpUrl: `smtp://127.0.0.1:${port}?ignoreTLS=true`, from: 'Shop <shop@example.com>' });
       const filesBefore = readdirSync(path.join(t.dataDir, 'outbox')).length;
       const link = 'http://localhost:3000/set-password?token=secret-token-value';
       await mailer.send({ to: 'smtp.reader@example.com', subject: 'Over the wire', text: `Your link:\n${link}\nThanks.`, secrets: [link] });

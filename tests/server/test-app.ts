@@ -8,6 +8,7 @@ import { createApp } from '../../server/app';
 import { openDb, migrate, type Db } from '../../server/db/knex';
 import { seedDemoDataIfEmpty, DEMO_PASSWORD } from '../../server/db/seed-demo';
 import { ROLES, type Role } from '../../shared/schemas/auth';
+import type { FileStore } from '../../server/storage/file-store';
 
 export interface TestApp {
   app: ReturnType<typeof createApp>;
@@ -67,14 +68,14 @@ export async function createTestDatabase(adminUrl = process.env.TEST_DATABASE_UR
 }
 
 /** A fresh database per call (a SQLite file, or a PostgreSQL database in the server-pg project), migrated and seeded with the demo shop. */
-export async function makeTestApp(opts: { seed?: boolean; uploadsPer15Minutes?: number } = {}): Promise<TestApp> {
+export async function makeTestApp(opts: { seed?: boolean; uploadsPer15Minutes?: number; files?: FileStore } = {}): Promise<TestApp> {
   const dataDir = mkdtempSync(path.join(os.tmpdir(), 'gridset-test-'));
   const pg = ON_POSTGRES ? await createTestDatabase() : null;
   const db = openDb(pg ? pg.url : path.join(dataDir, 'test.sqlite'));
   await migrate(db);
   if (opts.seed !== false) await seedDemoDataIfEmpty(db);
   const errors: unknown[] = [];
-  const app = createApp({ db, sessionSecret: 'test-secret', dataDir, log: (e) => errors.push(e), uploadsPer15Minutes: opts.uploadsPer15Minutes });
+  const app = createApp({ db, sessionSecret: 'test-secret', dataDir, files: opts.files, log: (e) => errors.push(e), uploadsPer15Minutes: opts.uploadsPer15Minutes });
   return {
     app, db, dataDir, errors,
     async agent(role) {
