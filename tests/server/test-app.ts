@@ -159,3 +159,16 @@ async function agentsForEveryRole(t: TestApp): Promise<Map<Role | 'none', Agent>
   for (const role of ROLES) agents.set(role, await t.agent(role));
   return agents;
 }
+
+/**
+ * Runs `fn` on a test app of its own (fresh demo shop), closed afterwards: for a test whose
+ * assertions read the whole demo shop as seeded, which other tests in the same file add to.
+ */
+export async function withOwnApp<T>(fn: (t: TestApp) => Promise<T>): Promise<T> {
+  const t = await makeTestApp();
+  try {
+    return await fn(t);
+  } finally {
+    await t.close();
+  }
+}
