@@ -9,7 +9,7 @@ import { parse as parseCsv } from 'csv-parse/sync';
 import type { z } from 'zod';
 import { ComponentInputSchema, type ComponentFields } from '../../shared/schemas/catalog';
 import type { NamingCheckResult, NamingConvention, NamingRule, NamingTarget } from '../../shared/schemas/naming';
-import { cellAddress, columnLetter, columnNumber } from '../../shared/naming/cell-address';
+import { cellAddress, columnLetter, columnNumber } from '../../shared/sheets/cell-address';
 import { checkName } from '../../shared/naming/check-name';
 import { compileRule } from '../../shared/naming/compile-rule';
 import { DEFAULT_CONVENTION } from '../../shared/naming/conventions';
@@ -34,7 +34,8 @@ import {
   type ManifestLimits,
   type ManifestRead,
 } from './manifest-types';
-import { parseDecimal, parseDowels, parseJawFaces, parseStops } from './point-lists';
+import { parseDowels, parseJawFaces, parseStops } from './point-lists';
+import { parseDecimal } from '../../shared/units/decimal';
 import { gridFromRecords, gridFromWorksheet, type CellValue, type Grid } from './sheet-grid';
 import { guardXlsx } from './xlsx-guard';
 
