@@ -5,6 +5,7 @@ import { LIMITS } from '../../shared/schemas/limits';
 import { checkName } from '../../shared/naming/check-name';
 import { proposeName } from '../../shared/naming/propose-name';
 import type { Outline } from '../../shared/schemas/geometry';
+import type { DxfInspection as DxfInspectionAnswer } from '../../shared/schemas/dxf-inspection';
 import { currentUser } from '../middleware/auth';
 import { HttpError } from '../middleware/errors';
 import { singleFileUpload, usingUpload } from '../middleware/upload';
@@ -67,7 +68,7 @@ export function dxfRoutes(deps: { dataDir: string; files: FileStore; uploadLimit
     { method: 'post', path: '/dxf/inspect', access: CAN.editCatalog, before: upload, handler: (req, res) => usingUpload(req.file, async (file) => {
       const { inspection } = inspectUploadedDxf(file.path);
       const { unit, layers, entities, entityTypes, bbox, circles, unsupported, outline, notes, points, approximations, warnings, version, insunits } = inspection;
-      const answer = { unit, insunits, version, layers: await layerReport(layers), entities, entityTypes, bbox, circles, unsupported, outline, notes, points, approximations, warnings };
+      const answer: DxfInspectionAnswer = { unit, insunits, version, layers: await layerReport(layers), entities, entityTypes, bbox, circles, unsupported, outline, notes, points, approximations, warnings };
       res.type('application/json').send(boundedJson(answer, file.size));
     }) },
     { method: 'post', path: '/components/:id/outline', access: CAN.editCatalog, before: upload, handler: (req, res) => usingUpload(req.file, async (file) => {

@@ -3,6 +3,7 @@ import type { User } from '../../shared/schemas/auth';
 import type { Component } from '../../shared/schemas/catalog';
 import type { Station } from '../../shared/schemas/template';
 import type { Unit } from '../../shared/schemas/common';
+import type { ManifestAnswer } from '../../shared/schemas/manifest';
 import { DRAWING_LAYERS } from '../../shared/interchange/drawing-layers';
 import type { Db } from '../db/knex';
 import type { CatalogRepo } from '../db/catalog-repo';
@@ -55,7 +56,7 @@ export function manifestService(deps: { db: Db; catalog: CatalogRepo; naming: Na
     return r;
   }
 
-  async function plan(buf: Buffer) {
+  async function plan(buf: Buffer): Promise<{ plan: ReturnType<typeof planManifest>; answer: ManifestAnswer }> {
     const r = await readOnce(buf);
     const p = planManifest(await allComponents(), r);
     const errors = [...p.errors].map(({ sheet, row, column, message, code }) => ({ sheet, row, column, message, code }));

@@ -7,7 +7,7 @@ import {
   layerMapFor, localPoint, namingProblemsByFileLayer, outlineLayers, pathsByLayer, platesOfDiameter, previewView,
   progressText, stopsFromCircles, targetName, toScreen, unsupportedText, type PlateHole,
 } from '../../app/features/catalog/outline-preview';
-import type { InspectedCircle, InspectedLayer } from '../../app/features/catalog/dxf-inspection';
+import type { InspectedCircle, InspectedLayer } from '../../shared/schemas/dxf-inspection';
 import type { Component } from '../../shared/schemas/catalog';
 
 // The geometry of samples/jaw-rail-inch.dxf (scripts/make-samples.ts): a 12 × 1.5 in rail with

@@ -128,6 +128,19 @@ describe('jobs', () => {
     expect(sheet).toContain(template.contentHash);
   });
 
+  it('writes names typed by users into the setup sheet as text, never as markup', async () => {
+    // Escaping per the HTML standard's serialization of text and attribute values (WHATWG HTML,
+    // "Serializing HTML fragments": & → &amp;, < → &lt;, > → &gt;, and " in attribute values).
+    const named = (await programmer.post('/api/jobs', { ...job, name: 'Run <b>1</b> & "two"', partNumber: 'BR-<9>' }).expect(201)).body;
+    const sheet = (await operator.get(`/api/jobs/${named.id}/setup-sheet.html`).expect(200)).text;
+    expect(sheet.startsWith('<!doctype html>')).toBe(true);
+    expect(sheet).toContain('<title>Setup sheet — Run &lt;b&gt;1&lt;/b&gt; &amp; &quot;two&quot;</title>');
+    expect(sheet).toContain('Part <b>BR-&lt;9&gt;</b> rev B');
+    // Outside the station map (whose title is a CDATA section, SVG's own way to hold text), the name is never markup.
+    expect(sheet.replace(/<svg[\s\S]*<\/svg>/, '')).not.toContain('<b>1</b>');
+    expect(sheet).toMatch(/Check every clamp and its torque before cycle start/);
+  });
+
   it('says when a newer version of the template is released', async () => {
     // Its own app: a newer release of the demo template would change what every other job here answers.
     const own = await makeTestApp();
