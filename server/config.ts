@@ -1,5 +1,6 @@
 import { randomBytes } from 'node:crypto';
 import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { availableParallelism } from 'node:os';
 import path from 'node:path';
 import { isPostgresUrl } from './db/knex';
 
@@ -26,6 +27,36 @@ export interface Config {
   https: boolean;
   /** TRUST_PROXY: the proxies whose X-Forwarded-Proto and -For are believed (Express "trust proxy"); loopback by default. */
   trustProxy: string | boolean | number;
+  /** The worker pool that reads heavy uploads (server/workers/pool.ts). */
+  workers: WorkerSettings;
+}
+
+export interface WorkerSettings {
+  /** GRIDSET_WORKERS: threads reading uploads at once; max(1, cores − 1) by default. */
+  size: number;
+  /** GRIDSET_WORKER_MEMORY_MB: the heap one thread may use (Node's resourceLimits.maxOldGenerationSizeMb). */
+  memoryMb: number;
+  /** GRIDSET_WORKER_TIMEOUT_S, in ms: how long one file may take to read once a thread has begun it. */
+  timeoutMs: number;
+}
+
+/**
+ * The worker pool's settings from the environment. The 20 MB DXF of the bench (259,000 entities)
+ * peaks near 400 MB and reads in about 3 s on one core, so the defaults leave a wide margin.
+ */
+export function workerSettingsOf(env: NodeJS.ProcessEnv = process.env): WorkerSettings {
+  const int = (name: string, fallback: number, min: number, max: number, what: string): number => {
+    const raw = env[name]?.trim();
+    if (!raw) return fallback;
+    const v = Number(raw);
+    if (!Number.isInteger(v) || v < min || v > max) throw new ConfigError(`${name} must be a whole number from ${min} to ${max} (${what}); got "${raw}".`);
+    return v;
+  };
+  return {
+    size: int('GRIDSET_WORKERS', Math.max(1, availableParallelism() - 1), 1, 64, 'threads that read uploads'),
+    memoryMb: int('GRIDSET_WORKER_MEMORY_MB', 1024, 64, 16_384, 'megabytes of heap per thread'),
+    timeoutMs: int('GRIDSET_WORKER_TIMEOUT_S', 60, 1, 3600, 'seconds one file may take to read') * 1000,
+  };
 }
 
 /**
@@ -65,6 +96,7 @@ export function readConfig(env: NodeJS.ProcessEnv = process.env): Config {
     publicUrl: env.GRIDSET_PUBLIC_URL ?? `http://localhost:${port}`,
     https: env.GRIDSET_HTTPS === '1' || env.GRIDSET_HTTPS === 'true',
     trustProxy: trustProxyOf(env.TRUST_PROXY),
+    workers: workerSettingsOf(env),
   };
 }
 
