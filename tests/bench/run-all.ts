@@ -6,6 +6,7 @@ const BENCHES: Record<string, () => Promise<{ run: () => Promise<void> }>> = {
   stations: () => import('./stations.bench'),
   'stock-check': () => import('./stock-check.bench'),
   dxf: () => import('./dxf.bench'),
+  'import-load': () => import('./import-load.bench'),
   manifest: () => import('./manifest.bench'),
   'job-package': () => import('./job-package.bench'),
   program: () => import('./program.bench'),
