@@ -20,9 +20,9 @@ export async function up(knex: Knex): Promise<void> {
 }
 
 export async function down(knex: Knex): Promise<void> {
-  await knex.schema.alterTable('template_versions', (t) => {
-    t.dropColumn('placement_count');
-  });
+  // ALTER TABLE … DROP COLUMN in place (SQLite 3.35+, PostgreSQL): knex's SQLite dropColumn would copy
+  // and drop the table, which foreign keys from jobs refuse once versions are in use.
+  await knex.raw('ALTER TABLE template_versions DROP COLUMN placement_count');
 }
 
 function placementCountOf(content: string): number {

@@ -5,9 +5,10 @@ import type { Db } from './knex';
 const TOUCH_EVERY_MS = 60_000;
 
 /**
- * Sessions kept in the app's own database, in the table its migrations make (never the store's createTable). express-session touches the stored expiry on every
- * request; writing it at most once a minute per session keeps reads from paying a write each
- * (the same idea as connect-mongo's touchAfter). A 12-hour session cannot lapse early for it.
+ * Sessions kept in the app's own database, in the table its migrations make (never the store's
+ * createTable). express-session touches the stored expiry on every request; writing it at most
+ * once a minute per session keeps reads from paying a write each (the same idea as connect-mongo's
+ * touchAfter). A 12-hour session cannot lapse early for it.
  */
 export class SessionStore extends ConnectSessionKnexStore {
   private lastTouch = new Map<string, number>();

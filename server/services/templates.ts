@@ -8,7 +8,7 @@ import { canonicalJson } from '../../shared/interchange/canonical-json';
 import { layoutForHash, TEMPLATE_FORMAT, TEMPLATE_FORMAT_VERSION } from '../../shared/interchange/template-file';
 import { evaluateTemplate, type TemplateEvaluation } from '../../shared/stations/evaluate-template';
 import type { Db } from '../db/knex';
-import { isoTime, toNumber } from '../db/dialect';
+import { isoTime, retryUniqueRace, toNumber } from '../db/dialect';
 import type { CatalogRepo } from '../db/catalog-repo';
 import type { StoredVersion, TemplatesRepo } from '../db/templates-repo';
 import { HttpError, badRequest, conflict, notFound, validationError } from '../middleware/errors';
@@ -215,13 +215,14 @@ export function templatesService(deps: { db: Db; templates: TemplatesRepo; catal
       const source = await requireVersion(templateId, from);
       const ids = (await catalog.componentsByCodes(source.content.components.map((c) => c.code))).map((c) => c.id);
       let number = 0;
-      await changeVersion(user, templateId, from, 'new-version', {
+      // Two new drafts at once may both read the same next number: the one that loses runs again.
+      await retryUniqueRace(() => changeVersion(user, templateId, from, 'new-version', {
         also: async (trx, v) => {
           number = await templates.nextNumber(trx, templateId);
           await templates.insertVersion(trx, { templateId, number, state: 'draft', content: v.content, hash: v.row.content_hash, authorId: user.id, componentIds: ids });
         },
         audit: (v) => ({ objectId: `${templateId}/${number}`, action: 'version.new-draft', summary: `Started draft v${number} of ${v.content.name} from v${from}`, after: { from, version: number } }),
-      });
+      }));
       return present(templateId, await requireVersion(templateId, number));
     },
     /**

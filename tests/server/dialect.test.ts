@@ -2,7 +2,13 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { DEMO_CONVENTION } from '../../shared/naming/conventions';
 import { containsPattern, deleteSessionsOfUser, isoTime, isoTimeOrNull, isForeignKeyViolation, isPostgres, isUniqueViolation, orderByText, paged, timeValue, toBool, toNumber, whereContains } from '../../server/db/dialect';
 import { DbRateLimitStore } from '../../server/db/rate-limit-store';
-import { makeTestApp, ON_POSTGRES, type TestApp } from './test-app';
+import { mkdtempSync, rmSync } from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
+import { migrate, openDb } from '../../server/db/knex';
+import { migrationSource } from '../../server/db/migration-source';
+import { seedDemoDataIfEmpty } from '../../server/db/seed-demo';
+import { createTestDatabase, makeTestApp, ON_POSTGRES, type TestApp } from './test-app';
 
 /**
  * The dialect helpers on the database of this test project: SQLite in "unit", PostgreSQL in
@@ -209,5 +215,38 @@ describe(`races for unique values on ${ON_POSTGRES ? 'PostgreSQL' : 'SQLite'} an
     const demoted = both.filter((a) => a.status === 200).length;
     expect(await activeAdmins()).toBe(before - demoted);
     expect(await activeAdmins()).toBeGreaterThanOrEqual(1);
+  });
+});
+
+describe(`migrations on ${ON_POSTGRES ? 'PostgreSQL' : 'SQLite'}`, () => {
+  it('every migration runs down and up again; the placement counts are filled from the stored layouts', async () => {
+    const dir = mkdtempSync(path.join(os.tmpdir(), 'gridset-migrate-'));
+    const pg = ON_POSTGRES ? await createTestDatabase() : null;
+    const db = openDb(pg ? pg.url : path.join(dir, 'm.sqlite'));
+    const all = (await migrationSource.getMigrations([])).length;
+    const pending = async () => ((await db.migrate.list({ migrationSource })) as [unknown[], unknown[]])[1].length;
+    try {
+      await migrate(db);
+      await db.migrate.rollback({ migrationSource }, true);
+      expect(await pending()).toBe(all);
+      await migrate(db);
+      expect(await pending()).toBe(0);
+      expect(await db.schema.hasTable('sessions')).toBe(true);
+      await seedDemoDataIfEmpty(db);
+      const versions = await db('template_versions').select('id', 'content', 'placement_count').orderBy('id');
+      expect(versions.length).toBeGreaterThan(0);
+      for (const v of versions) expect(v.placement_count).toBe((JSON.parse(v.content) as { placements: unknown[] }).placements.length);
+      // With versions in use by jobs: the column goes, and comes back refilled from the content.
+      const name = '20261205120100_placement_count';
+      await db.migrate.down({ migrationSource, name });
+      expect(await db.schema.hasColumn('template_versions', 'placement_count')).toBe(false);
+      await db.migrate.up({ migrationSource, name });
+      const again = await db('template_versions').select('placement_count').orderBy('id');
+      expect(again.map((v: { placement_count: number }) => v.placement_count)).toEqual(versions.map((v: { placement_count: number }) => v.placement_count));
+    } finally {
+      await db.destroy();
+      await pg?.drop();
+      rmSync(dir, { recursive: true, force: true });
+    }
   });
 });
