@@ -7,6 +7,7 @@ import type { MessagePort } from 'node:worker_threads';
 import type { Unit } from '../../shared/schemas/common';
 import type { Outline } from '../../shared/schemas/geometry';
 import type { NamingConvention, NamingRule } from '../../shared/schemas/naming';
+import type { PartProgramSummary } from '../../shared/gcode/read-part-program';
 import type { ManifestRead } from '../manifest/manifest-types';
 
 export interface TaskIo {
@@ -24,6 +25,8 @@ export interface TaskIo {
   'manifest-read': { input: { path: string; convention: NamingConvention }; output: ManifestRead };
   /** A measured-bars file as tab-separated text. */
   'bars-file': { input: { path: string }; output: { text: string; sheet: string | null } };
+  /** A job's part program read and checked in the job's unit: the text to store, its SHA-256 and the summary. */
+  'part-program': { input: { path: string; unit: Unit }; output: { text: string; sha256: string; summary: PartProgramSummary } };
 }
 
 export type TaskName = keyof TaskIo;

@@ -9,6 +9,7 @@ import { HttpError, validationError } from '../middleware/errors';
 import { boundedJson, inspectUploadedDxf, layerReport, normalizeOutline } from '../services/dxf-uploads';
 import { barsFileText } from '../services/bars-file';
 import { readManifestUpload } from '../manifest/read-upload';
+import { readPartProgramFile } from '../services/part-program-file';
 import type { TaskFailure, TaskInput, TaskIo, TaskMessage, TaskName, TaskOutput, TaskReply } from './task-types';
 
 type Handlers = { [K in TaskName]: (input: TaskInput<K>) => TaskOutput<K> | Promise<TaskOutput<K>> };
@@ -29,6 +30,7 @@ const HANDLERS: Handlers = {
   },
   'manifest-read': ({ path, convention }) => readManifestUpload(readFileSync(path), convention),
   'bars-file': ({ path }) => barsFileText(readFileSync(path)),
+  'part-program': ({ path, unit }) => readPartProgramFile(path, unit),
 };
 
 export function failureOf(err: unknown): TaskFailure {
