@@ -11,8 +11,8 @@ import type { PartProgramSummary } from '../../shared/gcode/read-part-program';
 import type { ManifestRead } from '../manifest/manifest-types';
 
 export interface TaskIo {
-  /** POST /api/dxf/inspect: the whole answer as bounded JSON text, layers checked against the rule. */
-  'dxf-inspect': { input: { path: string; size: number; layerRule: NamingRule }; output: { json: string } };
+  /** POST /api/dxf/inspect: the whole answer as bounded JSON (UTF-8 bytes, moved, not copied), layers checked against the rule. */
+  'dxf-inspect': { input: { path: string; size: number; layerRule: NamingRule }; output: { json: Uint8Array } };
   /**
    * An outline upload: the drawing's outline in the owner's unit with its origin at the datum.
    * A datum coordinate left out is 0 (`origin`) or the lower-left corner of the extents (`extents`).
