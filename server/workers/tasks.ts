@@ -57,17 +57,24 @@ function movable<T extends object>(reply: T, buffers: ArrayBuffer[]): T {
   return Piscina.move({ [Piscina.transferableSymbol]: buffers, [Piscina.valueSymbol]: reply } as never) as unknown as T;
 }
 
-export async function runTask<K extends TaskName>(message: TaskMessage<K>): Promise<TaskReply<K>> {
+/** Runs one task wherever it is called: tells `started`, then answers the reply as plain data. */
+export async function performTask<K extends TaskName>(message: TaskMessage<K>): Promise<TaskReply<K>> {
   const { name, input, started } = message;
   started.postMessage('started');
   started.close();
   try {
     const handler = HANDLERS[name] as (input: TaskIo[K]['input']) => TaskOutput<K> | Promise<TaskOutput<K>>;
     if (!handler) throw new Error(`No worker task named ${String(name)}.`);
-    const value = await handler(input);
-    const buffers = Object.values(value).filter((v): v is Uint8Array => v instanceof Uint8Array).map((v) => v.buffer as ArrayBuffer);
-    return movable({ ok: true, value }, buffers);
+    return { ok: true, value: await handler(input) };
   } catch (err) {
     return { ok: false, failure: failureOf(err) };
   }
+}
+
+/** The pool thread's entry (worker-entry.mjs): the reply, its byte arrays moved to the main thread. */
+export async function runTask<K extends TaskName>(message: TaskMessage<K>): Promise<TaskReply<K>> {
+  const reply = await performTask(message);
+  if (!reply.ok) return reply;
+  const buffers = Object.values(reply.value).filter((v): v is Uint8Array => v instanceof Uint8Array).map((v) => v.buffer as ArrayBuffer);
+  return movable(reply, buffers);
 }
