@@ -104,8 +104,8 @@ export function createApp(deps: AppDeps): GridsetApp {
   const jobs = jobsService({ db, jobs: jobsRepo(db), templates, audit });
   const reviews = reviewsService({ db, templates, users: userRows, naming, mailer, publicUrl: deps.publicUrl ?? 'http://localhost:3000' });
   const settings = settingsRepo(db);
-  const programs = partProgramsService({ db, jobs, audit });
   const workers = deps.workers ?? sharedWorkerPool();
+  const programs = partProgramsService({ db, jobs, audit, workers });
 
   const app = express() as GridsetApp;
   app.disable('x-powered-by');

@@ -29,7 +29,9 @@ export function dxfRoutes(deps: { dataDir: string; files: FileStore; uploadLimit
 
   return [
     { method: 'post', path: '/dxf/inspect', access: CAN.editCatalog, before: upload, handler: (req, res) => usingUpload(req.file, async (file) => {
-      res.type('application/json').send(await outlines.inspect(file));
+      const json = await outlines.inspect(file);
+      // Sent as it is: res.send would hash the whole answer (tens of MB for a large drawing) for an ETag on the request thread.
+      res.type('application/json').set('Content-Length', String(json.length)).end(json);
     }) },
     { method: 'post', path: '/components/:id/outline', access: CAN.editCatalog, before: upload, handler: (req, res) => usingUpload(req.file, async (file) => {
       const { id } = parseOr400(IdParamSchema, req.params, 'address');

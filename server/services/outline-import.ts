@@ -22,10 +22,11 @@ export interface OutlineRead { outline: Outline; unit: Unit; sha256: string; dat
 export function outlineImportService(deps: { workers: WorkerPool; naming: NamingService; catalog: CatalogService; jobs: JobsService }) {
   const { workers, naming, catalog, jobs } = deps;
   return {
-    /** POST /api/dxf/inspect: the answer as bounded JSON text, each layer checked against the convention. */
-    async inspect(file: UploadedFile): Promise<string> {
+    /** POST /api/dxf/inspect: the answer as bounded JSON (UTF-8 bytes), each layer checked against the convention. */
+    async inspect(file: UploadedFile): Promise<Buffer> {
       const convention = await naming.current();
-      return (await workers.run('dxf-inspect', { path: file.path, size: file.size, layerRule: convention.layer })).json;
+      const { json } = await workers.run('dxf-inspect', { path: file.path, size: file.size, layerRule: convention.layer });
+      return Buffer.from(json.buffer, json.byteOffset, json.byteLength);
     },
     /** A component's outline with its origin at the primary dowel (datumX/datumY, 0 by default), layers mapped and checked. */
     async componentOutline(id: number, file: UploadedFile, f: OutlineFields): Promise<OutlineRead> {

@@ -1,5 +1,3 @@
-import { createHash } from 'node:crypto';
-import { readFileSync } from 'node:fs';
 import type { User } from '../../shared/schemas/auth';
 import type { TableProgramQuery } from '../../shared/schemas/part-program';
 import { MAX_PROGRAM_BYTES, readPartProgram, type PartProgram } from '../../shared/gcode/read-part-program';
@@ -11,13 +9,13 @@ import type { Db } from '../db/knex';
 import type { AuditRepo } from '../db/audit-repo';
 import { partProgramsRepo } from '../db/part-programs-repo';
 import { badRequest, HttpError } from '../middleware/errors';
+import type { WorkerPool } from '../workers/pool';
 import type { JobsService } from './jobs';
-
-const refused = (e: { line: number | null; message: string }) => badRequest(e.message, { line: e.line }, 'part-program');
+import { refused } from './part-program-file';
 
 /** A job's single-part program: stored as sent after the subset check, written out for every station on request. */
-export function partProgramsService(deps: { db: Db; jobs: JobsService; audit: AuditRepo }) {
-  const { db, jobs, audit } = deps;
+export function partProgramsService(deps: { db: Db; jobs: JobsService; audit: AuditRepo; workers: WorkerPool }) {
+  const { db, jobs, audit, workers } = deps;
   const repo = partProgramsRepo(db);
 
   /** The stored program read again (it was checked when stored); null when there is none. */
@@ -80,12 +78,10 @@ export function partProgramsService(deps: { db: Db; jobs: JobsService; audit: Au
     async upload(user: User, jobId: number, file: { name: string; size: number; path: string }) {
       const job = await jobs.detail(jobId);
       if (file.size > MAX_PROGRAM_BYTES) throw badRequest(`The part program is ${(file.size / 1048576).toFixed(1)} MB; one part's program may be at most ${MAX_PROGRAM_BYTES / 1048576} MB.`, null, 'part-program');
-      // Read byte for byte; a UTF-8 byte-order mark some editors write is dropped, anything else not ASCII is refused by line.
-      const text = readFileSync(file.path, 'latin1').replace(/^\xEF\xBB\xBF/, '');
-      const read = readPartProgram(text, job.unit);
-      if (!read.ok) throw refused(read.error);
-      const sha256 = createHash('sha256').update(text, 'latin1').digest('hex');
-      const summary = { name: file.name.slice(0, 200), size: file.size, ...read.program.summary };
+      // Read and checked on a worker thread (part-program-file.ts): up to 8 MB of G-code is seconds of work.
+      const read = await workers.run('part-program', { path: file.path, unit: job.unit });
+      const { text, sha256 } = read;
+      const summary = { name: file.name.slice(0, 200), size: file.size, ...read.summary };
       await db.transaction(async (trx) => {
         const replaced = await repo.put(trx, jobId, { text, sha256, summary });
         await audit.record({

@@ -7,11 +7,12 @@ import type { MessagePort } from 'node:worker_threads';
 import type { Unit } from '../../shared/schemas/common';
 import type { Outline } from '../../shared/schemas/geometry';
 import type { NamingConvention, NamingRule } from '../../shared/schemas/naming';
+import type { PartProgramSummary } from '../../shared/gcode/read-part-program';
 import type { ManifestRead } from '../manifest/manifest-types';
 
 export interface TaskIo {
-  /** POST /api/dxf/inspect: the whole answer as bounded JSON text, layers checked against the rule. */
-  'dxf-inspect': { input: { path: string; size: number; layerRule: NamingRule }; output: { json: string } };
+  /** POST /api/dxf/inspect: the whole answer as bounded JSON (UTF-8 bytes, moved, not copied), layers checked against the rule. */
+  'dxf-inspect': { input: { path: string; size: number; layerRule: NamingRule }; output: { json: Uint8Array } };
   /**
    * An outline upload: the drawing's outline in the owner's unit with its origin at the datum.
    * A datum coordinate left out is 0 (`origin`) or the lower-left corner of the extents (`extents`).
@@ -24,6 +25,8 @@ export interface TaskIo {
   'manifest-read': { input: { path: string; convention: NamingConvention }; output: ManifestRead };
   /** A measured-bars file as tab-separated text. */
   'bars-file': { input: { path: string }; output: { text: string; sheet: string | null } };
+  /** A job's part program read and checked in the job's unit: the text to store, its SHA-256 and the summary. */
+  'part-program': { input: { path: string; unit: Unit }; output: { text: string; sha256: string; summary: PartProgramSummary } };
 }
 
 export type TaskName = keyof TaskIo;

@@ -4,11 +4,13 @@
  * thrown, so its status, code and details reach the main thread unchanged (TaskFailure).
  */
 import { readFileSync } from 'node:fs';
+import Piscina from 'piscina';
 import { ZodError } from 'zod';
 import { HttpError, validationError } from '../middleware/errors';
 import { boundedJson, inspectUploadedDxf, layerReport, normalizeOutline } from '../services/dxf-uploads';
 import { barsFileText } from '../services/bars-file';
 import { readManifestUpload } from '../manifest/read-upload';
+import { readPartProgramFile } from '../services/part-program-file';
 import type { TaskFailure, TaskInput, TaskIo, TaskMessage, TaskName, TaskOutput, TaskReply } from './task-types';
 
 type Handlers = { [K in TaskName]: (input: TaskInput<K>) => TaskOutput<K> | Promise<TaskOutput<K>> };
@@ -18,7 +20,8 @@ const HANDLERS: Handlers = {
     const { inspection } = inspectUploadedDxf(path);
     const { unit, layers, entities, entityTypes, bbox, circles, unsupported, outline, notes, points, approximations, warnings, version, insunits } = inspection;
     const answer = { unit, insunits, version, layers: layerReport(layerRule, layers), entities, entityTypes, bbox, circles, unsupported, outline, notes, points, approximations, warnings };
-    return { json: boundedJson(answer, size) };
+    // UTF-8 bytes in a buffer of their own, moved to the main thread rather than copied.
+    return { json: new TextEncoder().encode(boundedJson(answer, size)) };
   },
   'dxf-outline': ({ path, fileUnit, targetUnit, datum: given, datumDefault }) => {
     const { inspection, sha256 } = inspectUploadedDxf(path);
@@ -29,6 +32,7 @@ const HANDLERS: Handlers = {
   },
   'manifest-read': ({ path, convention }) => readManifestUpload(readFileSync(path), convention),
   'bars-file': ({ path }) => barsFileText(readFileSync(path)),
+  'part-program': ({ path, unit }) => readPartProgramFile(path, unit),
 };
 
 export function failureOf(err: unknown): TaskFailure {
@@ -47,7 +51,14 @@ export function failureOf(err: unknown): TaskFailure {
 /** Details as JSON would send them anyway (the answer is JSON), so nothing uncloneable crosses the thread. */
 const plain = (v: unknown): unknown => (v === undefined ? null : JSON.parse(JSON.stringify(v)));
 
-export async function runTask<K extends TaskName>(message: TaskMessage<K>): Promise<TaskReply<K>> {
+/** The reply with its byte arrays moved, not copied, to the main thread (piscina's Transferable, marked movable). */
+function movable<T extends object>(reply: T, buffers: ArrayBuffer[]): T {
+  if (!buffers.length) return reply;
+  return Piscina.move({ [Piscina.transferableSymbol]: buffers, [Piscina.valueSymbol]: reply } as never) as unknown as T;
+}
+
+/** Runs one task wherever it is called: tells `started`, then answers the reply as plain data. */
+export async function performTask<K extends TaskName>(message: TaskMessage<K>): Promise<TaskReply<K>> {
   const { name, input, started } = message;
   started.postMessage('started');
   started.close();
@@ -58,4 +69,12 @@ export async function runTask<K extends TaskName>(message: TaskMessage<K>): Prom
   } catch (err) {
     return { ok: false, failure: failureOf(err) };
   }
+}
+
+/** The pool thread's entry (worker-entry.mjs): the reply, its byte arrays moved to the main thread. */
+export async function runTask<K extends TaskName>(message: TaskMessage<K>): Promise<TaskReply<K>> {
+  const reply = await performTask(message);
+  if (!reply.ok) return reply;
+  const buffers = Object.values(reply.value).filter((v): v is Uint8Array => v instanceof Uint8Array).map((v) => v.buffer as ArrayBuffer);
+  return movable(reply, buffers);
 }
