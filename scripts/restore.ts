@@ -3,7 +3,7 @@
 import { readFileSync } from 'node:fs';
 import path from 'node:path';
 import { restoreBackup } from '../server/backup/archive';
-import { s3SettingsOf } from '../server/config';
+import { databaseUrlOf, s3SettingsOf } from '../server/config';
 import { createFileStore } from '../server/storage/create-store';
 
 const args = process.argv.slice(2);
@@ -16,7 +16,7 @@ const dataDir = path.resolve(process.env.GRIDSET_DATA_DIR ?? './data');
 try {
   // The kept files go where the server will look for them: the data folder, or the bucket S3_URL names.
   const files = createFileStore({ dataDir, s3: s3SettingsOf(process.env) });
-  const manifest = await restoreBackup(readFileSync(file), dataDir, { force: args.includes('--force'), files });
+  const manifest = await restoreBackup(readFileSync(file), dataDir, { force: args.includes('--force'), files, databaseUrl: databaseUrlOf() });
   console.log(`Restored the backup of ${manifest.createdAt} into ${dataDir}: the database, and ${manifest.files.length} stored files into ${files.location}. Start Gridset as usual; it migrates the database if it is older.`);
 } catch (e) {
   console.error(`Nothing restored: ${e instanceof Error ? e.message : String(e)}`);

@@ -7,8 +7,7 @@ import helmet from 'helmet';
 import { Passport } from 'passport';
 import { Strategy as LocalStrategy } from 'passport-local';
 import { csrfSync } from 'csrf-sync';
-import type { Db } from './db/knex';
-import { isPostgres } from './db/dialect';
+import { targetOf, type Db } from './db/knex';
 import { SessionStore } from './db/session-store';
 import { usersRepo } from './db/users-repo';
 import { catalogRepo } from './db/catalog-repo';
@@ -52,6 +51,8 @@ import type { FileStore } from './storage/file-store';
 import { localFileStore } from './storage/local-store';
 import { originalFilesService } from './services/original-files';
 import { originalFileRoutes } from './routes/original-files';
+import { outlineImportService } from './services/outline-import';
+import { sharedWorkerPool, type WorkerPool } from './workers/pool';
 
 export interface AppDeps {
   db: Db;
@@ -75,11 +76,16 @@ export interface AppDeps {
   https?: boolean;
   /** Express's `trust proxy` (TRUST_PROXY): which proxies' X-Forwarded-* headers to believe; loopback by default. */
   trustProxy?: string | boolean | number;
+  /** The threads that read heavy uploads (DXF, manifests, bars files); the process's shared pool by default. */
+  workers?: WorkerPool;
 }
 
 export type GridsetApp = express.Express & {
-  /** whenIdle resolves once mails sent after an answer (password resets) are out: for tests and shutdown. */
-  locals: { routes: RouteDef[]; whenIdle: () => Promise<void> };
+  /**
+   * whenIdle resolves once mails sent after an answer (password resets) are out: for tests and shutdown.
+   * close does that, then ends the worker threads once the files they are reading are done (a later upload starts them again).
+   */
+  locals: { routes: RouteDef[]; whenIdle: () => Promise<void>; close: () => Promise<void> };
 };
 
 /** Builds the whole app from its dependencies; never listens (server/index.ts does). */
@@ -99,6 +105,7 @@ export function createApp(deps: AppDeps): GridsetApp {
   const reviews = reviewsService({ db, templates, users: userRows, naming, mailer, publicUrl: deps.publicUrl ?? 'http://localhost:3000' });
   const settings = settingsRepo(db);
   const programs = partProgramsService({ db, jobs, audit });
+  const workers = deps.workers ?? sharedWorkerPool();
 
   const app = express() as GridsetApp;
   app.disable('x-powered-by');
@@ -157,15 +164,15 @@ export function createApp(deps: AppDeps): GridsetApp {
     ...accountLinkRoutes(accountLinks, db),
     ...outboxRoutes(outboxRepo(db)),
     ...catalogRoutes(catalog),
-    ...settingsRoutes(settings, audit, { files, databaseFile: isPostgres(db) ? undefined : (db.client.config.connection as { filename: string }).filename }),
+    ...settingsRoutes(settings, audit, { files, database: targetOf(db) }),
     ...templateRoutes(templates, settings),
-    ...stockCheckRoutes({ dataDir: deps.dataDir, uploadLimitBytes: deps.uploadLimitBytes ?? 20 * 1024 * 1024 }),
+    ...stockCheckRoutes({ dataDir: deps.dataDir, uploadLimitBytes: deps.uploadLimitBytes ?? 20 * 1024 * 1024, workers }),
     ...namingRoutes(naming),
     ...reviewRoutes(reviews),
     ...auditRoutes(audit),
     ...jobRoutes(jobs, loadListService({ db, jobs, audit }), programs),
-    ...manifestRoutes({ manifest: manifestService({ db, catalog: catalogRepo(db), naming, audit }), templates, dataDir: deps.dataDir, uploadLimitBytes: deps.uploadLimitBytes ?? 20 * 1024 * 1024 }),
-    ...dxfRoutes({ dataDir: deps.dataDir, files, uploadLimitBytes: deps.uploadLimitBytes ?? 20 * 1024 * 1024, catalog, jobs, naming }),
+    ...manifestRoutes({ manifest: manifestService({ db, catalog: catalogRepo(db), naming, audit, workers }), templates, dataDir: deps.dataDir, uploadLimitBytes: deps.uploadLimitBytes ?? 20 * 1024 * 1024 }),
+    ...dxfRoutes({ dataDir: deps.dataDir, files, uploadLimitBytes: deps.uploadLimitBytes ?? 20 * 1024 * 1024, catalog, jobs, outlines: outlineImportService({ workers, naming, catalog, jobs }) }),
     ...originalFileRoutes(originalFilesService({ files, catalog, jobs })),
     ...partProgramRoutes({ dataDir: deps.dataDir, uploadLimitBytes: deps.uploadLimitBytes ?? 20 * 1024 * 1024, programs }),
   ];
@@ -175,6 +182,10 @@ export function createApp(deps: AppDeps): GridsetApp {
   app.use('/api', api);
   app.locals.routes = routes;
   app.locals.whenIdle = () => accountLinks.whenIdle();
+  app.locals.close = async () => {
+    await accountLinks.whenIdle();
+    await workers.close();
+  };
 
   if (deps.clientDir && existsSync(path.join(deps.clientDir, 'index.html'))) {
     const clientDir = deps.clientDir;

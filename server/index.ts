@@ -3,11 +3,14 @@ import { fileURLToPath } from 'node:url';
 import { ConfigError, readConfig } from './config';
 import { openDb, migrate } from './db/knex';
 import { seedDemoDataIfEmpty } from './db/seed-demo';
+import { oneProcessAtATime } from './db/dialect';
+import { usersRepo } from './db/users-repo';
 import { createApp } from './app';
 import { createMailer } from './mail/mailer';
 import { sweepUploadTemp } from './middleware/upload';
 import { createFileStore } from './storage/create-store';
 import { StoreError } from './storage/file-store';
+import { sharedWorkerPool } from './workers/pool';
 
 const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..');
 
@@ -18,8 +21,12 @@ async function main() {
   await files.check();
   const db = openDb(config.database);
   await migrate(db);
-  const seeded = await seedDemoDataIfEmpty(db);
+  // Processes starting together on one PostgreSQL database load the demo shop once between them.
+  const seeded = config.demo && (await oneProcessAtATime(db, () => seedDemoDataIfEmpty(db)));
   if (seeded) console.log('New database: demo data loaded (demo accounts use the password gridset-demo).');
+  if (!config.demo && (await usersRepo(db).countActiveAdmins()) === 0) {
+    console.log('No admin yet: run `npm run add-admin -- you@your-shop.example "Your Name"` on this server for the link to choose a password.');
+  }
   const app = createApp({
     db,
     sessionSecret: config.sessionSecret,
@@ -32,6 +39,7 @@ async function main() {
     publicUrl: config.publicUrl,
     https: config.https,
     trustProxy: config.trustProxy,
+    workers: sharedWorkerPool(config.workers),
   });
   // Express 5 calls this back with the error too when the port cannot be had; 'error' below says it.
   const server = app.listen(config.port, (err?: Error) => {
@@ -49,8 +57,9 @@ async function main() {
   // A request's error is answered by the error handler; one that escapes it (a promise no one awaited)
   // is logged, and the server goes on serving the others rather than ending for everyone.
   process.on('unhandledRejection', (reason) => console.error('Unhandled rejection (the server goes on):', reason));
-  // Mails still being sent after their answer (password resets) finish before the database closes.
-  const stop = () => server.close(() => app.locals.whenIdle().then(() => db.destroy()).then(() => process.exit(0)));
+  // Mails still being sent after their answer (password resets) and files being read on the worker
+  // threads finish before the database closes.
+  const stop = () => server.close(() => app.locals.close().then(() => db.destroy()).then(() => process.exit(0)));
   process.on('SIGINT', stop);
   process.on('SIGTERM', stop);
 }

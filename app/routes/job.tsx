@@ -29,7 +29,8 @@ import { useTemplates, versionFileUrl, versionQuery } from '../features/template
 import { BarTable, barCellId, firstBarRows, tableIdRows, withPastedRows, type BarRow } from '../features/stock-check/components/bar-table';
 import { BarsPaste } from '../features/stock-check/components/bars-paste';
 import { BarByBar, StockCheckResults } from '../features/stock-check/components/stock-check-results';
-import { BAR_FIELDS, BAR_FIELD_LABEL, readBarTable, type BarField, type PastedRow, type TableProblem } from '../features/stock-check/parse-bars';
+import { BAR_FIELDS, BAR_FIELD_LABEL, readBarTable, type BarField, type TableProblem } from '../features/stock-check/bar-cells';
+import type { PastedRow } from '../features/stock-check/parse-bars';
 
 const NO_TEMPLATES: TemplateSummary[] = [];
 const SHOWN_PROBLEMS = 12;

@@ -26,17 +26,21 @@ interface ComponentRow {
   created_at: string | Date; updated_at: string | Date; used_by?: number | string | null;
 }
 
-const json = <T>(text: string | null): T | null => (text === null || text === undefined ? null : (JSON.parse(text) as T));
+const str = JSON.stringify;
+/** A JSON column as stored: text that JSON.stringify wrote (componentToRow), spliced in unparsed. */
+const stored = (text: string | null | undefined) => (text === null || text === undefined ? 'null' : text);
 
-/** A component row as its API JSON: the one mapping for reads. */
-const componentFromRow = (r: ComponentRow): Component => ({
-  id: r.id, code: r.code, kind: r.kind, name: r.name, unit: r.unit,
-  dowels: json<Component['dowels']>(r.dowels)!, stops: json<Component['stops']>(r.stops)!, jawFaces: json<Component['jawFaces']>(r.jaw_faces)!,
-  clamp: json<Component['clamp']>(r.clamp), outline: json<Component['outline']>(r.outline), layer: r.layer, notes: r.notes,
-  seatHeight: toNumber(r.seat_height), jawTop: r.jaw_top === null ? null : toNumber(r.jaw_top),
-  outlineFile: json<Component['outlineFile']>(r.outline_file),
-  usedBy: toNumber(r.used_by), createdAt: isoTime(r.created_at), updatedAt: isoTime(r.updated_at),
-} as Component);
+/**
+ * A component row as its API JSON text: the one mapping for reads. The JSON columns are spliced in
+ * as stored, so a list of a thousand components is not parsed and re-serialized (see the
+ * catalog-list benchmark); services that need objects parse this text.
+ */
+const componentJson = (r: ComponentRow): string =>
+  `{"id":${str(r.id)},"code":${str(r.code)},"kind":${str(r.kind)},"name":${str(r.name)},"unit":${str(r.unit)},` +
+  `"dowels":${stored(r.dowels)},"stops":${stored(r.stops)},"jawFaces":${stored(r.jaw_faces)},"clamp":${stored(r.clamp)},"outline":${stored(r.outline)},` +
+  `"layer":${str(r.layer)},"notes":${str(r.notes)},"seatHeight":${str(toNumber(r.seat_height))},"jawTop":${r.jaw_top === null ? 'null' : str(toNumber(r.jaw_top))},` +
+  `"outlineFile":${stored(r.outline_file)},"usedBy":${str(toNumber(r.used_by))},"createdAt":${str(isoTime(r.created_at))},"updatedAt":${str(isoTime(r.updated_at))}}`;
+const componentFromRow = (r: ComponentRow): Component => JSON.parse(componentJson(r)) as Component;
 const componentToRow = (c: ComponentFields) => ({
   code: c.code, kind: c.kind, name: c.name, unit: c.unit,
   dowels: JSON.stringify(c.dowels), stops: JSON.stringify(c.stops), jaw_faces: JSON.stringify(c.jawFaces),
@@ -50,6 +54,17 @@ export function catalogRepo(db: Db) {
   const plateUse = db('templates').select('plate_id').count({ n: '*' }).groupBy('plate_id').as('u');
   const componentUse = () => db('template_version_components').select('component_id').countDistinct({ n: 'version_id' }).groupBy('component_id').as('u');
   const components = () => db('components as c').leftJoin(componentUse(), 'u.component_id', 'c.id').select('c.*', 'u.n as used_by');
+
+  async function listComponentsJson(query: ListQuery & { kind?: string }): Promise<string> {
+    const filter = <T extends Knex.QueryBuilder>(q: T): T => {
+      if (query.q) whereContains(db, q, ['c.code', 'c.name', 'c.layer'], query.q);
+      if (query.kind) q.where('c.kind', query.kind);
+      return q;
+    };
+    const [{ total }] = (await filter(db('components as c')).count({ total: '*' })) as [{ total: number | string }];
+    const rows: ComponentRow[] = await paged(orderByText(db, filter(components()), 'c.code'), query.limit, query.offset);
+    return `{"items":[${rows.map(componentJson).join(',')}],"total":${toNumber(total)}}`;
+  }
 
   return {
     async listPlates(query: ListQuery): Promise<{ items: Plate[]; total: number }> {
@@ -81,16 +96,11 @@ export function catalogRepo(db: Db) {
     },
     deletePlate: (id: number, trx: Db = db) => trx('plates').where({ id }).delete(),
 
-    /** One page of components (all when no limit), ordered by code, and how many match in all. */
+    /** One page of components (all when no limit), ordered by code, as the list answer `{items, total}` in JSON text, ready to send. */
+    listComponentsJson,
+    /** The same list as objects. */
     async listComponents(query: ListQuery & { kind?: string }): Promise<{ items: Component[]; total: number }> {
-      const filter = <T extends Knex.QueryBuilder>(q: T): T => {
-        if (query.q) whereContains(db, q, ['c.code', 'c.name', 'c.layer'], query.q);
-        if (query.kind) q.where('c.kind', query.kind);
-        return q;
-      };
-      const [{ total }] = (await filter(db('components as c')).count({ total: '*' })) as [{ total: number | string }];
-      const rows: ComponentRow[] = await paged(orderByText(db, filter(components()), 'c.code'), query.limit, query.offset);
-      return { items: rows.map(componentFromRow), total: toNumber(total) };
+      return JSON.parse(await listComponentsJson(query)) as { items: Component[]; total: number };
     },
     async getComponent(id: number): Promise<Component | undefined> {
       const r: ComponentRow | undefined = await components().where('c.id', id).first();

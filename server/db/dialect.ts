@@ -38,6 +38,16 @@ export function orderByText<T extends Knex.QueryBuilder>(db: Db, query: T, colum
 }
 
 /**
+ * Locks the rows a query reads until the transaction ends (SELECT … FOR UPDATE on PostgreSQL), so a
+ * check and the write that depends on it cannot interleave with another transaction's. SQLite has
+ * one writer at a time and no row locks: the query is left as it is.
+ */
+export function forUpdate<T extends Knex.QueryBuilder>(db: Db, query: T): T {
+  if (isPostgres(db)) query.forUpdate();
+  return query;
+}
+
+/**
  * One page of a query: no LIMIT at all when none is asked for (SQLite's "LIMIT -1" is an error on
  * PostgreSQL), and an OFFSET only when it skips rows.
  */
@@ -100,6 +110,15 @@ export function isUniqueViolation(err: unknown): boolean {
   return code === '23505' || code === 'SQLITE_CONSTRAINT_UNIQUE' || code === 'SQLITE_CONSTRAINT_PRIMARYKEY';
 }
 
+/**
+ * True for a broken FOREIGN KEY constraint: PostgreSQL SQLSTATE 23503 foreign_key_violation, SQLite
+ * SQLITE_CONSTRAINT_FOREIGNKEY. A row deleted while another request points a new row at it.
+ */
+export function isForeignKeyViolation(err: unknown): boolean {
+  const code = (err as { code?: unknown } | null)?.code;
+  return code === '23503' || code === 'SQLITE_CONSTRAINT_FOREIGNKEY';
+}
+
 /** PostgreSQL SQLSTATE 22003 numeric_value_out_of_range: a number too large for its column (SQLite stores any size). */
 export const isOutOfRange = (err: unknown): boolean => (err as { code?: unknown } | null)?.code === '22003';
 
@@ -116,4 +135,21 @@ export async function retryUniqueRace<T>(work: () => Promise<T>, attempts = 5): 
       if (i >= attempts || !isUniqueViolation(err)) throw err;
     }
   }
+}
+
+/** The advisory-lock key every Gridset process takes to load the demo shop (any fixed 64-bit number). */
+const START_LOCK = 0x47524944; // "GRID"
+
+/**
+ * Runs start-up work (loading the demo shop into an empty database) in one process at a time. Several
+ * processes starting together on one PostgreSQL database wait on a transaction-level advisory lock
+ * (PostgreSQL manual, 9.27.10 "Advisory Lock Functions"), so the second finds the work done. A SQLite
+ * file has one process; its single connection must stay free for the work itself.
+ */
+export async function oneProcessAtATime<T>(db: Db, work: () => Promise<T>): Promise<T> {
+  if (!isPostgres(db)) return work();
+  return db.transaction(async (trx) => {
+    await trx.raw('select pg_advisory_xact_lock(?)', [START_LOCK]);
+    return work();
+  });
 }

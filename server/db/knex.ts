@@ -44,9 +44,21 @@ export function dbConfig(target: string): Knex.Config {
   };
 }
 
+// Knex parses a URL into an object; the backup needs the target as it was given (for pg_dump).
+const targets = new WeakMap<Db, string>();
+
 /** Opens the database: `target` is a postgres:// URL (PostgreSQL) or the path of a SQLite file. */
 export function openDb(target: string): Db {
-  return knexFactory(dbConfig(target));
+  const db = knexFactory(dbConfig(target));
+  targets.set(db, target);
+  return db;
+}
+
+/** What `openDb` was given for this database: its postgres:// URL or its SQLite file. */
+export function targetOf(db: Db): string {
+  const target = targets.get(db);
+  if (target === undefined) throw new Error('This database was not opened by openDb.');
+  return target;
 }
 
 export async function migrate(db: Db): Promise<void> {

@@ -4,14 +4,20 @@ import { NamingConventionSchema, type NamingConvention } from '../../shared/sche
 import { DEFAULT_CONVENTION } from '../../shared/naming/conventions';
 
 export function namingRepo(db: Db) {
-  let current: NamingConvention | null = null;
+  // The parsed convention, kept while its version is still the newest in the database: another app
+  // process may save a new version at any time, so each read asks for the newest version number
+  // (one indexed read) and parses the body again only when it changed.
+  let kept: { version: number; convention: NamingConvention } | null = null;
   return {
     /** The convention in force: the latest saved, or the plain default when none was saved. */
     async current(): Promise<NamingConvention> {
-      if (current) return current;
-      const row = await db('naming_conventions').orderBy('version', 'desc').first();
-      current = row ? NamingConventionSchema.parse(JSON.parse(row.body)) : DEFAULT_CONVENTION;
-      return current;
+      const latest = await db('naming_conventions').max({ v: 'version' });
+      const version = Number((latest as [{ v: number | string | null }])[0].v ?? 0);
+      if (version === 0) return DEFAULT_CONVENTION;
+      if (kept?.version === version) return kept.convention;
+      const row = await db('naming_conventions').where({ version }).first();
+      kept = { version, convention: NamingConventionSchema.parse(JSON.parse(row.body)) };
+      return kept.convention;
     },
     async history(): Promise<{ version: number; createdAt: string; createdBy: number | null }[]> {
       const rows = await db('naming_conventions').select('version', 'created_at', 'created_by').orderBy('version', 'desc');
@@ -22,7 +28,6 @@ export function namingRepo(db: Db) {
       const version = Number((latest as [{ v: number | null }])[0].v ?? 0) + 1;
       const saved: NamingConvention = { ...convention, version };
       await trx('naming_conventions').insert({ version, body: JSON.stringify(saved), created_by: userId });
-      current = null;
       return saved;
     },
   };

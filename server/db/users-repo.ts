@@ -1,5 +1,5 @@
 import type { Db } from './knex';
-import { isoTime, orderByText } from './dialect';
+import { forUpdate, isoTime, orderByText } from './dialect';
 import type { Role, User } from '../../shared/schemas/auth';
 import type { Unit } from '../../shared/schemas/common';
 
@@ -26,17 +26,15 @@ const toUser = (r: UserRow): User => ({
 });
 
 export function usersRepo(db: Db) {
-  // Every signed-in request loads its user; keep them until this repository writes that user.
-  // One process owns the database file, so no other writer can make an entry stale.
-  const byId = new Map<number, User>();
   return {
+    /**
+     * Every signed-in request reads its user here, from the database each time (one primary-key
+     * read): another app process may have changed the role or deactivated the user a moment ago,
+     * and a copy kept in this process's memory would go on signing their requests.
+     */
     async findById(id: number): Promise<User | undefined> {
-      const hit = byId.get(id);
-      if (hit) return hit;
       const row = await db<UserRow>('users').where({ id }).first();
-      const user = row && toUser(row);
-      if (user) byId.set(id, user);
-      return user;
+      return row && toUser(row);
     },
     async findWithHashByEmail(email: string): Promise<(User & { passwordHash: string | null }) | undefined> {
       const row = await db<UserRow>('users').where({ email }).first();
@@ -58,22 +56,19 @@ export function usersRepo(db: Db) {
       if (patch.active !== undefined) row.active = patch.active;
       if (patch.displayUnit !== undefined) row.display_unit = patch.displayUnit;
       if (patch.passwordHash !== undefined) row.password_hash = patch.passwordHash;
-      byId.delete(id);
       await trx('users').where({ id }).update(row);
-      if (trx === db) return this.findById(id);
-      // Inside a transaction: read through it (the one connection is taken) and cache nothing
-      // that a rollback could take back.
+      // Read back through the same transaction (SQLite's one connection is taken by it).
       const fresh = await trx<UserRow>('users').where({ id }).first();
       return fresh && toUser(fresh);
     },
     /** Deletes a user who never signed in (an invitation that could not be mailed). */
     async remove(id: number, trx: Db = db): Promise<void> {
-      byId.delete(id);
       await trx('users').where({ id }).del();
     },
-    async countActiveAdmins(): Promise<number> {
-      const r = await db('users').where({ role: 'admin', active: true }).count<{ n: number }[]>({ n: '*' });
-      return Number(r[0]?.n ?? 0);
+    /** Active admins; inside a transaction their rows stay locked until it ends, so two demotions cannot both pass. */
+    async countActiveAdmins(trx: Db = db): Promise<number> {
+      const rows = await forUpdate(trx, trx('users').where({ role: 'admin', active: true }).select('id'));
+      return rows.length;
     },
   };
 }

@@ -13,6 +13,8 @@
 import type { Point, Unit } from '../../shared/schemas/common';
 import type { JawFace, Stop } from '../../shared/schemas/catalog';
 import { DISPLAY_DECIMALS, roundTo } from '../../shared/units/units';
+// Coordinates and angles are read with the one decimal grammar (shared/units/decimal.ts).
+import { isExponentForm, parseDecimal } from '../../shared/units/decimal';
 
 /**
  * Two decimals past the display precision, so a value written and read back stays within the
@@ -52,15 +54,6 @@ export function formatJawFaces(faces: readonly JawFace[], unit: Unit): string {
 
 export type Parsed<T> = { ok: true; value: T } | { ok: false; message: string };
 
-/** A plain decimal number as people type it: 8, -0.5, .375, 1e-3; no thousands separators. */
-const NUMBER = /^[+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?$/;
-
-export function parseDecimal(text: string): number | null {
-  const t = text.trim();
-  if (!NUMBER.test(t)) return null;
-  const v = Number(t);
-  return Number.isFinite(v) ? v : null;
-}
 
 /** Items of a list; a trailing or doubled ";" leaves an empty item, which is skipped. */
 const items = (text: string) => text.split(';').map((s) => s.trim()).filter((s) => s.length > 0);
@@ -75,7 +68,7 @@ function coordinates(text: string, what: string, example: string, count: readonl
   for (const p of parts) {
     const v = parseDecimal(p);
     if (v === null) {
-      const shown = p === '' ? 'a coordinate is missing' : `"${p}" is not a number`;
+      const shown = p === '' ? 'a coordinate is missing' : isExponentForm(p) ? `"${p}" is in exponent form (write it as a plain decimal, digits and one ".")` : `"${p}" is not a number`;
       return { ok: false, message: `${what} "${text}": ${shown} (the decimal point is "." and "," separates coordinates); write it like ${example}.` };
     }
     values.push(v);

@@ -3,7 +3,7 @@
  * Workbooks (through exceljs) and CSV files become the same grid, so one set of checks serves both.
  */
 import ExcelJS from 'exceljs';
-import { columnNumber } from '../../shared/naming/cell-address';
+import { columnNumber } from '../../shared/sheets/cell-address';
 
 export type CellValue =
   | { t: 'text'; text: string }

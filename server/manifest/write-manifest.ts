@@ -2,7 +2,7 @@ import ExcelJS from 'exceljs';
 import { COMPONENT_KINDS, type Component } from '../../shared/schemas/catalog';
 import type { Unit } from '../../shared/schemas/common';
 import type { Station } from '../../shared/schemas/template';
-import { columnLetter } from '../../shared/naming/cell-address';
+import { columnLetter } from '../../shared/sheets/cell-address';
 import {
   CLAMP_FIELDS,
   COMPONENT_COLUMNS,

@@ -12,7 +12,7 @@
  */
 import JSZip from 'jszip';
 import yauzl from 'yauzl';
-import { columnNumber } from '../../shared/naming/cell-address';
+import { columnNumber } from '../../shared/sheets/cell-address';
 import type { ManifestLimits } from './manifest-types';
 
 export interface GuardProblem {

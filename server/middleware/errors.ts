@@ -1,6 +1,6 @@
 import type { ErrorRequestHandler, RequestHandler } from 'express';
 import { ZodError } from 'zod';
-import { isOutOfRange, isUniqueViolation } from '../db/dialect';
+import { isForeignKeyViolation, isOutOfRange, isUniqueViolation } from '../db/dialect';
 
 /** The one error type routes and services throw; the handler below turns it into the error body. */
 export class HttpError extends Error {
@@ -47,7 +47,10 @@ export const apiNotFound: RequestHandler = (req) => {
  */
 const DB_DOWN = 'The database cannot be reached right now; nothing was saved. Try again in a moment, and tell whoever runs Gridset if it goes on.';
 const BUSY = 'The database is busy with other work; nothing was saved, so try again in a moment.';
+/** The code of a worker thread that stopped while reading an upload for no fault of the file (server/workers/pool.ts). */
+export const WORKER_STOPPED = 'WORKER_STOPPED';
 const UNAVAILABLE: Record<string, string> = {
+  [WORKER_STOPPED]: 'The server stopped reading the file because of a fault of its own; nothing was saved, so send it again, and tell whoever runs Gridset if it goes on.',
   ENOSPC: 'The server is out of disk space, so nothing was saved; tell whoever runs Gridset, then try again.',
   EDQUOT: 'The server is out of disk space, so nothing was saved; tell whoever runs Gridset, then try again.',
   SQLITE_FULL: 'The server is out of disk space, so nothing was saved; tell whoever runs Gridset, then try again.',
@@ -80,6 +83,8 @@ export function unavailableMessage(err: unknown): string | null {
 }
 
 export const UNIQUE_RACE_MESSAGE = 'Someone else saved the same code, name or version number at the same moment; reload the page and try again.';
+
+export const IN_USE_RACE_MESSAGE = 'Something this change depends on was changed or deleted at the same moment; reload the page and try again.';
 
 export function errorHandler(log: (err: unknown) => void = console.error): ErrorRequestHandler {
   return (err, _req, res, _next) => {
@@ -114,6 +119,10 @@ export function errorHandler(log: (err: unknown) => void = console.error): Error
     // the database's unique constraint. The first was saved; the second answers 409, saving nothing.
     if (isUniqueViolation(err)) {
       res.status(409).json({ error: { code: 'conflict', message: UNIQUE_RACE_MESSAGE, details: null } });
+      return;
+    }
+    if (isForeignKeyViolation(err)) {
+      res.status(409).json({ error: { code: 'conflict', message: IN_USE_RACE_MESSAGE, details: null } });
       return;
     }
     if (isOutOfRange(err)) {

@@ -30,7 +30,7 @@ export function catalogRoutes(catalog: CatalogService): RouteDef[] {
     } },
 
     { method: 'get', path: '/components', access: 'signed-in', handler: async (req, res) => {
-      res.json(await catalog.listComponents(parseOr400(ComponentListQuerySchema, req.query, 'query')));
+      res.type('application/json').send(await catalog.listComponentsJson(parseOr400(ComponentListQuerySchema, req.query, 'query')));
     } },
     { method: 'post', path: '/components', access: CAN.editCatalog, handler: async (req, res) => {
       res.status(201).json(await catalog.createComponent(currentUser(req).id, parseOr400(ComponentInputSchema, req.body, 'component')));

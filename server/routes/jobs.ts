@@ -6,7 +6,9 @@ import type { JobsService } from '../services/jobs';
 import type { LoadListService } from '../services/load-list';
 import { LoadListInputSchema } from '../../shared/schemas/load-list';
 import type { PartProgramsService } from '../services/part-programs';
-import { jobDrawingSvg, jobPackage, setupSheetHtml } from '../services/job-package';
+import { jobPackage } from '../services/job-package';
+import { jobDrawingSvg } from '../services/job-drawing';
+import { setupSheetHtml } from '../services/setup-sheet';
 import { parseOr400 } from './parse';
 import type { RouteDef } from './route-table';
 

@@ -1,4 +1,3 @@
-import { readFileSync } from 'node:fs';
 import { CAN } from '../../shared/schemas/auth';
 import { IdParamSchema, ROW_ID_MAX, TOO_LARGE_ID } from '../../shared/schemas/common';
 import { z } from 'zod';
@@ -14,7 +13,6 @@ const XLSX = 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet'
 export function manifestRoutes(deps: { manifest: ManifestService; templates: TemplatesService; dataDir: string; uploadLimitBytes: number }): RouteDef[] {
   const { manifest, templates } = deps;
   const upload = singleFileUpload(deps.dataDir, deps.uploadLimitBytes);
-  const withFile = <T>(file: Express.Multer.File | undefined, fn: (buf: Buffer) => Promise<T>) => usingUpload(file, (f) => fn(readFileSync(f.path)));
   return [
     { method: 'get', path: '/manifest.xlsx', access: 'signed-in', handler: async (_req, res) => {
       const xlsx = await manifest.exportCatalog();
@@ -27,10 +25,10 @@ export function manifestRoutes(deps: { manifest: ManifestService; templates: Tem
       res.type(XLSX).attachment(`manifest-${id}-v${n}.xlsx`).send(xlsx);
     } },
     { method: 'post', path: '/manifest/preview', access: CAN.editCatalog, before: upload, handler: async (req, res) => {
-      res.json(await withFile(req.file, (buf) => manifest.preview(buf)));
+      res.json(await usingUpload(req.file, (f) => manifest.preview(f.path)));
     } },
     { method: 'post', path: '/manifest/commit', access: CAN.editCatalog, before: upload, handler: async (req, res) => {
-      res.json(await withFile(req.file, (buf) => manifest.commit(currentUser(req), buf)));
+      res.json(await usingUpload(req.file, (f) => manifest.commit(currentUser(req), f.path)));
     } },
   ];
 }

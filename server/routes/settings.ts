@@ -9,13 +9,11 @@ import { BackupTooLarge, createBackup } from '../backup/archive';
 import type { FileStore } from '../storage/file-store';
 import type { RouteDef } from './route-table';
 
-export function settingsRoutes(settings: SettingsRepo, audit: AuditRepo, backup: { files: FileStore; databaseFile: string | undefined }): RouteDef[] {
+export function settingsRoutes(settings: SettingsRepo, audit: AuditRepo, backup: { files: FileStore; database: string }): RouteDef[] {
   return [
     // An admin takes the whole shop home: the database and the stored files, in one checked archive.
     { method: 'get', path: '/admin/backup', access: CAN.backups, handler: async (req, res) => {
-      // The archive copies a SQLite file; a PostgreSQL database has no file here to copy.
-      if (!backup.databaseFile) throw new HttpError(409, 'backup-postgres', `This Gridset keeps its data in PostgreSQL (DATABASE_URL): back the database up with pg_dump, and the stored files ${backup.files.kind === 's3' ? 'with the bucket\'s own versioning or replication (S3_URL)' : 'with your file backups of the data folder'}.`);
-      const { zip, manifest } = await createBackup(backup.files, backup.databaseFile).catch((e: unknown) => {
+      const { zip, manifest } = await createBackup(backup.files, backup.database).catch((e: unknown) => {
         throw e instanceof BackupTooLarge ? new HttpError(409, 'backup-too-large', e.message) : e;
       });
       await audit.audited(async () => manifest, (m) => ({ userId: currentUser(req).id, action: 'backup.download', objectType: 'backup', objectId: m.createdAt, summary: `Downloaded a backup: the database and ${m.files.length} stored files${m.storage?.kind === 's3' ? ' from object storage' : ''}` }));

@@ -140,6 +140,25 @@ export function accountLinksService(deps: Deps) {
     },
 
     /** Sets the password from a link; an invitation also activates the account. Ends the user's other links and sessions. */
+    /**
+     * The first admin of a new database, made from the command line on the server (no one can sign
+     * in yet to invite them): an invited admin and the link to choose a password, for the person at
+     * the console to open. Refused once any admin exists.
+     */
+    async firstAdmin(input: { email: string; name: string }): Promise<{ user: User; link: string }> {
+      if ((await users.countActiveAdmins()) > 0) throw conflict('This Gridset already has an admin; that admin invites everyone else from the Users page.');
+      const existing = await users.findWithHashByEmail(input.email);
+      if (existing && (existing.passwordHash !== null || existing.active)) throw conflict(`A user with the address ${input.email} already exists.`);
+      const made = await db.transaction(async (trx) => {
+        const user = existing
+          ? (await users.update(existing.id, { name: input.name, role: 'admin' }, trx))!
+          : await users.insert({ email: input.email, name: input.name, role: 'admin', passwordHash: null, active: false }, trx);
+        const { token } = await issue(user.id, 'invite', trx);
+        await audit.record({ userId: null, action: 'user.invite', objectType: 'user', objectId: user.id, summary: `Invited ${user.email} as the first admin (from the server's command line)`, after: { email: user.email, role: 'admin' } }, trx);
+        return { user, token };
+      });
+      return { user: made.user, link: linkFor(made.token) };
+    },
     async setPassword(input: SetPasswordInput): Promise<{ email: string }> {
       const tokenHash = hashLinkToken(input.token);
       // Checked before the slow password hash, so made-up tokens cost next to nothing.

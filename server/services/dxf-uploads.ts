@@ -5,6 +5,10 @@ import type { Unit } from '../../shared/schemas/common';
 import { OutlineSchema, type Outline } from '../../shared/schemas/geometry';
 import { LIMITS } from '../../shared/schemas/limits';
 import { convert } from '../../shared/units/units';
+import type { NamingRule } from '../../shared/schemas/naming';
+import { checkName } from '../../shared/naming/check-name';
+import { proposeName } from '../../shared/naming/propose-name';
+import { z } from 'zod';
 import { DxfError, inspectDxf, type DxfInspection } from '../dxf/read-dxf';
 import { HttpError, badRequest, validationError } from '../middleware/errors';
 import { originalDxfKey, type FileStore } from '../storage/file-store';
@@ -65,4 +69,37 @@ export function boundedJson(answer: unknown, fileBytes: number): string {
     throw badRequest(`The drawing's curves flatten to an answer of ${(text.length / 1024 / 1024).toFixed(1)} MB, more than ${LIMITS.answerMultiple} times the file (at least ${LIMITS.answerFloorBytes / 1024 / 1024} MB are allowed); simplify the curves or send only the outline.`, null, 'dxf-too-large');
   }
   return text;
+}
+
+/** Each layer of the file against the convention's layer rule, with a proposed conforming name where one is simple to find. */
+export function layerReport(rule: NamingRule, layers: { name: string; entities: number }[]) {
+  return layers.map((l) => {
+    const check = checkName(rule, l.name, 'layer');
+    return { ...l, ok: check.ok, problems: check.problems, proposed: check.ok ? l.name : proposeName(rule, l.name, 'layer') };
+  });
+}
+
+/**
+ * Applies the user's layer mapping (`layerMap`: JSON text, file layer → new name); every layer that
+ * ends up on the outline must pass the convention's layer rule.
+ */
+export function mapLayers(rule: NamingRule, outline: Outline, layerMap: string | undefined): Outline {
+  let map: Record<string, string> = {};
+  if (layerMap) {
+    try {
+      map = z.record(z.string(), z.string().min(1)).parse(JSON.parse(layerMap));
+    } catch {
+      throw new HttpError(400, 'invalid-input', 'layerMap must be a JSON object from each file layer to its new name, e.g. {"0":"FX-CR-8"}.');
+    }
+  }
+  const rename = (l?: string) => (l !== undefined && Object.hasOwn(map, l) ? map[l] : l);
+  const mapped: Outline = { paths: outline.paths.map((p) => ({ ...p, layer: rename(p.layer) })), circles: outline.circles.map((c) => ({ ...c, layer: rename(c.layer) })) };
+  const used = new Set([...mapped.paths.map((p) => p.layer), ...mapped.circles.map((c) => c.layer)].filter((l): l is string => !!l));
+  const bad = [...used].map((l) => ({ layer: l, check: checkName(rule, l, 'layer') })).filter((x) => !x.check.ok);
+  if (bad.length) {
+    throw new HttpError(400, 'naming', `Layer ${bad[0]!.layer} breaks the naming convention: ${bad[0]!.check.problems[0]!.message} Map it to a conforming name with layerMap.`, {
+      layers: bad.map((b) => ({ layer: b.layer, problems: b.check.problems, proposed: proposeName(rule, b.layer, 'layer') })),
+    });
+  }
+  return mapped;
 }

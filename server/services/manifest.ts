@@ -1,17 +1,19 @@
 import { createHash } from 'node:crypto';
+import { createReadStream } from 'node:fs';
 import type { User } from '../../shared/schemas/auth';
 import type { Component } from '../../shared/schemas/catalog';
 import type { Station } from '../../shared/schemas/template';
 import type { Unit } from '../../shared/schemas/common';
+import type { ManifestAnswer } from '../../shared/schemas/manifest';
 import { DRAWING_LAYERS } from '../../shared/interchange/drawing-layers';
 import type { Db } from '../db/knex';
 import type { CatalogRepo } from '../db/catalog-repo';
 import type { AuditRepo } from '../db/audit-repo';
 import { HttpError } from '../middleware/errors';
 import { catalogWorkbook } from '../manifest/write-manifest';
-import { readManifest, readManifestCsv } from '../manifest/read-manifest';
 import { planManifest, type ComponentChange } from '../manifest/plan-manifest';
 import type { ManifestRead } from '../manifest/manifest-types';
+import type { WorkerPool } from '../workers/pool';
 import type { NamingService } from './naming';
 
 /** The catalog's layers: every component layer, and the layers of a template drawing. */
@@ -22,21 +24,18 @@ function catalogLayers(components: readonly Component[]) {
   return [...[...byLayer].map(([name, codes]) => ({ name, holds: `outline of ${codes.join(', ')}`, color: 5 })), ...drawing];
 }
 
-const ZIP_SIGNATURE = Buffer.from([0x50, 0x4b, 0x03, 0x04]);
+/** SHA-256 of a file, read in chunks so a large upload never holds the event loop for long. */
+async function fileSha256(path: string): Promise<string> {
+  const hash = createHash('sha256');
+  for await (const chunk of createReadStream(path)) hash.update(chunk as Buffer);
+  return hash.digest('hex');
+}
 
-export function manifestService(deps: { db: Db; catalog: CatalogRepo; naming: NamingService; audit: AuditRepo }) {
-  const { db, catalog, naming, audit } = deps;
+export function manifestService(deps: { db: Db; catalog: CatalogRepo; naming: NamingService; audit: AuditRepo; workers: WorkerPool }) {
+  const { db, catalog, naming, audit, workers } = deps;
 
   async function allComponents(): Promise<Component[]> {
     return (await catalog.listComponents({ offset: 0 })).items;
-  }
-
-  /** An upload is a workbook when it is a zip (Office Open XML), else CSV text; judged by content, not name. */
-  async function read(buf: Buffer): Promise<ManifestRead> {
-    const convention = await naming.current();
-    if (buf.subarray(0, 4).equals(ZIP_SIGNATURE)) return readManifest(buf, { convention });
-    if (buf.includes(0)) throw new HttpError(400, 'manifest-not-xlsx', 'The file is neither an XLSX workbook nor CSV text; save it from your spreadsheet as .xlsx or .csv.');
-    return readManifestCsv(buf.toString('utf8'), { convention });
   }
 
   /**
@@ -45,18 +44,20 @@ export function manifestService(deps: { db: Db; catalog: CatalogRepo; naming: Na
    * the catalog as it is now.
    */
   const recentReads = new Map<string, { read: ManifestRead; at: number }>();
-  async function readOnce(buf: Buffer): Promise<ManifestRead> {
-    const key = `${createHash('sha256').update(buf).digest('hex')}:${(await naming.current()).version}`;
+  async function readOnce(path: string): Promise<ManifestRead> {
+    const convention = await naming.current();
+    const key = `${await fileSha256(path)}:${convention.version}`;
     const hit = recentReads.get(key);
     if (hit && Date.now() - hit.at < 10 * 60_000) return hit.read;
-    const r = await read(buf);
+    // Read on a worker thread (XLSX or CSV, judged by content: server/manifest/read-upload.ts).
+    const r = await workers.run('manifest-read', { path, convention });
     recentReads.set(key, { read: r, at: Date.now() });
     while (recentReads.size > 4) recentReads.delete(recentReads.keys().next().value!);
     return r;
   }
 
-  async function plan(buf: Buffer) {
-    const r = await readOnce(buf);
+  async function plan(path: string): Promise<{ plan: ReturnType<typeof planManifest>; answer: ManifestAnswer }> {
+    const r = await readOnce(path);
     const p = planManifest(await allComponents(), r);
     const errors = [...p.errors].map(({ sheet, row, column, message, code }) => ({ sheet, row, column, message, code }));
     const changes = p.changes.map(({ sheet, row, action, code, fields }) => ({ sheet, row, action, code, fields }));
@@ -68,10 +69,11 @@ export function manifestService(deps: { db: Db; catalog: CatalogRepo; naming: Na
       const components = await allComponents();
       return catalogWorkbook({ components, layers: catalogLayers(components), stations });
     },
-    preview: async (buf: Buffer) => (await plan(buf)).answer,
+    /** The uploaded file at `path` read and planned against the catalog; writes nothing. */
+    preview: async (path: string) => (await plan(path)).answer,
     /** The same plan, applied in one transaction; with any error nothing is written. */
-    async commit(user: User, buf: Buffer) {
-      const { plan: p, answer } = await plan(buf);
+    async commit(user: User, path: string) {
+      const { plan: p, answer } = await plan(path);
       if (answer.errors.length) {
         const first = answer.errors[0]!;
         throw new HttpError(400, 'manifest-errors', `The manifest was not imported: ${first.sheet ? `${first.sheet} ` : ''}${first.column ?? ''}${first.row ?? ''}${first.sheet || first.row ? ': ' : ''}${first.message}${answer.errors.length > 1 ? ` (and ${answer.errors.length - 1} more)` : ''}`, { errors: answer.errors, changes: answer.changes });

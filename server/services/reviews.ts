@@ -8,18 +8,17 @@ import type { Db } from '../db/knex';
 import { reviewsRepo } from '../db/reviews-repo';
 import type { UsersRepo } from '../db/users-repo';
 import { HttpError } from '../middleware/errors';
+import type { Mailer, OutgoingMail } from '../mail/mailer';
 import type { NamingService } from './naming';
 import type { TemplatesService } from './templates';
 
-export interface Mail { to: string; subject: string; text: string }
-export interface MailSender { send(mail: Mail): Promise<void> }
 
 interface Deps {
   db: Db;
   templates: TemplatesService;
   users: UsersRepo;
   naming: NamingService;
-  mailer?: MailSender;
+  mailer?: Mailer;
   publicUrl: string;
 }
 
@@ -52,7 +51,7 @@ export function reviewsService(deps: Deps) {
   async function notify(action: ReviewAction, v: TemplateVersion, actor: User, comment: string, authorId: number | null) {
     if (!mailer) return;
     const link = `${publicUrl}/templates/${v.templateId}/compare?to=${v.version}`;
-    const mails: Mail[] = [];
+    const mails: OutgoingMail[] = [];
     if (action === 'submit') {
       for (const r of (await users.list()).filter((u) => u.role === 'reviewer' && u.active && u.id !== actor.id)) {
         mails.push({ to: r.email, subject: `Review requested: ${v.name} v${v.version}`, text: `${actor.name} submitted ${v.name} version ${v.version} (${v.stations.length} stations) for review.\n\nCompare it with the version before: ${link}\n\nContent hash ${v.contentHash}` });

@@ -27,13 +27,17 @@ export function usersService(repo: UsersRepo, audit: AuditRepo, tokens?: UserTok
       const target = await repo.findById(id);
       if (!target) throw notFound(`User ${id}`);
       const losesAdmin = target.role === 'admin' && target.active && ((input.role && input.role !== 'admin') || input.active === false);
-      if (losesAdmin && (await repo.countActiveAdmins()) <= 1) {
-        throw conflict('This is the last active admin; make another user admin first.');
-      }
+      const lastAdmin = () => conflict('This is the last active admin; make another user admin first.');
+      if (losesAdmin && (await repo.countActiveAdmins()) <= 1) throw lastAdmin();
       if (actor.id === id && input.active === false) throw new HttpError(409, 'conflict', 'You cannot deactivate your own account.');
       // Links first: should the update then fail, the user only has to ask for a new link.
       if (input.active === false && tokens) await tokens.revokeUnused(id, new Date().toISOString());
-      const updated = await audit.audited((trx) => repo.update(id, input, trx), () => ({ userId: actor.id, action: 'user.update', objectType: 'user', objectId: id, summary: `Changed user ${target.email}: ${Object.keys(input).join(', ')}`, before: { role: target.role, active: target.active, name: target.name }, after: input }));
+      const updated = await audit.audited(async (trx) => {
+        // Counted again with the admins' rows locked, in the same transaction as the change, so two
+        // admins demoting each other at once cannot both succeed.
+        if (losesAdmin && (await repo.countActiveAdmins(trx)) <= 1) throw lastAdmin();
+        return repo.update(id, input, trx);
+      }, () => ({ userId: actor.id, action: 'user.update', objectType: 'user', objectId: id, summary: `Changed user ${target.email}: ${Object.keys(input).join(', ')}`, before: { role: target.role, active: target.active, name: target.name }, after: input }));
       return updated!;
     },
     async setDisplayUnit(id: number, displayUnit: User['displayUnit']): Promise<User> {

@@ -35,7 +35,7 @@ async function readAll(body: Readable, max: number, key: string): Promise<Buffer
 }
 
 /**
- * A bucket of S3-compatible object storage (AWS S3, MinIO, Ceph RGW, …) through the AWS SDK for
+ * A bucket of S3-compatible object storage (any service that speaks the S3 API) through the AWS SDK for
  * JavaScript v3. Path-style addresses (http://host:port/bucket/key) work with every such service on a
  * shop network, where bucket-name DNS entries rarely exist. Checksums are computed only when an
  * operation requires them: the SDK's default (CRC32 on every upload, sent as an aws-chunked body) is

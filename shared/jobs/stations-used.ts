@@ -1,7 +1,7 @@
 import type { ClampModel } from '../schemas/catalog';
 import type { Unit } from '../schemas/common';
 import type { Pairing, Station, TemplateComponent } from '../schemas/template';
-import { convert } from '../units/units';
+import { clampIn } from '../clamps/clamp-units';
 
 /** One jaw rail of a template as a job sees it: the width it holds, its clamp model (template unit) and its stations. */
 export interface JobRail {
@@ -13,12 +13,6 @@ export interface JobRail {
   clamp: ClampModel | null;
   /** Station ids this rail clamps. */
   stations: string[];
-}
-
-/** Clamp lengths from the jaw rail's unit into the template's; slopes are ratios and stay. */
-export function clampIn(clamp: ClampModel, from: Unit, to: Unit): ClampModel {
-  const l = (v: number) => convert(v, from, to);
-  return { ...clamp, acceptBelow: l(clamp.acceptBelow), acceptAbove: l(clamp.acceptAbove), topHeight: l(clamp.topHeight), gripLow: l(clamp.gripLow), gripHigh: l(clamp.gripHigh), slotSlop: l(clamp.slotSlop) };
 }
 
 /** The jaw rails of a template version, one per jaw placement (its first pairing's width), in pairing order. */

@@ -1,14 +1,13 @@
 import { describe, expect, it } from 'vitest';
+import { readBarTable, readLengthCell } from '../../app/features/stock-check/bar-cells';
 import {
-  columnLetter,
   detectSeparator,
   headerField,
   parseBarsPaste,
-  readBarTable,
-  readLengthCell,
-  splitLine,
+  pasteRecords,
   type PasteReading,
 } from '../../app/features/stock-check/parse-bars';
+import { columnLetter } from '../../shared/sheets/cell-address';
 
 // The wording of every refusal is the operator's only guide to the bad cell, so it is checked whole.
 
@@ -100,14 +99,28 @@ describe('parseBarsPaste: what a spreadsheet puts on the clipboard', () => {
     expect(problems(parseBarsPaste(' \n\t\n', 'in'))).toEqual(['nothing to read: paste rows of id, width, thickness and corner radius']);
   });
 
+  it('keeps a quoted cell with a line break in one row, as the spreadsheet shows it (RFC 4180 §2, rule 6)', () => {
+    // A spreadsheet puts a cell holding a line break in quotes on the clipboard; it is still one row of the sheet.
+    const text = 'id\twidth\tthickness\tcorner radius\tnotes\nB1\t1\t0.5\t0.02\t"two\nlines"\nB2\t1.01\t0.5\tx\t\n';
+    expect(problems(parseBarsPaste(text, 'in'))).toEqual(['row 3, column D (corner radius): "x" is not a number']);
+    const r = ok(parseBarsPaste(text.replace('\tx\t', '\t0\t'), 'in'));
+    expect(r.rows.map((x) => [x.row, x.bar.id])).toEqual([[2, 'B1'], [3, 'B2']]);
+  });
+
+  it('refuses a quote that never closes, naming the row it opens on', () => {
+    expect(problems(parseBarsPaste('B1\t1\t0.5\t0.02\n"B2\t1\t0.5\t0.02\nB3\t1\t0.5\t0.02\n', 'in'))).toEqual([
+      'row 2: a quote (") opens a cell that never closes — close it or remove it',
+    ]);
+  });
+
   it('treats a first row with any number in it as data, so a bad first bar is not mistaken for a header', () => {
     expect(problems(parseBarsPaste('B1\tx\t0.5\t0.02', 'in'))).toEqual(['row 1, column B (width): "x" is not a number']);
   });
 });
 
 describe('pieces of the parser', () => {
-  it('names spreadsheet columns A…Z, AA…', () => {
-    expect([0, 1, 25, 26, 27, 51, 52, 701, 702].map(columnLetter)).toEqual(['A', 'B', 'Z', 'AA', 'AB', 'AZ', 'BA', 'ZZ', 'AAA']);
+  it('names spreadsheet columns A…Z, AA… from a 0-based cell index', () => {
+    expect([0, 1, 25, 26, 27, 51, 52, 701, 702].map((i) => columnLetter(i + 1))).toEqual(['A', 'B', 'Z', 'AA', 'AB', 'AZ', 'BA', 'ZZ', 'AAA']);
   });
 
   it('prefers tabs, then semicolons, then commas', () => {
@@ -117,7 +130,7 @@ describe('pieces of the parser', () => {
   });
 
   it('splits on the separator and honours quotes, with "" for a quote', () => {
-    expect(splitLine('"a, ""b""", c ,', 'comma')).toEqual(['a, "b"', 'c', '']);
+    expect(pasteRecords('"a, ""b""", c ,', 'comma').records).toEqual([['a, "b"', 'c', '']]);
   });
 
   it('knows the usual header words', () => {

@@ -1,13 +1,13 @@
 import { describe, expect, it } from 'vitest';
 import type { Outline, OutlinePath } from '../../shared/schemas/geometry';
-import { flattenPath } from '../../shared/geometry/outline';
+import { parseString, toPolylines } from 'dxf';
 import { bulgeToSvgArc, circleData, pathData } from '../../app/lib/outline-svg';
 import {
   componentWith, defaultRoles, dowelCircles, dowelsFromCircles, formatDrawingCell, formatDrawingLength, formatDrawingSize, gridOffset, groupCircles, initialMapping,
   layerMapFor, localPoint, namingProblemsByFileLayer, outlineLayers, pathsByLayer, platesOfDiameter, previewView,
   progressText, stopsFromCircles, targetName, toScreen, unsupportedText, type PlateHole,
 } from '../../app/features/catalog/outline-preview';
-import type { InspectedCircle, InspectedLayer } from '../../app/features/catalog/dxf-inspection';
+import type { InspectedCircle, InspectedLayer } from '../../shared/schemas/dxf-inspection';
 import type { Component } from '../../shared/schemas/catalog';
 
 // The geometry of samples/jaw-rail-inch.dxf (scripts/make-samples.ts): a 12 × 1.5 in rail with
@@ -36,11 +36,23 @@ describe('bulge → SVG arc (DXF Reference LWPOLYLINE group 42; SVG 2 arc flags)
     const arc = bulgeToSvgArc({ x: 11.75, y: 0 }, { x: 12, y: 0.25 }, QUARTER)!;
     expect(arc.r).toBeCloseTo(0.25, 12);
     expect(arc).toMatchObject({ sweep: 1, largeArc: 0, x: 12, y: 0.25 });
-    // Independent check: shared/geometry/outline puts the chord points of the same corner on a
-    // circle of radius 0.25 about (11.75, 0.25), the corner's center by construction.
-    const pts = flattenPath({ closed: false, points: [{ x: 11.75, y: 0, bulge: QUARTER }, { x: 12, y: 0.25 }] }, 1e-5);
+    // Independent check by another reader: the `dxf` npm package (toPolylines, its LWPOLYLINE bulge
+    // arcs) puts the same corner, written as a DXF LWPOLYLINE (DXF Reference, group codes 10/20/42),
+    // on a circle of radius 0.25 about (11.75, 0.25), the corner's center by construction, and runs
+    // it counter-clockwise (positive bulge) from the start to the end point.
+    const lw = `0\nSECTION\n2\nENTITIES\n0\nLWPOLYLINE\n8\n0\n90\n2\n70\n0\n10\n11.75\n20\n0\n42\n${QUARTER}\n10\n12\n20\n0.25\n0\nENDSEC\n0\nEOF\n`;
+    const pts = toPolylines(parseString(lw)).polylines[0]!.vertices as [number, number][];
     expect(pts.length).toBeGreaterThan(3);
-    for (const p of pts) expect(Math.hypot(p.x - 11.75, p.y - 0.25)).toBeCloseTo(arc.r, 9);
+    expect(pts[0]).toEqual([11.75, 0]);
+    expect(pts.at(-1)).toEqual([12, 0.25]);
+    for (const [x, y] of pts) expect(Math.hypot(x - 11.75, y - 0.25)).toBeCloseTo(arc.r, 9);
+    const angles = pts.map(([x, y]) => Math.atan2(y - 0.25, x - 11.75));
+    for (let i = 1; i < angles.length; i++) expect(angles[i]!).toBeGreaterThan(angles[i - 1]!); // counter-clockwise: sweep 1
+    // and by hand: a bulge is tan(θ/4) (DXF Reference, group code 42), so θ = 4·atan(tan(π/8)) = 90°,
+    // r = (chord / 2) / sin(θ / 2) = (0.25·√2 / 2) / sin 45° = 0.25, and 90° < 180° is the small arc.
+    const theta = 4 * Math.atan(QUARTER);
+    expect(arc.r).toBeCloseTo((Math.hypot(0.25, 0.25) / 2) / Math.sin(theta / 2), 12);
+    expect(arc.largeArc).toBe(theta > Math.PI ? 1 : 0);
   });
 
   it('a negative bulge runs clockwise; |bulge| > 1 is more than a half circle; 1 is a half circle on the chord', () => {

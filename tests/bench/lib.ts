@@ -5,17 +5,20 @@ import type { Express } from 'express';
 import { mkdtempSync } from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
-import { createApp } from '../../server/app';
+import { createApp, type AppDeps } from '../../server/app';
 import { openDb, migrate, type Db } from '../../server/db/knex';
 import { seedDemoDataIfEmpty, DEMO_PASSWORD } from '../../server/db/seed-demo';
 
-export interface LoadResult { label: string; rps: number; p50: number; p99: number; bytesPerReq: number }
+export interface LoadResult { label: string; rps: number; p50: number; p99: number; max: number; bytesPerReq: number; timeouts: number }
 
-/** autocannon at a fixed number of connections; latencies in ms. */
-export async function load(label: string, url: string, headers: Record<string, string> = {}, seconds = 5, connections = 10): Promise<LoadResult> {
+/**
+ * autocannon at a fixed number of connections; latencies in ms. Any error or non-2xx answer throws,
+ * unless `timeoutsAllowed`: then requests that got no answer within autocannon's 10 s are counted.
+ */
+export async function load(label: string, url: string, headers: Record<string, string> = {}, seconds = 5, connections = 10, timeoutsAllowed = false): Promise<LoadResult> {
   const r = await autocannon({ url, connections, duration: seconds, headers });
-  if (r.non2xx > 0 || r.errors > 0) throw new Error(`${label}: ${r.non2xx} non-2xx answers and ${r.errors} errors`);
-  return { label, rps: r.requests.average, p50: r.latency.p50, p99: r.latency.p99, bytesPerReq: r.throughput.average / Math.max(1, r.requests.average) };
+  if (r.non2xx > 0 || r.errors > r.timeouts || (r.timeouts > 0 && !timeoutsAllowed)) throw new Error(`${label}: ${r.non2xx} non-2xx answers and ${r.errors} errors`);
+  return { label, rps: r.requests.average, p50: r.latency.p50, p99: r.latency.p99, max: r.latency.max, bytesPerReq: r.throughput.average / Math.max(1, r.requests.average), timeouts: r.timeouts };
 }
 
 export function listen(app: Express): Promise<{ server: Server; base: string }> {
@@ -24,13 +27,16 @@ export function listen(app: Express): Promise<{ server: Server; base: string }> 
   });
 }
 
-/** The real app over a fresh SQLite file with the demo shop; returns a signed-in cookie for the given role. */
-export async function realServer(role = 'operator'): Promise<{ db: Db; base: string; server: Server; headers: Record<string, string> }> {
+/**
+ * The real app over a fresh SQLite file with the demo shop; returns a signed-in cookie for the given
+ * role and its CSRF token (for POSTs). `deps` replaces parts of the app (e.g. its worker pool).
+ */
+export async function realServer(role = 'operator', deps: Partial<AppDeps> = {}): Promise<{ db: Db; base: string; server: Server; headers: Record<string, string>; token: string; close: () => Promise<void> }> {
   const dataDir = mkdtempSync(path.join(os.tmpdir(), 'gridset-bench-'));
   const db = openDb(path.join(dataDir, 'bench.sqlite'));
   await migrate(db);
   await seedDemoDataIfEmpty(db);
-  const app = createApp({ db, sessionSecret: 'bench', dataDir, log: () => {} });
+  const app = createApp({ db, sessionSecret: 'bench', dataDir, log: () => {}, ...deps });
   const { server, base } = await listen(app);
   const csrf = await fetch(`${base}/api/auth/csrf`);
   const cookie0 = csrf.headers.get('set-cookie')!.split(';')[0]!;
@@ -41,7 +47,13 @@ export async function realServer(role = 'operator'): Promise<{ db: Db; base: str
   });
   if (!login.ok) throw new Error(`bench sign-in failed: ${login.status}`);
   const cookie = login.headers.get('set-cookie')!.split(';')[0]!;
-  return { db, base, server, headers: { cookie } };
+  const { csrfToken } = (await login.json()) as { csrfToken: string };
+  const close = async () => {
+    await new Promise((resolve) => server.close(resolve));
+    await app.locals.close();
+    await db.destroy();
+  };
+  return { db, base, server, headers: { cookie }, token: csrfToken, close };
 }
 
 export function median(xs: number[]): number {
@@ -63,5 +75,5 @@ export async function timeMedian(n: number, fn: () => unknown | Promise<unknown>
 }
 
 export function printLoad(rows: LoadResult[]) {
-  console.table(rows.map((r) => ({ route: r.label, 'req/s': Math.round(r.rps), 'p50 ms': r.p50, 'p99 ms': r.p99, 'KB/req': +(r.bytesPerReq / 1024).toFixed(1) })));
+  console.table(rows.map((r) => ({ route: r.label, 'req/s': Math.round(r.rps), 'p50 ms': r.p50, 'p99 ms': r.p99, 'max ms': r.max, 'KB/req': +(r.bytesPerReq / 1024).toFixed(1), ...(r.timeouts ? { 'no answer in 10 s': r.timeouts } : {}) })));
 }

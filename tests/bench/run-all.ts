@@ -2,9 +2,11 @@ export {};
 // `npm run bench [name…]`: runs each benchmark in turn (never part of `npm test`).
 const BENCHES: Record<string, () => Promise<{ run: () => Promise<void> }>> = {
   'catalog-list': () => import('./catalog-list.bench'),
+  'read-path': () => import('./read-path.bench'),
   stations: () => import('./stations.bench'),
   'stock-check': () => import('./stock-check.bench'),
   dxf: () => import('./dxf.bench'),
+  'import-load': () => import('./import-load.bench'),
   manifest: () => import('./manifest.bench'),
   'job-package': () => import('./job-package.bench'),
   program: () => import('./program.bench'),

@@ -7,7 +7,7 @@ import JSZip from 'jszip';
 import { createBackup, restoreBackup } from '../../server/backup/archive';
 import { localFileStore } from '../../server/storage/local-store';
 import { openDb, migrate } from '../../server/db/knex';
-import { makeTestApp, ON_POSTGRES, SQLITE_ONLY, type Agent, type TestApp } from './test-app';
+import { createTestDatabase, makeTestApp, ON_POSTGRES, SQLITE_ONLY, type Agent, type TestApp } from './test-app';
 
 /**
  * Backup and restore against SQLite itself: the restored file passes PRAGMA integrity_check
@@ -89,5 +89,48 @@ describe.skipIf(ON_POSTGRES)(`backup and restore (${SQLITE_ONLY})`, () => {
     await restoreBackup(res.body as Buffer, target);
     expect(await t.db('audit').where({ action: 'backup.download' }).count({ n: '*' })).toEqual([{ n: 1 }]);
     expect((await programmer.get('/api/admin/backup')).status).toBe(403);
+  });
+});
+
+/**
+ * On PostgreSQL the archive carries pg_dump's custom format (PostgreSQL documentation, "pg_dump":
+ * a consistent snapshot even while others write), and pg_restore brings it back in one transaction.
+ * The restored database is compared row for row with the source, read through PostgreSQL itself.
+ */
+describe.skipIf(!ON_POSTGRES)('backup and restore on PostgreSQL (pg_dump and pg_restore)', () => {
+  // The download's own audit line is written after the dump was taken.
+  const byId = (db: typeof t.db, table: string) => db(table).select().orderBy(table === 'naming_conventions' ? 'version' : 'id')
+    .modify((q) => { if (table === 'audit') q.whereNot({ action: 'backup.download' }); });
+
+  it('an admin downloads a backup that restores, row for row, into an empty database; a full one is refused without --force', async () => {
+    const admin = await t.agent('admin');
+    await programmer.post('/api/templates', { name: 'Before the PostgreSQL backup', plateId: 1 }).expect(201);
+    const res = await admin.get('/api/admin/backup').buffer(true).parse((r, cb) => { const c: Buffer[] = []; r.on('data', (d: Buffer) => c.push(d)); r.on('end', () => cb(null, Buffer.concat(c))); }).expect(200);
+    const zip = res.body as Buffer;
+    const manifest = JSON.parse(await (await JSZip.loadAsync(zip)).file('manifest.json')!.async('string'));
+    expect(manifest.database.path).toBe('gridset.pgdump');
+    expect(manifest.schema).toMatch(/^\d{14}_/);
+    expect(manifest.files.map((f: { path: string }) => f.path)).toContain('outbox/marker.eml');
+
+    const empty = await createTestDatabase();
+    const restored = openDb(empty.url);
+    try {
+      const dir = tmp();
+      await restoreBackup(zip, dir, { databaseUrl: empty.url });
+      for (const table of TABLES) expect(await byId(restored, table), table).toEqual(await byId(t.db, table));
+      expect(readFileSync(path.join(dir, 'outbox', 'marker.eml'), 'utf8')).toContain('A mail the backup must keep.');
+      // The same database again: it holds Gridset's tables now.
+      await expect(restoreBackup(zip, tmp(), { databaseUrl: empty.url })).rejects.toThrow(/already holds a Gridset database/);
+      await expect(restoreBackup(zip, tmp(), { databaseUrl: empty.url, force: true })).resolves.toMatchObject({ format: 'gridset-backup' });
+      expect(await byId(restored, 'templates')).toEqual(await byId(t.db, 'templates'));
+      // A dump cannot go into a SQLite folder, and a changed dump is refused before pg_restore runs.
+      await expect(restoreBackup(zip, tmp())).rejects.toThrow(/set DATABASE_URL/);
+      const tampered = await JSZip.loadAsync(zip);
+      tampered.file('gridset.pgdump', Buffer.concat([await tampered.file('gridset.pgdump')!.async('nodebuffer'), Buffer.from('x')]));
+      await expect(restoreBackup(await tampered.generateAsync({ type: 'nodebuffer' }), tmp(), { databaseUrl: empty.url, force: true })).rejects.toThrow(/does not match its SHA-256/);
+    } finally {
+      await restored.destroy();
+      await empty.drop();
+    }
   });
 });

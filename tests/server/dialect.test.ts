@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { DEMO_CONVENTION } from '../../shared/naming/conventions';
-import { containsPattern, deleteSessionsOfUser, isoTime, isoTimeOrNull, isPostgres, isUniqueViolation, orderByText, paged, timeValue, toBool, toNumber, whereContains } from '../../server/db/dialect';
+import { containsPattern, deleteSessionsOfUser, isoTime, isoTimeOrNull, isForeignKeyViolation, isPostgres, isUniqueViolation, orderByText, paged, timeValue, toBool, toNumber, whereContains } from '../../server/db/dialect';
 import { DbRateLimitStore } from '../../server/db/rate-limit-store';
 import { makeTestApp, ON_POSTGRES, type TestApp } from './test-app';
 
@@ -142,6 +142,10 @@ describe(`dialect helpers on ${ON_POSTGRES ? 'PostgreSQL' : 'SQLite'}`, () => {
     expect(err).not.toBeNull();
     expect(isUniqueViolation(err)).toBe(true);
     expect(isUniqueViolation(new Error('other'))).toBe(false);
+    // A template on a plate that does not exist breaks templates.plate_id → plates.id.
+    const fk = await t.db('templates').insert({ name: 'No such plate', plate_id: 999_999 }).then(() => null, (e: unknown) => e);
+    expect(isForeignKeyViolation(fk)).toBe(true);
+    expect(isUniqueViolation(fk)).toBe(false);
   });
 
   it("deletes the stored sessions of one user and keeps everyone else's", async () => {
@@ -192,5 +196,18 @@ describe(`races for unique values on ${ON_POSTGRES ? 'PostgreSQL' : 'SQLite'} an
     const plates = await race(6, () => programmer.post('/api/plates', plate));
     expect(plates.filter((s) => s === 201)).toHaveLength(1);
     expect(toNumber((await t.db('plates').where({ code: 'GP-RACE' }).count({ n: '*' }))[0]!.n)).toBe(1);
+  });
+
+  it('two admins taken out of the admin role at once: one stays', async () => {
+    const admin = await t.agent('admin');
+    const me = (await admin.get('/api/auth/me').expect(200)).body.user.id as number;
+    const other = (await admin.post('/api/users', { email: 'second-admin@gridset.test', name: 'Second admin', role: 'admin', password: 'a long enough password 1' }).expect(201)).body;
+    const activeAdmins = async () => toNumber((await t.db('users').where({ role: 'admin', active: true }).count({ n: '*' }))[0]!.n);
+    const before = await activeAdmins();
+    const both = await Promise.all([admin.patch(`/api/users/${other.id}`, { role: 'lead' }), admin.patch(`/api/users/${me}`, { role: 'lead' })]);
+    for (const a of both) expect([200, 409], JSON.stringify(a.body)).toContain(a.status);
+    const demoted = both.filter((a) => a.status === 200).length;
+    expect(await activeAdmins()).toBe(before - demoted);
+    expect(await activeAdmins()).toBeGreaterThanOrEqual(1);
   });
 });

@@ -2,6 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { readFileSync, readdirSync } from 'node:fs';
 import path from 'node:path';
 import facts from '../fixtures/facts.json' with { type: 'json' };
+import { DxfInspectionSchema } from '../../shared/schemas/dxf-inspection';
 import { makeTestApp, tableCounts, type Agent, type TestApp } from './test-app';
 
 let t: TestApp;
@@ -29,6 +30,16 @@ describe('POST /api/dxf/inspect', () => {
     // PLATE-HOLES does not fit the demo convention's patterns (FX-…, PART-…, GRID-…), so it is flagged.
     expect(res.body.layers[0]).toMatchObject({ name: 'PLATE-HOLES', ok: false });
     expect(res.body.layers[0]).toHaveProperty('proposed');
+  });
+
+  it('answers in the shape of the shared response schema the client parses with, field for field', async () => {
+    for (const name of ['subplate-mm-blocks-r2018.dxf', ...readdirSync(path.join(__dirname, '..', 'fixtures', 'dxf')).filter((n) => n.endsWith('.dxf')).slice(0, 3)]) {
+      const res = await post('/api/dxf/inspect', fixture(name)).expect(200);
+      const parsed = DxfInspectionSchema.safeParse(res.body);
+      expect(parsed.success ? [] : parsed.error.issues, name).toEqual([]);
+      // Nothing the server sends is dropped by the schema, and nothing the schema wants is missing.
+      expect(parsed.data, name).toEqual(res.body);
+    }
   });
 
   it('answers a 400 naming the problem for files it cannot read, and stores nothing', async () => {

@@ -35,11 +35,17 @@ function expectedUsed(stations: Station[], pairings: Pairing[], width: number): 
   }).map((s) => s.number).sort((a, b) => a - b);
 }
 
+/** The seeded demo job's id, looked up by its name (server/db/seed-demo.ts) in each test that reads it. */
+async function demoJobId(): Promise<number> {
+  const list = (await operator.get('/api/jobs').expect(200)).body;
+  const demo = list.items.find((j: { name: string }) => j.name === 'Bracket BR-1001, night run');
+  expect(demo, 'the seeded demo job').toBeDefined();
+  return demo.id as number;
+}
+
 describe('the demo job uses only the stations its stock fits', () => {
-  let demoId: number;
   it('answers stationsUsed = the 1.000 in stations, runtime from them, and no job problem', async () => {
-    const list = (await operator.get('/api/jobs').expect(200)).body;
-    demoId = list.items.find((j: { name: string }) => j.name === 'Bracket BR-1001, night run').id;
+    const demoId = await demoJobId();
     const job = (await operator.get(`/api/jobs/${demoId}`).expect(200)).body;
     // 1.000 in stock: 1.000 − 0.030 = 0.970 ≤ 1.000 ≤ 1.030 accepts the 1.000 in stations; 1.500 − 0.035 = 1.465 > 1.000 refuses the 1.500 in ones.
     const widths = new Set(job.stationList.map((s: Station) => s.nominalWidth));
@@ -59,6 +65,7 @@ describe('the demo job uses only the stations its stock fits', () => {
   });
 
   it('writes only the used stations into the package: CSV (csv-parse), XLSX (exceljs), DXF (dxf), offsets and sheet', async () => {
+    const demoId = await demoJobId();
     const job = (await operator.get(`/api/jobs/${demoId}`).expect(200)).body;
     const zip = await zipOf(operator, `/api/jobs/${demoId}/package.zip`);
     const rows = parseCsv(await zip.file('stations.csv')!.async('string'), { columns: true }) as { station: string }[];

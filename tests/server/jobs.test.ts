@@ -23,11 +23,24 @@ const job = {
 const line = (x1: number, y1: number, x2: number, y2: number) => `0\nLINE\n8\nPART\n10\n${x1}\n20\n${y1}\n11\n${x2}\n21\n${y2}\n`;
 const partDxf = `0\nSECTION\n2\nENTITIES\n${line(10, 5, 12.5, 5)}${line(12.5, 5, 12.5, 5.9)}${line(12.5, 5.9, 10, 5.9)}${line(10, 5.9, 10, 5)}0\nENDSEC\n0\nEOF\n`;
 
+/** A new job on the demo template's released v1; each test makes its own, so none relies on another's. */
+async function newJob(over: Partial<typeof job> = {}): Promise<number> {
+  return (await programmer.post('/api/jobs', { ...job, ...over }).expect(201)).body.id as number;
+}
+
+/** Uploads the hand-written part outline to a job, in inches. */
+async function withOutline(id: number) {
+  return programmer.http.post(`/api/jobs/${id}/outline`).set('X-CSRF-Token', programmer.token).field('unit', 'in').attach('file', Buffer.from(partDxf), 'part.dxf').expect(200);
+}
+
+const bars = [
+  { id: 'B1', width: 1.0, thickness: 0.5, cornerRadius: 0.02 },
+  { id: 'B2', width: 1.2, thickness: 0.5, cornerRadius: 0.02 }, // d = 0.2 > 0.03 + 0.015 slop: cannot be used
+];
+
 describe('jobs', () => {
-  let id: number;
   it('pins a released version and answers runtime = stations × cycle + load (common practice)', async () => {
     const res = await programmer.post('/api/jobs', job).expect(201);
-    id = res.body.id;
     // 1.000 in stock is held at the 12 stations whose width held is 1.000 in (±0.030 in accept window), not at the
     // 8 holding 1.500 in (1.465–1.535 in): 12 used stations × 13 min + 10 min load = 166 min (common practice).
     expect(res.body).toMatchObject({ stations: 20, runtimeMinutes: 166, versionState: 'released', newerRelease: null, unit: 'in' });
@@ -49,6 +62,7 @@ describe('jobs', () => {
   });
 
   it('takes a part outline DXF with its datum at the lower-left corner, and refuses a file that is not DXF', async () => {
+    const id = await newJob();
     const uploadsBefore = readdirSync(path.join(t.dataDir, 'uploads', 'tmp'));
     const notDxf = await programmer.http.post(`/api/jobs/${id}/outline`).set('X-CSRF-Token', programmer.token).attach('file', Buffer.from('%PDF-1.7 not a drawing'), 'part.dxf');
     expect(notDxf.status).toBe(400);
@@ -56,7 +70,7 @@ describe('jobs', () => {
     const noUnit = await programmer.http.post(`/api/jobs/${id}/outline`).set('X-CSRF-Token', programmer.token).attach('file', Buffer.from(partDxf), 'part.dxf');
     expect(noUnit.status).toBe(400);
     expect(noUnit.body.error.message).toMatch(/unit=in or unit=mm/);
-    const ok = await programmer.http.post(`/api/jobs/${id}/outline`).set('X-CSRF-Token', programmer.token).field('unit', 'in').attach('file', Buffer.from(partDxf), 'part.dxf').expect(200);
+    const ok = await withOutline(id);
     expect(ok.body.hasPartOutline).toBe(true);
     const xs = ok.body.partOutline.paths.flatMap((p: { points: { x: number }[] }) => p.points.map((v) => v.x));
     expect(Math.min(...xs)).toBeCloseTo(0, 12);
@@ -67,13 +81,8 @@ describe('jobs', () => {
   });
 
   it('lets the operator check measured bars against the job’s jaw rail and keeps the result with the job', async () => {
-    const res = await operator.post(`/api/jobs/${id}/stock-check`, {
-      jawPlacement: 'A-JR',
-      bars: [
-        { id: 'B1', width: 1.0, thickness: 0.5, cornerRadius: 0.02 },
-        { id: 'B2', width: 1.2, thickness: 0.5, cornerRadius: 0.02 }, // d = 0.2 > 0.03 + 0.015 slop: cannot be used
-      ],
-    }).expect(200);
+    const id = await newJob();
+    const res = await operator.post(`/api/jobs/${id}/stock-check`, { jawPlacement: 'A-JR', bars }).expect(200);
     expect(res.body).toMatchObject({ jawPlacement: 'A-JR', nominalOpening: 1, unplaceable: ['B2'] });
     expect(res.body.appliesTo).toHaveLength(8);
     const detail = (await operator.get(`/api/jobs/${id}`)).body;
@@ -94,6 +103,9 @@ describe('jobs', () => {
   });
 
   it('downloads one package whose manifest lists every file with its SHA-256 and the pinned content hash', async () => {
+    const id = await newJob();
+    await withOutline(id);
+    await operator.post(`/api/jobs/${id}/stock-check`, { jawPlacement: 'A-JR', bars }).expect(200);
     const res = await operator.get(`/api/jobs/${id}/package.zip`).buffer(true).parse((r, cb) => { const c: Buffer[] = []; r.on('data', (d: Buffer) => c.push(d)); r.on('end', () => cb(null, Buffer.concat(c))); }).expect(200);
     const zip = await JSZip.loadAsync(res.body as Buffer);
     const manifest = JSON.parse(await zip.file('manifest.json')!.async('string'));
@@ -116,10 +128,31 @@ describe('jobs', () => {
     expect(sheet).toContain(template.contentHash);
   });
 
+  it('writes names typed by users into the setup sheet as text, never as markup', async () => {
+    // Escaping per the HTML standard's serialization of text and attribute values (WHATWG HTML,
+    // "Serializing HTML fragments": & → &amp;, < → &lt;, > → &gt;, and " in attribute values).
+    const named = (await programmer.post('/api/jobs', { ...job, name: 'Run <b>1</b> & "two"', partNumber: 'BR-<9>' }).expect(201)).body;
+    const sheet = (await operator.get(`/api/jobs/${named.id}/setup-sheet.html`).expect(200)).text;
+    expect(sheet.startsWith('<!doctype html>')).toBe(true);
+    expect(sheet).toContain('<title>Setup sheet — Run &lt;b&gt;1&lt;/b&gt; &amp; &quot;two&quot;</title>');
+    expect(sheet).toContain('Part <b>BR-&lt;9&gt;</b> rev B');
+    // Outside the station map (whose title is a CDATA section, SVG's own way to hold text), the name is never markup.
+    expect(sheet.replace(/<svg[\s\S]*<\/svg>/, '')).not.toContain('<b>1</b>');
+    expect(sheet).toMatch(/Check every clamp and its torque before cycle start/);
+  });
+
   it('says when a newer version of the template is released', async () => {
-    const v = (await programmer.post('/api/templates/1/versions', { from: 1 }).expect(201)).body;
-    const lead = await t.agent('lead');
-    await lead.post(`/api/templates/1/versions/${v.version}/release`, {}).expect(200);
-    expect((await operator.get(`/api/jobs/${id}`)).body).toMatchObject({ version: 1, newerRelease: v.version });
+    // Its own app: a newer release of the demo template would change what every other job here answers.
+    const own = await makeTestApp();
+    try {
+      const [p, o, lead] = await Promise.all([own.agent('programmer'), own.agent('operator'), own.agent('lead')]);
+      const id = (await p.post('/api/jobs', job).expect(201)).body.id as number;
+      expect((await o.get(`/api/jobs/${id}`)).body).toMatchObject({ version: 1, newerRelease: null });
+      const v = (await p.post('/api/templates/1/versions', { from: 1 }).expect(201)).body;
+      await lead.post(`/api/templates/1/versions/${v.version}/release`, {}).expect(200);
+      expect((await o.get(`/api/jobs/${id}`)).body).toMatchObject({ version: 1, newerRelease: v.version });
+    } finally {
+      await own.close();
+    }
   });
 });

@@ -1,4 +1,4 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { makeTestApp, tableCounts, type Agent, type TestApp } from './test-app';
 
 /**
@@ -14,7 +14,9 @@ type Setting = { shift: number; bars: string[]; targetOpening: number; room: num
 type Rail = { jawPlacement: string; nominalOpening: number; result: { settings: Setting[] } };
 let rails: Rail[];
 let used: number[];
-beforeAll(async () => {
+// A fresh demo shop per test: the tests edit the demo job's load list or check its bars again,
+// which changes what the next test would read.
+beforeEach(async () => {
   t = await makeTestApp();
   [operator, reviewer] = await Promise.all([t.agent('operator'), t.agent('reviewer')]);
   jobId = (await operator.get('/api/jobs')).body.items[0].id;
@@ -22,7 +24,7 @@ beforeAll(async () => {
   rails = job.stockChecks[0].rails;
   used = job.stationsUsed;
 });
-afterAll(async () => { await t.close(); });
+afterEach(async () => { await t.close(); });
 
 describe('the load list', () => {
   it('proposes one setting per rail and one fitting bar per station, each bar once', async () => {

@@ -1,8 +1,9 @@
 import { createHash } from 'node:crypto';
 import { existsSync, readdirSync, readFileSync } from 'node:fs';
-import { createServer, type AddressInfo, type Server } from 'node:net';
+import type { AddressInfo } from 'node:net';
 import path from 'node:path';
 import request from 'supertest';
+import { SMTPServer } from 'smtp-server';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createApp } from '../../server/app';
 import { DEMO_PASSWORD } from '../../server/db/seed-demo';
@@ -321,36 +322,25 @@ describe('no unexpected errors', () => {
 });
 
 describe('mailer over SMTP', () => {
-  /** A minimal SMTP receiver (RFC 5321 §3–4: greeting, EHLO, MAIL, RCPT, DATA, QUIT) that keeps what it is given. */
+  /**
+   * An SMTP receiver from the smtp-server package (an RFC 5321 server implementation), on a free
+   * loopback port, keeping each message as delivered with its envelope. No TLS and no login: the
+   * mailer is given `ignoreTLS` and no credentials, as for a relay on the shop's own network.
+   */
   function smtpReceiver() {
-    const received: string[] = [];
-    const server: Server = createServer((socket) => {
-      let inData = false;
-      let buffer = '';
-      socket.write('220 test.local ESMTP\r\n');
-      socket.on('data', (chunk) => {
-        buffer += chunk.toString('latin1');
-        for (;;) {
-          if (inData) {
-            const end = buffer.indexOf('\r\n.\r\n');
-            if (end < 0) return;
-            received.push(buffer.slice(0, end));
-            buffer = buffer.slice(end + 5);
-            inData = false;
-            socket.write('250 2.0.0 queued\r\n');
-            continue;
-          }
-          const eol = buffer.indexOf('\r\n');
-          if (eol < 0) return;
-          const line = buffer.slice(0, eol);
-          buffer = buffer.slice(eol + 2);
-          const verb = line.slice(0, 4).toUpperCase();
-          if (verb === 'EHLO' || verb === 'HELO') socket.write('250 test.local\r\n');
-          else if (verb === 'DATA') { inData = true; socket.write('354 go ahead\r\n'); }
-          else if (verb === 'QUIT') { socket.end('221 bye\r\n'); return; }
-          else socket.write('250 OK\r\n');
-        }
-      });
+    const received: { raw: string; from: string | false; to: string[] }[] = [];
+    const server = new SMTPServer({
+      authOptional: true,
+      disabledCommands: ['STARTTLS', 'AUTH'],
+      logger: false,
+      onData(stream, session, callback) {
+        const chunks: Buffer[] = [];
+        stream.on('data', (c: Buffer) => chunks.push(c));
+        stream.on('end', () => {
+          received.push({ raw: Buffer.concat(chunks).toString('latin1'), from: session.envelope.mailFrom && session.envelope.mailFrom.address, to: session.envelope.rcptTo.map((r) => r.address) });
+          callback();
+        });
+      },
     });
     return { server, received };
   }
@@ -359,13 +349,16 @@ describe('mailer over SMTP', () => {
     const { server, received } = smtpReceiver();
     await new Promise<void>((resolve) => server.listen(0, '127.0.0.1', resolve));
     try {
-      const port = (server.address() as AddressInfo).port;
+      const port = (server.server.address() as AddressInfo).port;
       const mailer = createMailer({ db: t.db, smtpUrl: `smtp://127.0.0.1:${port}?ignoreTLS=true`, from: 'Shop <shop@example.com>' });
       const filesBefore = readdirSync(path.join(t.dataDir, 'outbox')).length;
       const link = 'http://localhost:3000/set-password?token=secret-token-value';
       await mailer.send({ to: 'smtp.reader@example.com', subject: 'Over the wire', text: `Your link:\n${link}\nThanks.`, secrets: [link] });
       expect(received).toHaveLength(1);
-      const delivered = parseEml(received[0]!);
+      // The envelope (RFC 5321 §3.3, MAIL FROM and RCPT TO) names the sender and the one reader.
+      expect(received[0]!.from).toBe('shop@example.com');
+      expect(received[0]!.to).toEqual(['smtp.reader@example.com']);
+      const delivered = parseEml(received[0]!.raw);
       expect(delivered.headers.to).toBe('smtp.reader@example.com');
       expect(delivered.headers.from).toBe('Shop <shop@example.com>');
       expect(delivered.body).toContain(link);
@@ -373,7 +366,7 @@ describe('mailer over SMTP', () => {
       expect(kept).toMatchObject({ subject: 'Over the wire', text: 'Your link:\n[removed]\nThanks.', eml_file: null });
       expect(readdirSync(path.join(t.dataDir, 'outbox'))).toHaveLength(filesBefore);
     } finally {
-      await new Promise((resolve) => server.close(resolve));
+      await new Promise<void>((resolve) => server.close(() => resolve()));
     }
   });
 });

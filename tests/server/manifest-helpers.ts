@@ -3,7 +3,7 @@
 // workbook is checked by a second reader and the reader is fed files exceljs did not write.
 import JSZip from 'jszip';
 import type { Component } from '../../shared/schemas/catalog';
-import { columnLetter, columnNumber } from '../../shared/naming/cell-address';
+import { columnLetter, columnNumber } from '../../shared/sheets/cell-address';
 import { COMPONENT_COLUMNS } from '../../server/manifest/manifest-columns';
 
 const stamp = { outline: null, outlineFile: null, seatHeight: 0, jawTop: null, usedBy: 0, createdAt: '2024-01-01T00:00:00.000Z', updatedAt: '2024-01-01T00:00:00.000Z' };

@@ -385,6 +385,14 @@ describe('CSV of the Components sheet (csv-parse, RFC 4180)', () => {
     expect(r.errors.map((e) => `${e.sheet}!${e.column}${e.row} ${e.code}`)).toEqual(['Components!I4 not-a-number']);
   });
 
+  it('refuses a number in exponent form with its own hint: the one decimal grammar has none (shared/units/decimal.ts, RS274/NGC numbers)', () => {
+    const text = `${header}\nCR-8,center-rail,Rail,in,,"0,0",,,1E-05,0.03,0.16,0.5,0.04,0.16,0.5,0.015,\n`;
+    expect(only(readManifestCsv(text))).toEqual({
+      sheet: 'Components', row: 2, column: 'I', code: 'not-a-number',
+      message: 'I2 holds 1E-05 in exponent form, but acceptBelow must be a plain decimal; write it with digits and one ".", e.g. 0.0300.',
+    });
+  });
+
   it('takes ";" between fields when the header line has no ","', () => {
     const r = readManifestCsv(`${HEADERS.join(';')}\nCR-8;center-rail;Rail;in;FX-CR-8;"0,0; 8,0";;;;;;;;;;;\n`);
     expect(r.errors).toEqual([]);

@@ -1,5 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import ExcelJS from 'exceljs';
+import { ManifestAnswerSchema } from '../../shared/schemas/manifest';
 import { makeTestApp, tableCounts, type Agent, type TestApp } from './test-app';
 
 let t: TestApp;
@@ -37,6 +38,9 @@ describe('manifest routes', () => {
     wb.getWorksheet('Layers')!.addRow(['FX-CR-10', 'outline of CR-10', 5]);
     const edited = Buffer.from(await wb.xlsx.writeBuffer());
     const preview = (await upload('/api/manifest/preview', edited).expect(200)).body;
+    // The answer is what the shared schema the client parses with describes, field for field.
+    expect(ManifestAnswerSchema.parse(preview)).toEqual(preview);
+    expect(preview.counts).toEqual({ add: 1, change: 1, same: 8 });
     const byCode = Object.fromEntries(preview.changes.map((c: { code: string }) => [c.code, c]));
     expect(byCode['CR-8']).toMatchObject({ action: 'change', fields: ['name'] });
     expect(byCode['CR-10']).toMatchObject({ action: 'add' });
@@ -58,6 +62,7 @@ describe('manifest routes', () => {
     const before = await t.db('components').select('code', 'name').orderBy('id');
     const res = await upload('/api/manifest/commit', bad);
     expect(res.status).toBe(400);
+    expect(ManifestAnswerSchema.pick({ errors: true, changes: true }).parse(res.body.error.details)).toEqual(res.body.error.details);
     const err = res.body.error.details.errors.find((e: { row: number }) => e.row === 3);
     expect(err).toMatchObject({ sheet: 'Components', row: 3, column: 'A' });
     expect(await t.db('components').select('code', 'name').orderBy('id')).toEqual(before);

@@ -1,12 +1,13 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { DEMO_CONVENTION } from '../../shared/naming/conventions';
 import { makeTestApp, tableCounts, type Agent, type TestApp } from './test-app';
 
 let t: TestApp;
 let lead: Agent;
 let programmer: Agent;
-beforeAll(async () => { t = await makeTestApp(); [lead, programmer] = await Promise.all([t.agent('lead'), t.agent('programmer')]); });
-afterAll(async () => { await t.close(); });
+// A fresh demo shop per test: most tests here save a new convention version, which would change what the next one reads.
+beforeEach(async () => { t = await makeTestApp(); [lead, programmer] = await Promise.all([t.agent('lead'), t.agent('programmer')]); });
+afterEach(async () => { await t.close(); });
 
 const rail = { kind: 'center-rail', name: 'Rail', unit: 'in', dowels: [{ x: 0, y: 0 }, { x: 8, y: 0 }], stops: [], jawFaces: [] };
 

@@ -8,16 +8,19 @@ import { generatePartProgram } from '../bench/generate-program';
 let t: TestApp;
 let programmer: Agent;
 let operator: Agent;
-let id: number;
 beforeAll(async () => {
   t = await makeTestApp();
   [programmer, operator] = await Promise.all([t.agent('programmer'), t.agent('operator')]);
+});
+
+/** A new job on the demo template's released v1, with no part program: each test makes its own. */
+async function newJob(): Promise<number> {
   const res = await programmer.post('/api/jobs', {
     name: 'Program run', partNumber: 'BR-1001', partRevision: 'B', templateId: 1, version: 1,
     stock: { width: 1, thickness: 0.5, length: 2.75, material: '6061-T6' }, carrier: 0.25, clearance: 0.03, minBite: 0.06, cycleMinutes: 13, loadMinutes: 10,
   }).expect(201);
-  id = res.body.id;
-});
+  return res.body.id as number;
+}
 afterAll(async () => { await t.close(); });
 
 const part = [
@@ -27,25 +30,34 @@ const part = [
 ].join('\n');
 const tools = [{ t: 4, z: 1.2, d: 0.25 }, { t: 7, z: 2.1, d: 0.201 }];
 
-const upload = (agent: Agent, text: string, name = 'bracket.nc') =>
+const upload = (agent: Agent, id: number, text: string, name = 'bracket.nc') =>
   agent.http.post(`/api/jobs/${id}/part-program`).set('X-CSRF-Token', agent.token).attach('file', Buffer.from(text, 'latin1'), name);
+
+/** A new job with `text` (the bracket program above unless given) stored as its part program. */
+async function jobWithProgram(text = part, name = 'bracket.nc'): Promise<number> {
+  const id = await newJob();
+  await upload(programmer, id, text, name).expect(200);
+  return id;
+}
 
 describe('part program on a job', () => {
   it('refuses an unsupported construct with its line number and stores nothing', async () => {
+    const id = await newJob();
     const before = await tableCounts(t.db, ['job_part_programs', 'audit']);
-    const bad = await upload(programmer, part.replace('G1 Y0.9', 'G1 Y0.9\nG92 X0 Y0'));
+    const bad = await upload(programmer, id, part.replace('G1 Y0.9', 'G1 Y0.9\nG92 X0 Y0'));
     expect(bad.status).toBe(400);
     expect(bad.body.error.message).toMatch(/^Line 13: G92/);
     expect(bad.body.error.details).toEqual({ line: 13 });
-    const units = await upload(programmer, part.replace('G20 G17', 'G21 G17'));
+    const units = await upload(programmer, id, part.replace('G20 G17', 'G21 G17'));
     expect(units.status).toBe(400);
     expect(units.body.error.message).toMatch(/in inches|post the part program in in/);
     expect(await tableCounts(t.db, ['job_part_programs', 'audit'])).toEqual(before);
   });
 
   it('stores the program and answers what was read: tools in order, lines, extents, SHA-256; audited', async () => {
-    expect((await upload(operator, part)).status).toBe(403);
-    const res = await upload(programmer, part).expect(200);
+    const id = await newJob();
+    expect((await upload(operator, id, part)).status).toBe(403);
+    const res = await upload(programmer, id, part).expect(200);
     const p = res.body.partProgram;
     expect(p).toMatchObject({ name: 'bracket.nc', tools: [4, 7], lines: 25, unit: 'in', workOffset: 'G54', arcs: 1, holes: 2 });
     expect(p.sha256).toBe(createHash('sha256').update(part).digest('hex'));
@@ -59,6 +71,7 @@ describe('part program on a job', () => {
   });
 
   it('writes the whole-table program for every station; rs274 reads it without error', async () => {
+    const id = await jobWithProgram();
     const res = await operator.get(`/api/jobs/${id}/program.nc?order=tool&skip=3,7`).expect(200);
     const text = res.text;
     expect(res.headers['content-disposition']).toMatch(/attachment/);
@@ -83,6 +96,7 @@ describe('part program on a job', () => {
   });
 
   it('refuses a safe Z below the job\'s, an unknown station to skip, and bad query words', async () => {
+    const id = await jobWithProgram();
     const low = await operator.get(`/api/jobs/${id}/program.nc?safeZ=0.2`);
     expect(low.status).toBe(400);
     expect(low.body.error.message).toMatch(/below this job's lowest safe height/);
@@ -98,6 +112,7 @@ describe('part program on a job', () => {
   });
 
   it('puts the part program and the whole-table program in the job package', async () => {
+    const id = await jobWithProgram();
     const zipRes = await operator.get(`/api/jobs/${id}/package.zip`).buffer(true).parse((res, cb) => {
       const chunks: Buffer[] = [];
       res.on('data', (c: Buffer) => chunks.push(c));
@@ -113,8 +128,7 @@ describe('part program on a job', () => {
   });
 
   it('sends a long file whole, piece by piece: rs274 reads every station of a 4,000-line program', async () => {
-    const long = generatePartProgram(4000);
-    await upload(programmer, long, 'long.nc').expect(200);
+    const id = await jobWithProgram(generatePartProgram(4000), 'long.nc');
     const res = await operator.get(`/api/jobs/${id}/program.nc?order=station&skip=1`).expect(200);
     expect(res.headers['transfer-encoding']).toBe('chunked');
     const { canon, errors } = runRs274(res.text, [1, 2, 3, 4].map((t) => ({ t, z: 1 + t / 10, d: 0.25 })));
@@ -126,6 +140,7 @@ describe('part program on a job', () => {
   });
 
   it('writes the offset families, refusing what a family cannot write', async () => {
+    const id = await jobWithProgram();
     // G10 families need the shared offset's machine position (LinuxCNC "G10 L2" sets machine positions).
     const noBase = await operator.get(`/api/jobs/${id}/program.nc?family=ngc-g10`);
     expect(noBase.status).toBe(400);
@@ -135,7 +150,7 @@ describe('part program on a job', () => {
     const ok = await operator.get(`/api/jobs/${id}/program.nc?family=ngc-g10&base=-10,-5,-8&skip=9,10,11,12&order=tool`).expect(200);
     expect(ok.text).toMatch(/^G10 L2 P2 /m);
     expect(ok.text).toMatch(/^G55$/m);
-    expect(runRs274(ok.text, [1, 2, 3, 4].map((t) => ({ t, z: 1 + t / 10, d: 0.25 }))).errors).toEqual([]);
+    expect(runRs274(ok.text, tools).errors).toEqual([]); // the bracket program's tools, T4 and T7
   });
 
   it('answers 404 for a job with no part program', async () => {

@@ -81,9 +81,14 @@ describe('GET /api/templates/:id/diff', () => {
 
 describe('audit trail', () => {
   it('records who did what, filterable by user and object, for lead and admin only', async () => {
+    // Its own version, taken through every step here, so the trail does not rely on another test.
+    const n = await draftWithMovedRail();
+    await programmer.post(`/api/templates/1/versions/${n}/submit`).expect(200);
+    await reviewer.post(`/api/templates/1/versions/${n}/approve`, { comment: 'Checked.' }).expect(200);
+    await lead.post(`/api/templates/1/versions/${n}/retire`).expect(200);
     const all = (await admin.get('/api/audit').expect(200)).body;
     expect(all.total).toBeGreaterThan(0);
-    const mine = (await lead.get('/api/audit?object=template-version&objectId=1/2').expect(200)).body.items;
+    const mine = (await lead.get(`/api/audit?object=template-version&objectId=1/${n}`).expect(200)).body.items;
     expect(mine.map((e: { action: string }) => e.action)).toEqual(expect.arrayContaining(['version.new-draft', 'version.save', 'version.submit', 'version.approve', 'version.retire']));
     const approve = mine.find((e: { action: string }) => e.action === 'version.approve');
     expect(approve).toMatchObject({ userEmail: 'reviewer@gridset.test', before: { state: 'in-review' }, after: { state: 'released' } });

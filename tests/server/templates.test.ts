@@ -1,9 +1,8 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { createHash } from 'node:crypto';
 import { parse as parseCsv } from 'csv-parse/sync';
 import JSZip from 'jszip';
 import { parseLine } from 'gcode-parser';
-import { makeTestApp, tableCounts, type Agent, type TestApp } from './test-app';
+import { makeTestApp, tableCounts, withOwnApp, type Agent, type TestApp } from './test-app';
 
 let t: TestApp;
 let programmer: Agent;
@@ -46,12 +45,16 @@ const handWorked = {
 
 describe('templates and versions', () => {
   it('lists the demo templates: a released inch layout with 20 stations and a metric one', async () => {
-    const res = await operator.get('/api/templates').expect(200);
-    expect(res.body.items.map((x: { name: string }) => x.name)).toEqual(['Bracket 1 in bar, 20 up', 'Metric clip, 4 up']);
-    const st = await operator.get('/api/templates/1/versions/1/stations').expect(200);
-    expect(st.body.stations).toHaveLength(20);
-    expect(st.body.stations.filter((s: { c: number }) => s.c === 90)).toHaveLength(4); // the short rail turned 90°
-    expect((await operator.get('/api/templates/1')).body.versions).toEqual([expect.objectContaining({ number: 1, state: 'released' })]);
+    // The demo shop as seeded, on an app of its own: other tests here add templates and versions.
+    await withOwnApp(async (own) => {
+      const operator = await own.agent('operator');
+      const res = await operator.get('/api/templates').expect(200);
+      expect(res.body.items.map((x: { name: string }) => x.name)).toEqual(['Bracket 1 in bar, 20 up', 'Metric clip, 4 up']);
+      const st = await operator.get('/api/templates/1/versions/1/stations').expect(200);
+      expect(st.body.stations).toHaveLength(20);
+      expect(st.body.stations.filter((s: { c: number }) => s.c === 90)).toHaveLength(4); // the short rail turned 90°
+      expect((await operator.get('/api/templates/1')).body.versions).toEqual([expect.objectContaining({ number: 1, state: 'released' })]);
+    });
   });
 
   it('saves a draft and computes the hand-worked station translations', async () => {
@@ -238,21 +241,33 @@ describe('station files', () => {
 
 describe('template.json', () => {
   it('exports, re-imports as a new draft, and keeps the content hash (SHA-256 of the canonical JSON)', async () => {
-    const file = JSON.parse((await operator.get('/api/templates/1/versions/1/template.json').expect(200)).text);
-    expect(file).toMatchObject({ format: 'gridset-template', formatVersion: 1, unit: 'in', plate: { code: 'GP-IN-12x8', pitch: 2, columns: 12, rows: 8 } });
-    expect(file.stations).toHaveLength(20);
-    const imported = await programmer.post('/api/templates/import', file).expect(201);
-    expect(imported.body).toEqual({ id: expect.any(Number), version: 1 });
-    const v = (await operator.get(`/api/templates/${imported.body.id}/versions/1`)).body;
-    expect(v.state).toBe('draft');
-    expect(v.name).toBe('Bracket 1 in bar, 20 up (imported)');
-    expect(v.contentHash).toBe(file.contentHash);
-    expect(v.stations).toEqual(file.stations);
-    // Node's crypto over the canonical text gives the same hash as the server's (FIPS 180-4 SHA-256).
-    const { canonicalJson } = await import('../../shared/interchange/canonical-json');
-    const { layoutForHash } = await import('../../shared/interchange/template-file');
-    const { name, unit, plate, components, placements, sharedOffset, numbering } = file;
-    expect(createHash('sha256').update(canonicalJson(layoutForHash({ name, unit, plate, components, placements, sharedOffset, numbering }))).digest('hex')).toBe(file.contentHash);
+    // On an app of its own: the "(imported)" name is the first import's, which another test here may take.
+    await withOwnApp(async (own) => {
+      const [operator, programmer] = await Promise.all([own.agent('operator'), own.agent('programmer')]);
+      const file = JSON.parse((await operator.get('/api/templates/1/versions/1/template.json').expect(200)).text);
+      expect(file).toMatchObject({ format: 'gridset-template', formatVersion: 1, unit: 'in', plate: { code: 'GP-IN-12x8', pitch: 2, columns: 12, rows: 8 } });
+      expect(file.stations).toHaveLength(20);
+      expect(file.contentHash).toMatch(/^[0-9a-f]{64}$/); // SHA-256, FIPS 180-4: 256 bits as 64 hex digits
+      const imported = await programmer.post('/api/templates/import', file).expect(201);
+      expect(imported.body).toEqual({ id: expect.any(Number), version: 1 });
+      const v = (await operator.get(`/api/templates/${imported.body.id}/versions/1`)).body;
+      expect(v.state).toBe('draft');
+      expect(v.name).toBe('Bracket 1 in bar, 20 up (imported)');
+      expect(v.contentHash).toBe(file.contentHash);
+      expect(v.stations).toEqual(file.stations);
+      // Canonical form (tests/server/content-hash.test.ts checks the digest against FIPS 180-4): the same
+      // layout with every object's keys in reverse order imports with the same hash; one rail moved
+      // one hole imports with a different one.
+      const reverseKeys = (x: unknown): unknown =>
+        Array.isArray(x) ? x.map(reverseKeys) : x && typeof x === 'object' ? Object.fromEntries(Object.entries(x).reverse().map(([k, y]) => [k, reverseKeys(y)])) : x;
+      const reordered = await programmer.post('/api/templates/import', reverseKeys(file) as object).expect(201);
+      expect((await operator.get(`/api/templates/${reordered.body.id}/versions/1`)).body.contentHash).toBe(file.contentHash);
+      const movedFile = { ...file, placements: file.placements.map((p: { id: string; hole: { col: number; row: number } }) => (p.id === 'B-CR' || p.id === 'B-JR' ? { ...p, hole: { ...p.hole, col: p.hole.col + 1 } } : p)) };
+      delete movedFile.stations;
+      const moved = await programmer.post('/api/templates/import', movedFile);
+      expect(moved.status, JSON.stringify(moved.body)).toBe(201);
+      expect((await operator.get(`/api/templates/${moved.body.id}/versions/1`)).body.contentHash).not.toBe(file.contentHash);
+    });
   });
 
   it("carries each component's seat height, and reads a file written before it as seat 0", async () => {

@@ -9,14 +9,18 @@ import { openDb, migrate, type Db } from '../../server/db/knex';
 import { seedDemoDataIfEmpty, DEMO_PASSWORD } from '../../server/db/seed-demo';
 import { ROLES, type Role } from '../../shared/schemas/auth';
 import type { FileStore } from '../../server/storage/file-store';
+import type { WorkerPool } from '../../server/workers/pool';
 
 export interface TestApp {
   app: ReturnType<typeof createApp>;
   db: Db;
   dataDir: string;
   errors: unknown[];
-  /** A supertest agent (cookie jar) with a CSRF token, signed in as the demo user of that role when given. */
-  agent(role?: Role): Promise<Agent>;
+  /**
+   * A supertest agent (cookie jar) with a CSRF token, signed in as the demo user of that role when given;
+   * against `base` (a real server's address, e.g. http://127.0.0.1:PORT) when given, else the app in memory.
+   */
+  agent(role?: Role, base?: string): Promise<Agent>;
   close(): Promise<void>;
 }
 
@@ -68,18 +72,18 @@ export async function createTestDatabase(adminUrl = process.env.TEST_DATABASE_UR
 }
 
 /** A fresh database per call (a SQLite file, or a PostgreSQL database in the server-pg project), migrated and seeded with the demo shop. */
-export async function makeTestApp(opts: { seed?: boolean; uploadsPer15Minutes?: number; files?: FileStore } = {}): Promise<TestApp> {
+export async function makeTestApp(opts: { seed?: boolean; uploadsPer15Minutes?: number; files?: FileStore; workers?: WorkerPool } = {}): Promise<TestApp> {
   const dataDir = mkdtempSync(path.join(os.tmpdir(), 'gridset-test-'));
   const pg = ON_POSTGRES ? await createTestDatabase() : null;
   const db = openDb(pg ? pg.url : path.join(dataDir, 'test.sqlite'));
   await migrate(db);
   if (opts.seed !== false) await seedDemoDataIfEmpty(db);
   const errors: unknown[] = [];
-  const app = createApp({ db, sessionSecret: 'test-secret', dataDir, files: opts.files, log: (e) => errors.push(e), uploadsPer15Minutes: opts.uploadsPer15Minutes });
+  const app = createApp({ db, sessionSecret: 'test-secret', dataDir, files: opts.files, log: (e) => errors.push(e), uploadsPer15Minutes: opts.uploadsPer15Minutes, workers: opts.workers });
   return {
     app, db, dataDir, errors,
-    async agent(role) {
-      const http = request.agent(app);
+    async agent(role, base) {
+      const http = base ? request.agent(base) : request.agent(app);
       let token = (await http.get('/api/auth/csrf').expect(200)).body.token as string;
       if (role) {
         const res = await http.post('/api/auth/login').set('X-CSRF-Token', token).send({ email: `${role}@gridset.test`, password: DEMO_PASSWORD });
@@ -97,6 +101,7 @@ export async function makeTestApp(opts: { seed?: boolean; uploadsPer15Minutes?: 
       };
     },
     async close() {
+      await app.locals.close();
       await db.destroy();
       await pg?.drop();
       rmSync(dataDir, { recursive: true, force: true });
@@ -158,4 +163,17 @@ async function agentsForEveryRole(t: TestApp): Promise<Map<Role | 'none', Agent>
   agents.set('none', await t.agent());
   for (const role of ROLES) agents.set(role, await t.agent(role));
   return agents;
+}
+
+/**
+ * Runs `fn` on a test app of its own (fresh demo shop), closed afterwards: for a test whose
+ * assertions read the whole demo shop as seeded, which other tests in the same file add to.
+ */
+export async function withOwnApp<T>(fn: (t: TestApp) => Promise<T>): Promise<T> {
+  const t = await makeTestApp();
+  try {
+    return await fn(t);
+  } finally {
+    await t.close();
+  }
 }

@@ -3,7 +3,7 @@ import type { Point, Unit } from '../../../shared/schemas/common';
 import { ComponentSchema } from '../../../shared/schemas/catalog';
 import { uploadWithProgress } from '../../lib/api-client';
 import { catalogKeys } from './api';
-import { DxfInspectionSchema } from './dxf-inspection';
+import { DxfInspectionSchema } from '../../../shared/schemas/dxf-inspection';
 
 const noProgress = () => {};
 

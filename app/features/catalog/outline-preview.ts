@@ -6,7 +6,7 @@ import type { Outline } from '../../../shared/schemas/geometry';
 import { outlineBounds } from '../../../shared/geometry/outline';
 import { GRID_TOLERANCE, convert, formatLength, formatNumber } from '../../../shared/units/units';
 import { circleData, pathData } from '../../lib/outline-svg';
-import { NamingRefusalSchema, type InspectedCircle, type InspectedLayer } from './dxf-inspection';
+import { NamingRefusalSchema, type InspectedCircle, type InspectedLayer } from '../../../shared/schemas/dxf-inspection';
 
 /** An outline whose paths and circles carry their layer (what the DXF reader hands back). */
 export type LayeredOutline = Outline;

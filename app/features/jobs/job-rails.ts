@@ -3,7 +3,7 @@ import type { Unit } from '../../../shared/schemas/common';
 import type { JobDetail, JobStockCheck } from '../../../shared/schemas/job';
 import type { StockCheckRequest, StockCheckResponse } from '../../../shared/schemas/stock-check';
 import type { Pairing, TemplateComponent } from '../../../shared/schemas/template';
-import { clampIn } from '../../../shared/jobs/stations-used';
+import { clampIn } from '../../../shared/clamps/clamp-units';
 import { parseServerTime } from '../../lib/server-time';
 
 /** One jaw rail of the pinned template: the placements that hold a width, grouped as the server checks them. */

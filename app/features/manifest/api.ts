@@ -1,13 +1,6 @@
 import { useMutation } from '@tanstack/react-query';
-import { z } from 'zod';
+import { ManifestAnswerSchema } from '../../../shared/schemas/manifest';
 import { uploadWithProgress } from '../../lib/api-client';
-
-export const ManifestAnswerSchema = z.object({
-  changes: z.array(z.object({ sheet: z.string(), row: z.number(), action: z.enum(['add', 'change', 'same']), code: z.string(), fields: z.array(z.string()) })),
-  errors: z.array(z.object({ sheet: z.string().nullable(), row: z.number().nullable(), column: z.string().nullable(), message: z.string() })),
-  counts: z.record(z.string(), z.number()).optional(),
-});
-export type ManifestAnswer = z.infer<typeof ManifestAnswerSchema>;
 
 const send = (url: string, file: File, onProgress: (f: number) => void) => {
   const form = new FormData();

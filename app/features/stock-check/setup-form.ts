@@ -2,7 +2,7 @@ import { z } from 'zod';
 import type { Unit } from '../../../shared/schemas/common';
 import { StockCheckRequestSchema } from '../../../shared/schemas/stock-check';
 import { convert, formatNumber } from '../../../shared/units/units';
-import { parseDecimal } from './parse-bars';
+import { parseDecimal } from '../../../shared/units/decimal';
 
 /**
  * The setup form: the fields are text (so 1.0000 reads as typed and nothing jumps under a gloved

@@ -7,6 +7,7 @@ import type { TemplateSummary } from '../../../../shared/schemas/template-api';
 import { Button } from '../../../components/ui/button';
 import { SelectField, TextAreaField, TextField } from '../../../components/ui/field';
 import { ErrorText } from '../../../components/ui/notice';
+import { parseDecimal } from '../../../../shared/units/decimal';
 
 const ROTATION_OPTIONS = PART_ROTATIONS.map((r) => ({ value: String(r), label: r === 0 ? '0° (as drawn)' : `${r}° counter-clockwise` }));
 const released = (t: TemplateSummary) => t.versions.filter((v) => v.state === 'released');
@@ -57,7 +58,8 @@ export function JobForm({ templates, defaultValues, title, submitLabel, pending,
     ? versions.map((v) => ({ value: String(v.number), label: `v${v.number} · released · ${v.contentHash.slice(0, 8)}` })).reverse()
     : [{ value: '0', label: template ? 'No released version' : 'Choose a template first' }];
 
-  const num = (name: Parameters<typeof form.register>[0]) => form.register(name, { valueAsNumber: true });
+  // Typed numbers are read with the one decimal grammar (shared/units/decimal.ts); anything else is NaN, which the schema refuses.
+  const num = (name: Parameters<typeof form.register>[0]) => form.register(name, { setValueAs: (v: unknown) => (typeof v === 'number' ? v : parseDecimal(String(v ?? '')) ?? Number.NaN) });
   return (
     <form noValidate aria-label={title} className="flex flex-col gap-4 rounded border border-slate-300 bg-white p-4"
       onSubmit={form.handleSubmit((v) => onSubmit(v, form.setError))}>

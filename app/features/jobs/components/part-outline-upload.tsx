@@ -6,7 +6,7 @@ import { formatNumber } from '../../../../shared/units/units';
 import { Button } from '../../../components/ui/button';
 import { SelectField, TextField } from '../../../components/ui/field';
 import { ErrorText } from '../../../components/ui/notice';
-import { parseDecimal } from '../parse-decimal';
+import { parseDecimal } from '../../../../shared/units/decimal';
 import { jobFileUrl, useUploadPartOutline } from '../api';
 
 const kb = (bytes: number) => `${(bytes / 1024).toLocaleString('en-US', { maximumFractionDigits: 1 })} KB`;

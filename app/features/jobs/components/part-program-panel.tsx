@@ -10,7 +10,7 @@ import { formatLength, formatNumber } from '../../../../shared/units/units';
 import { Button } from '../../../components/ui/button';
 import { SelectField, TextField } from '../../../components/ui/field';
 import { ErrorText, Notice } from '../../../components/ui/notice';
-import { parseDecimal } from '../parse-decimal';
+import { parseDecimal } from '../../../../shared/units/decimal';
 import { partProgramTextQuery, tableProgramUrl, useLoadList, useUploadPartProgram } from '../api';
 
 const FAMILY_LABEL: Record<string, string> = { expanded: 'Every coordinate rewritten (one work offset)', ...FAMILY_NAMES };

@@ -3,7 +3,8 @@ import { Download, Upload } from 'lucide-react';
 import { Button } from '../../../components/ui/button';
 import { ErrorText, Notice } from '../../../components/ui/notice';
 import { ApiError } from '../../../lib/api-client';
-import { useCommitManifest, usePreviewManifest, type ManifestAnswer } from '../api';
+import type { ManifestAnswer } from '../../../../shared/schemas/manifest';
+import { useCommitManifest, usePreviewManifest } from '../api';
 
 const ACTION_WORDS = { add: 'will be added', change: 'will change', same: 'same as the catalog' } as const;
 

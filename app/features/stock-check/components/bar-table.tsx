@@ -3,7 +3,8 @@ import { Plus, Trash2 } from 'lucide-react';
 import type { Unit } from '../../../../shared/schemas/common';
 import { Button } from '../../../components/ui/button';
 import { inputClass } from '../../../components/ui/field';
-import { BAR_FIELDS, BAR_FIELD_LABEL, isBlankRow, type BarCells, type BarField, type PastedRow, type TableProblem } from '../parse-bars';
+import { BAR_FIELDS, BAR_FIELD_LABEL, isBlankRow, type BarCells, type BarField, type TableProblem } from '../bar-cells';
+import type { PastedRow } from '../parse-bars';
 
 export interface BarRow {
   /** Stable React key; never shown. */

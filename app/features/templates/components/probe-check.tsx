@@ -3,6 +3,7 @@ import type { Unit } from '../../../../shared/schemas/common';
 import type { Station } from '../../../../shared/schemas/template';
 import { checkProbedStation } from '../../../../shared/stations/work-offsets';
 import { convert, formatLength } from '../../../../shared/units/units';
+import { parseDecimal } from '../../../../shared/units/decimal';
 import { Button } from '../../../components/ui/button';
 import { inputClass } from '../../../components/ui/field';
 import { Notice } from '../../../components/ui/notice';
@@ -20,9 +21,10 @@ export function ProbeCheck({ stations, unit, displayUnit, tolerance }: { station
     if (!e.station && !e.x && !e.y) return null;
     const st = stations.find((s) => s.number === Number(e.station));
     if (!st) return { error: `There is no station ${e.station || '(blank)'}; enter a station number from the table.` };
-    const x = Number(e.x);
-    const y = Number(e.y);
-    if (e.x.trim() === '' || e.y.trim() === '' || !Number.isFinite(x) || !Number.isFinite(y)) return { error: 'Enter the probed X and Y as numbers.' };
+    // The one decimal grammar (shared/units/decimal.ts): what a control's DRO shows, no exponents.
+    const x = parseDecimal(e.x);
+    const y = parseDecimal(e.y);
+    if (x === null || y === null) return { error: 'Enter the probed X and Y as numbers.' };
     const computed = { x: convert(st.x, unit, displayUnit), y: convert(st.y, unit, displayUnit) };
     return { check: checkProbedStation(computed, { x, y }, displayUnit, tolerance) };
   });

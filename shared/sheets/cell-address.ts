@@ -1,6 +1,8 @@
 /**
  * Spreadsheet column letters and A1 cell addresses, as SpreadsheetML writes them (ECMA-376 Part 1,
- * §18.17.2.3.1, A1-style cell references): columns A–Z, then AA–ZZ, then AAA…, rows from 1.
+ * §18.3.1.4, the c element's r attribute, and §18.17.2.3.1, A1-style cell references): columns
+ * A–Z, then AA–ZZ, then AAA…, rows from 1. Columns are numbered from 1 here, as the sheet shows them;
+ * a caller holding a 0-based array index adds 1.
  * Letters are read regardless of case. A sheet runs from A1 to XFD1048576 (ECMA-376 Part 1,
  * §18.17, limits), so anything outside is refused rather than written into a file no reader opens.
  */
@@ -46,4 +48,13 @@ export function cellAddress(col: number, row: number): string {
     throw new RangeError(`A row number must be a whole number from 1 to ${MAX_ROW}; got ${row}.`);
   }
   return `${columnLetter(col)}${row}`;
+}
+
+/** "B7" → { col: 2, row: 7 }: letters then a row number, no "$" and no spaces; letters in either case. */
+export function parseCellAddress(address: string): { col: number; row: number } {
+  const m = /^([A-Za-z]{1,3})([1-9]\d{0,6})$/.exec(address);
+  if (!m) throw new RangeError(`A cell address is column letters then a row number, e.g. B7; got "${address.slice(0, 20)}".`);
+  const row = Number(m[2]);
+  if (row > MAX_ROW) throw new RangeError(`Row ${row} is past ${MAX_ROW}, the last row of a sheet.`);
+  return { col: columnNumber(m[1]!), row };
 }
