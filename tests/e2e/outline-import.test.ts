@@ -84,6 +84,9 @@ describe('outline from a drawing, in a real browser', () => {
     expect(new Set([...after.outline!.paths, ...after.outline!.circles].map((x) => x.layer))).toEqual(new Set(['FX-JR-1000']));
     // The stored outline and its file are on the page.
     await expect.poll(() => page.getByTestId('outline-file').textContent()).toContain(sha256);
+    // The file as uploaded comes back from the file store, byte for byte (SHA-256, FIPS 180-4, by node:crypto).
+    const [download] = await Promise.all([page.waitForEvent('download'), page.getByRole('link', { name: 'Download the file' }).click()]);
+    expect(createHash('sha256').update(readFileSync((await download.path())!)).digest('hex')).toBe(sha256);
 
     // The outline route leaves the dowels alone (the seed has them 8.000 apart) until asked.
     expect(after.dowels).toEqual([{ x: 0, y: 0 }, { x: 8, y: 0 }]);

@@ -16,6 +16,8 @@ export const catalogKeys = {
 export const platesQuery = () => queryOptions({ queryKey: catalogKeys.plates(), queryFn: () => api.get('/api/plates', PlateListSchema) });
 export const plateQuery = (id: number) => queryOptions({ queryKey: catalogKeys.plate(id), queryFn: () => api.get(`/api/plates/${id}`, PlateSchema) });
 export const componentsQuery = () => queryOptions({ queryKey: catalogKeys.components(), queryFn: () => api.get('/api/components', ComponentListSchema) });
+/** The DXF file a component's outline was read from, as it was uploaded (a download). */
+export const componentOutlineFileUrl = (id: number) => `/api/components/${id}/outline-file.dxf`;
 export const componentQuery = (id: number) => queryOptions({ queryKey: catalogKeys.component(id), queryFn: () => api.get(`/api/components/${id}`, ComponentSchema) });
 
 export const usePlates = () => useQuery(platesQuery());

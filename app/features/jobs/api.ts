@@ -100,7 +100,7 @@ export function useJobStockCheck(id: number) {
   });
 }
 
-export const jobFileUrl = (id: number, file: 'package.zip' | 'setup-sheet.html' | 'drawing.svg') => `/api/jobs/${id}/${file}`;
+export const jobFileUrl = (id: number, file: 'package.zip' | 'setup-sheet.html' | 'drawing.svg' | 'part-file.dxf') => `/api/jobs/${id}/${file}`;
 
 /** The load list of the job's next cycle; under the job's key, so a new stock check (which invalidates the job) refreshes it. */
 export const loadListQuery = (id: number) => queryOptions({ queryKey: [...jobKeys.detail(id), 'load-list'] as const, queryFn: () => api.get(`/api/jobs/${id}/load-list`, LoadListSchema), retry: false });

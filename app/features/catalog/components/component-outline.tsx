@@ -1,5 +1,6 @@
 import { useMemo } from 'react';
 import type { Component } from '../../../../shared/schemas/catalog';
+import { componentOutlineFileUrl } from '../api';
 import { dowelCircles } from '../outline-preview';
 import { OutlineDrawing, type CircleMark } from './outline-drawing';
 
@@ -22,7 +23,8 @@ export function ComponentOutline({ component }: { component: Component }) {
           {outlineFile ? (
             <dl className="grid w-fit grid-cols-[auto_1fr] gap-x-4 gap-y-1 text-sm" data-testid="outline-file">
               <dt className="font-semibold text-slate-700">Read from</dt>
-              <dd>{outlineFile.name} <span className="text-slate-600">({(outlineFile.size / 1024).toFixed(1)} KiB, drawn in {outlineFile.unit})</span></dd>
+              <dd>{outlineFile.name} <span className="text-slate-600">({(outlineFile.size / 1024).toFixed(1)} KiB, drawn in {outlineFile.unit})</span>{' '}
+                <a href={componentOutlineFileUrl(component.id)} download className="font-semibold text-accent-700 underline">Download the file</a></dd>
               <dt className="font-semibold text-slate-700">SHA-256</dt>
               <dd className="break-all font-mono">{outlineFile.sha256}</dd>
             </dl>

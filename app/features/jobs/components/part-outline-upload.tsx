@@ -7,7 +7,7 @@ import { Button } from '../../../components/ui/button';
 import { SelectField, TextField } from '../../../components/ui/field';
 import { ErrorText } from '../../../components/ui/notice';
 import { parseDecimal } from '../../../../shared/units/decimal';
-import { useUploadPartOutline } from '../api';
+import { jobFileUrl, useUploadPartOutline } from '../api';
 
 const kb = (bytes: number) => `${(bytes / 1024).toLocaleString('en-US', { maximumFractionDigits: 1 })} KB`;
 
@@ -67,7 +67,8 @@ export function PartOutlineUpload({ job }: { job: JobDetail }) {
       <h2 id="part-upload-title" className="text-lg font-semibold">Part outline</h2>
       {job.partFile ? (
         <p className="text-slate-800">Now: <span className="font-mono">{job.partFile.name}</span> ({kb(job.partFile.size)}, drawn in {job.partFile.unit}), datum at{' '}
-          <span className="num">({formatNumber(job.partFile.datum.x, job.partFile.unit)}, {formatNumber(job.partFile.datum.y, job.partFile.unit)}) {job.partFile.unit}</span> of the drawing.</p>
+          <span className="num">({formatNumber(job.partFile.datum.x, job.partFile.unit)}, {formatNumber(job.partFile.datum.y, job.partFile.unit)}) {job.partFile.unit}</span> of the drawing.{' '}
+          <a href={jobFileUrl(job.id, 'part-file.dxf')} download className="font-semibold text-accent-700 underline">Download the file</a></p>
       ) : <p className="text-slate-800">No outline yet: the drawing shows the template alone.</p>}
       <div className="flex flex-col gap-1">
         <label htmlFor={fileId} className="text-sm font-semibold text-slate-700">DXF file of the part</label>
