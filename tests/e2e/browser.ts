@@ -66,3 +66,13 @@ export async function startE2E(options: { host?: string } = {}): Promise<E2E> {
     },
   };
 }
+
+/**
+ * The status the API answers a write sent with the page's own session (its cookies) and the CSRF
+ * token that session is given: what the server does for that user, apart from what the screen shows.
+ */
+export async function apiStatus(page: Page, baseUrl: string, method: 'post' | 'put' | 'delete', url: string, data: object = {}): Promise<number> {
+  const token = (await (await page.request.get(`${baseUrl}/api/auth/csrf`)).json()).token as string;
+  const res = await page.request.fetch(`${baseUrl}${url}`, { method: method.toUpperCase(), data, headers: { 'X-CSRF-Token': token } });
+  return res.status();
+}

@@ -1,5 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { startE2E, type E2E } from './browser';
+import type { Page } from 'playwright-core';
+import { apiStatus, startE2E, type E2E } from './browser';
 
 let e2e: E2E;
 beforeAll(async () => { e2e = await startE2E(); });
@@ -37,19 +38,48 @@ describe('catalog in a real browser', () => {
     await page.close();
   });
 
-  it('an operator finds no edit control', async () => {
-    const page = await e2e.newPage();
-    await e2e.signIn(page, 'operator');
+  // The edit controls, found by role and accessible name. Each selector is first shown to find its
+  // control for a lead (so renaming a control fails here rather than passing the operator's check),
+  // then to find nothing for an operator, whose writes the API refuses as well (403).
+  const addComponent = (page: Page) => page.getByRole('link', { name: 'Add component' });
+  const componentEdits = (page: Page) => page.getByRole('button', { name: /Save|Delete|Add/ });
+  const addPlate = (page: Page) => page.getByRole('link', { name: 'Add plate' });
+
+  async function catalogControls(page: Page) {
     await page.goto(`${e2e.baseUrl}/catalog/components`);
     await page.getByRole('row', { name: /CR-8/ }).waitFor();
-    expect(await page.getByRole('link', { name: 'Add component' }).count()).toBe(0);
+    const add = await addComponent(page).count();
     await page.getByRole('link', { name: 'CR-8', exact: true }).click();
     await page.getByRole('heading', { name: 'Component CR-8' }).waitFor();
-    expect(await page.getByRole('button', { name: /Save|Delete|Add/ }).count()).toBe(0);
-    expect(await page.getByLabel('Code').isDisabled()).toBe(true);
+    const edits = await componentEdits(page).count();
+    const codeDisabled = await page.getByLabel('Code').isDisabled();
     await page.goto(`${e2e.baseUrl}/catalog/plates`);
     await page.getByRole('row', { name: /GP-IN-12x8/ }).waitFor();
-    expect(await page.getByRole('link', { name: 'Add plate' }).count()).toBe(0);
+    return { add, edits, codeDisabled, addPlate: await addPlate(page).count() };
+  }
+
+  it('a lead finds the edit controls the operator must not: the same selectors find them', async () => {
+    const page = await e2e.newPage();
+    await e2e.signIn(page, 'lead');
+    const c = await catalogControls(page);
+    expect(c.add).toBe(1);
+    expect(c.edits).toBeGreaterThan(0);
+    expect(c.codeDisabled).toBe(false);
+    expect(c.addPlate).toBe(1);
+    await page.close();
+  });
+
+  it('an operator finds no edit control, and the API refuses the writes they would send', async () => {
+    const page = await e2e.newPage();
+    await e2e.signIn(page, 'operator');
+    const c = await catalogControls(page);
+    expect(c).toEqual({ add: 0, edits: 0, codeDisabled: true, addPlate: 0 });
+    // README Roles: "catalog: create and edit" and "catalog: delete" are not the operator's.
+    const cr8 = (await (await page.request.get(`${e2e.baseUrl}/api/components`)).json()).items.find((x: { code: string }) => x.code === 'CR-8');
+    expect(await apiStatus(page, e2e.baseUrl, 'post', '/api/components', { code: 'X-1' })).toBe(403);
+    expect(await apiStatus(page, e2e.baseUrl, 'put', `/api/components/${cr8.id}`, {})).toBe(403);
+    expect(await apiStatus(page, e2e.baseUrl, 'delete', `/api/components/${cr8.id}`)).toBe(403);
+    expect(await apiStatus(page, e2e.baseUrl, 'post', '/api/plates', { code: 'X-1' })).toBe(403);
     await page.close();
   });
 });

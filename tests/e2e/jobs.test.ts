@@ -1,7 +1,8 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import JSZip from 'jszip';
 import { STOCK_CHECK_ADVICE } from '../../shared/clamps/reason-text';
-import { startE2E, type E2E } from './browser';
+import type { Page } from 'playwright-core';
+import { apiStatus, startE2E, type E2E } from './browser';
 
 let e2e: E2E;
 beforeAll(async () => { e2e = await startE2E(); });
@@ -190,6 +191,38 @@ describe('jobs in a real browser', () => {
     expect(await page.getByRole('link', { name: `Compare v1 with v${n}` }).getAttribute('href')).toBe(`/templates/1/compare?from=1&to=${n}`);
     // Still pinned: the runtime and the stations are version 1's (12 used × 13 min + 10 min).
     expect(await page.getByTestId('runtime-minutes').textContent()).toBe('166 min');
+    await page.close();
+  });
+
+  it('a programmer finds the job controls an operator must not, by the same role and name; the operator finds none and the API refuses', async () => {
+    // Paired check: each selector finds its control for a programmer first, so a renamed control fails
+    // here instead of letting the operator's "finds none" pass. README Roles: "jobs: create and edit"
+    // is a lead's or programmer's; an operator records bars and edits load lists only.
+    const jobControls = (page: Page) => ({
+      edit: page.getByRole('button', { name: 'Edit job' }),
+      upload: page.getByRole('button', { name: /^(Upload|Replace) the outline$/ }),
+      outlineForm: page.getByRole('form', { name: 'Part outline' }),
+    });
+    const page = await e2e.newPage();
+    const demo = await e2e.db('jobs').where({ name: 'Bracket BR-1001, night run' }).first();
+    const countsAs = async (role: 'programmer' | 'operator') => {
+      await e2e.signIn(page, role);
+      await page.goto(`${e2e.baseUrl}/jobs`);
+      await page.getByRole('link', { name: 'Bracket BR-1001, night run' }).waitFor();
+      const create = await page.getByRole('button', { name: 'Create job' }).count();
+      await page.goto(`${e2e.baseUrl}/jobs/${demo.id}`);
+      await page.getByRole('heading', { name: 'Bracket BR-1001, night run', level: 1 }).waitFor();
+      await page.getByRole('region', { name: /^Jaw rails/ }).waitFor();
+      const c = jobControls(page);
+      return { create, edit: await c.edit.count(), upload: await c.upload.count(), outlineForm: await c.outlineForm.count() };
+    };
+    expect(await countsAs('programmer')).toEqual({ create: 1, edit: 1, upload: 1, outlineForm: 1 });
+    expect(await countsAs('operator')).toEqual({ create: 0, edit: 0, upload: 0, outlineForm: 0 });
+    const before = await e2e.db('jobs').count({ n: '*' });
+    expect(await apiStatus(page, e2e.baseUrl, 'post', '/api/jobs', { name: 'Not mine' })).toBe(403);
+    expect(await apiStatus(page, e2e.baseUrl, 'put', `/api/jobs/${demo.id}`, { name: 'Not mine' })).toBe(403);
+    expect(await apiStatus(page, e2e.baseUrl, 'post', `/api/jobs/${demo.id}/outline`)).toBe(403);
+    expect(await e2e.db('jobs').count({ n: '*' })).toEqual(before);
     await page.close();
   });
 });

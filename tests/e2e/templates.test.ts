@@ -1,5 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { startE2E, type E2E } from './browser';
+import type { Page } from 'playwright-core';
+import { apiStatus, startE2E, type E2E } from './browser';
 
 let e2e: E2E;
 beforeAll(async () => { e2e = await startE2E(); });
@@ -38,6 +39,41 @@ describe('template editor in a real browser', () => {
     await page.goto(`${e2e.baseUrl}/templates/1/versions/1`);
     await page.getByRole('row', { name: /^20 / }).waitFor();
     expect(await page.getByRole('button', { name: /Save draft|New draft|Release|Add placement/ }).count()).toBe(0);
+    await page.close();
+  });
+
+  // The same selectors, by role and accessible name, shown to find each control for a lead on a draft
+  // (so a renamed control fails here) and to find none for an operator on that draft, whose writes
+  // the API refuses as well (README Roles: templates are edited by a lead or programmer, released by a lead).
+  const controls = {
+    save: (page: Page) => page.getByRole('button', { name: 'Save draft' }),
+    add: (page: Page) => page.getByRole('button', { name: 'Add placement' }),
+    newDraft: (page: Page, n: number) => page.getByRole('button', { name: `New draft from v${n}` }),
+    release: (page: Page, n: number) => page.getByRole('button', { name: `Release v${n}` }),
+  };
+  const counts = async (page: Page, n: number) => ({
+    save: await controls.save(page).count(), add: await controls.add(page).count(),
+    newDraft: await controls.newDraft(page, n).count(), release: await controls.release(page, n).count(),
+  });
+
+  it('on a draft a lead finds save, add placement, new draft and release; an operator finds none, and the API refuses each', async () => {
+    const page = await e2e.newPage();
+    await e2e.signIn(page, 'lead');
+    const token = (await (await page.request.get(`${e2e.baseUrl}/api/auth/csrf`)).json()).token as string;
+    const draft = await (await page.request.post(`${e2e.baseUrl}/api/templates/1/versions`, { data: { from: 1 }, headers: { 'X-CSRF-Token': token } })).json();
+    const n = draft.version as number;
+    await page.goto(`${e2e.baseUrl}/templates/1/versions/${n}`);
+    await page.getByRole('row', { name: /^20 / }).waitFor();
+    expect(await counts(page, n)).toEqual({ save: 1, add: 1, newDraft: 1, release: 1 });
+
+    await e2e.signIn(page, 'operator');
+    await page.goto(`${e2e.baseUrl}/templates/1/versions/${n}`);
+    await page.getByRole('row', { name: /^20 / }).waitFor();
+    expect(await counts(page, n)).toEqual({ save: 0, add: 0, newDraft: 0, release: 0 });
+    expect(await apiStatus(page, e2e.baseUrl, 'put', `/api/templates/1/versions/${n}`, { ...draft })).toBe(403);
+    expect(await apiStatus(page, e2e.baseUrl, 'post', '/api/templates/1/versions', { from: n })).toBe(403);
+    expect(await apiStatus(page, e2e.baseUrl, 'post', `/api/templates/1/versions/${n}/release`)).toBe(403);
+    expect((await e2e.db('template_versions').where({ template_id: 1, number: n }).first()).state).toBe('draft');
     await page.close();
   });
 });

@@ -1,5 +1,5 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { makeTestApp, tableCounts, type Agent, type TestApp } from './test-app';
+import { makeTestApp, tableCounts, withOwnApp, type Agent, type TestApp } from './test-app';
 
 let t: TestApp;
 let lead: Agent;
@@ -19,9 +19,13 @@ const rail = {
 
 describe('plates', () => {
   it('lists the demo plates as {items, total}', async () => {
-    const res = await operator.get('/api/plates').expect(200);
-    expect(res.body.total).toBe(2);
-    expect(res.body.items.map((p: { code: string }) => p.code)).toEqual(['GP-IN-12x8', 'GP-MM-10x7']);
+    // The demo shop as seeded, on an app of its own: other tests here add plates.
+    await withOwnApp(async (own) => {
+      const operator = await own.agent('operator');
+      const res = await operator.get('/api/plates').expect(200);
+      expect(res.body.total).toBe(2);
+      expect(res.body.items.map((p: { code: string }) => p.code)).toEqual(['GP-IN-12x8', 'GP-MM-10x7']);
+    });
   });
 
   it('creates, reads, updates and deletes a plate; the edge margin defaults to half a pitch', async () => {
@@ -58,19 +62,23 @@ describe('plates', () => {
 
 describe('components', () => {
   it('pages with limit and offset, filters with q and kind', async () => {
-    const page = await operator.get('/api/components?limit=3&offset=2').expect(200);
-    expect(page.body.items).toHaveLength(3);
-    expect(page.body.total).toBe(9);
-    const all = await operator.get('/api/components').expect(200);
-    expect(page.body.items.map((c: { code: string }) => c.code)).toEqual(all.body.items.slice(2, 5).map((c: { code: string }) => c.code));
-    const q = await operator.get('/api/components?q=jaw').expect(200);
-    expect(q.body.items.every((c: { name: string }) => /jaw/i.test(c.name))).toBe(true);
-    expect(q.body.total).toBe(q.body.items.length);
-    const rails = await operator.get('/api/components?kind=jaw-rail').expect(200);
-    expect(rails.body.total).toBe(4);
-    // LIKE wildcards in the search text match themselves, not any character.
-    expect((await operator.get('/api/components?q=%25').expect(200)).body.total).toBe(0);
-    expect((await operator.get('/api/components?limit=0')).status).toBe(400);
+    // The demo catalog as seeded (9 components, 4 jaw rails), on an app of its own: other tests here add components.
+    await withOwnApp(async (own) => {
+      const operator = await own.agent('operator');
+      const page = await operator.get('/api/components?limit=3&offset=2').expect(200);
+      expect(page.body.items).toHaveLength(3);
+      expect(page.body.total).toBe(9);
+      const all = await operator.get('/api/components').expect(200);
+      expect(page.body.items.map((c: { code: string }) => c.code)).toEqual(all.body.items.slice(2, 5).map((c: { code: string }) => c.code));
+      const q = await operator.get('/api/components?q=jaw').expect(200);
+      expect(q.body.items.every((c: { name: string }) => /jaw/i.test(c.name))).toBe(true);
+      expect(q.body.total).toBe(q.body.items.length);
+      const rails = await operator.get('/api/components?kind=jaw-rail').expect(200);
+      expect(rails.body.total).toBe(4);
+      // LIKE wildcards in the search text match themselves, not any character.
+      expect((await operator.get('/api/components?q=%25').expect(200)).body.total).toBe(0);
+      expect((await operator.get('/api/components?limit=0')).status).toBe(400);
+    });
   });
 
   it('creates a component with dowels, stops, jaw faces and a clamp model', async () => {
