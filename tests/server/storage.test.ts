@@ -13,6 +13,7 @@ import { ConfigError, s3SettingsOf } from '../../server/config';
 import { createBackup, restoreBackup } from '../../server/backup/archive';
 import { StoreError, type FileStore } from '../../server/storage/file-store';
 import { localFileStore } from '../../server/storage/local-store';
+import { copyKeptFiles } from '../../server/storage/copy-files';
 import { s3FileStore, type S3Settings } from '../../server/storage/s3-store';
 import { makeTestApp, ON_POSTGRES, type TestApp } from './test-app';
 import { startFails as startServer } from './start-fails';
@@ -139,6 +140,26 @@ describe('the S3 store', () => {
     // An access key ID the service does not know is answered 403 (Amazon S3 API Reference, "Error
     // responses": InvalidAccessKeyId); s3rver checks the key ID of its one account.
     await expect(s3FileStore(s3Settings({ credentials: { accessKeyId: 'NOBODY', secretAccessKey: 'x' } })).check()).rejects.toThrow(/refuses these credentials/);
+  });
+});
+
+describe('moving a data folder\'s files into a bucket', () => {
+  it('copies every original byte for byte, leaves what is there, and copies nothing twice', async () => {
+    const dir = tempDir('move');
+    const bodies = [binary(), Buffer.from('0\nEOF\n')];
+    mkdirSync(path.join(dir, 'uploads', 'tmp'), { recursive: true });
+    for (const b of bodies) writeFileSync(path.join(dir, 'uploads', `${sha256(b)}.dxf`), b);
+    writeFileSync(path.join(dir, 'uploads', 'tmp', 'x.part'), 'unfinished');
+    const movePrefix = `move-${randomBytes(4).toString('hex')}/`;
+    const to = s3FileStore(s3Settings({ prefix: movePrefix }));
+    expect(await copyKeptFiles(localFileStore(dir), to)).toEqual({ copied: 2, alreadyThere: 0, bytes: bodies[0]!.length + bodies[1]!.length });
+    // Read back with the SDK itself, not the store under test.
+    for (const b of bodies) {
+      const got = await to.client.send(new GetObjectCommand({ Bucket: BUCKET, Key: `${movePrefix}uploads/${sha256(b)}.dxf` }));
+      expect(sha256(Buffer.from(await got.Body!.transformToByteArray()))).toBe(sha256(b));
+    }
+    expect((await to.list('uploads/')).map((f) => f.key)).toEqual(bodies.map((b) => `uploads/${sha256(b)}.dxf`).sort());
+    expect(await copyKeptFiles(localFileStore(dir), to)).toEqual({ copied: 0, alreadyThere: 2, bytes: 0 });
   });
 });
 
