@@ -19,21 +19,11 @@ import type {
 import type { Unit } from '../../shared/schemas/common';
 import type { Outline, OutlinePath, OutlineVertex } from '../../shared/schemas/geometry';
 import { LIMITS } from '../../shared/schemas/limits';
-import {
-  addArcExtents,
-  conicSteps,
-  addBulgeExtents,
-  addCurveExtents,
-  bulgeArc,
-  type BSpline,
-  Extents,
-  flattenConic,
-  flattenSpline,
-  interpolateFitPoints,
-  isValidBSpline,
-  SplineEvaluator,
-  type Vec2,
-} from './curves';
+import { bulgeArc, sweepToBulge } from '../../shared/geometry/bulge';
+import { addArcExtents, addBulgeExtents, Extents } from '../../shared/geometry/extents';
+import { conicSteps, flattenConic } from './curves/conic';
+import { addCurveExtents, type BSpline, flattenSpline, isValidBSpline, SplineEvaluator, type Vec2 } from './curves/spline';
+import { interpolateFitPoints } from './curves/spline-fit';
 import { DxfError } from './dxf-error';
 import { type ContainerScan, type DxfScan, readEntityGroups, scanDxf } from './dxf-scan';
 
@@ -721,15 +711,17 @@ class Reader {
       if (b === undefined || b === 0 || i >= segments) continue;
       const w = vs[i + 1 === n ? 0 : i + 1]!;
       if (w.x === v.x && w.y === v.y) continue;
+      if (!Number.isFinite(b)) this.bad();
       const a = bulgeArc(v.x, v.y, w.x, w.y, b);
-      const r = Math.abs(a.r);
+      if (a === null) continue;
+      const r = a.r;
       const cx = m.a * a.cx + m.c * a.cy + m.e;
       const cy = m.b * a.cx + m.d * a.cy + m.f;
       this.inRange(cx, cy, m.a * r, m.b * r, m.c * r, m.d * r);
       this.spend(conicSteps(m.a * r, m.b * r, m.c * r, m.d * r, a.sweep, this.tol), true);
-      const arc = flattenConic(cx, cy, m.a * r, m.b * r, m.c * r, m.d * r, a.a0, a.sweep, this.tol);
+      const arc = flattenConic(cx, cy, m.a * r, m.b * r, m.c * r, m.d * r, a.start, a.sweep, this.tol);
       for (let k = 1; k < arc.length - 1; k++) pts.push(arc[k]!);
-      addArcExtents(this.ext, cx, cy, m.a * r, m.b * r, m.c * r, m.d * r, a.a0, a.sweep);
+      addArcExtents(this.ext, cx, cy, m.a * r, m.b * r, m.c * r, m.d * r, a.start, a.sweep);
       curved = true;
     }
     if (curved) this.approximated(type, layer, ' (its arcs are stretched by a block insert)');
@@ -756,7 +748,7 @@ class Reader {
         const p0 = this.vertex(m, cx + r * Math.cos(a0), cy + r * Math.sin(a0));
         const p1 = this.vertex(m, cx + r * Math.cos(a1), cy + r * Math.sin(a1));
         // Bulge = tan(θ/4) (DXF Reference, LWPOLYLINE group 42).
-        p0.bulge = Math.tan(sweep / 4) * flip;
+        p0.bulge = sweepToBulge(sweep) * flip;
         // Extents from the known centre rather than one rebuilt from the bulge.
         const ccx = m.a * cx + m.c * cy + m.e;
         const ccy = m.b * cx + m.d * cy + m.f;
