@@ -18,7 +18,6 @@ export interface DrawingSvgOptions {
   title?: string;
 }
 
-const TAU = 2 * Math.PI;
 const DEG = Math.PI / 180;
 
 /**

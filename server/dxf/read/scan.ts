@@ -1,6 +1,6 @@
-import { LIMITS } from '../../../shared/schemas/limits';
 import { DxfError } from '../dxf-error';
-import { bump, type ContainerScan, type DxfScan, newContainer, PARSER_ENTITY_TYPES, READ_ENTITY_TYPES, where } from './containers';
+import { type ContainerScan, type DxfScan, newContainer } from './containers';
+import { EntityScan } from './scan-entity';
 import { GroupTokenizer, quote } from './tokenizer';
 
 /**
@@ -16,9 +16,6 @@ import { GroupTokenizer, quote } from './tokenizer';
  * only the values it needs (entity names, block and section names), so it costs a small
  * fraction of the parse and makes no copy of the text.
  */
-
-/** Group codes dxf-parser 1.1.2 reads inside an LWPOLYLINE vertex (x, y, z, widths, bulge). */
-const LW_VERTEX_CODES: ReadonlySet<number> = new Set([10, 20, 30, 40, 41, 42]);
 
 /**
  * Check the structure of `text` and collect what the reader needs besides dxf-parser's output.
@@ -42,73 +39,7 @@ export function scanDxf(text: string, maxEntities: number): DxfScan {
   let block: ContainerScan | null = null; // open block definition
   let inBlockHeader = false;
   let container: ContainerScan | null = null; // where entities go now
-  let totalEntities = 0;
-
-  // The entity being read.
-  let curType: string | null = null;
-  let curLine = 0;
-  let curOffset = 0;
-  let curParsed = -1;
-  let curPaper = false;
-  let curReread = false;
-  let lwCount = 0;
-  let lwListed = 0;
-  let lwPrev = -1;
-  let polylineOpen = 0; // line of a POLYLINE waiting for its SEQEND
-  let attribsOpen = false; // an INSERT may be followed by ATTRIBs and a SEQEND
-  let attribsPaper = false;
-
-  const finishEntity = (): void => {
-    if (curType === null || container === null) return;
-    if (curType === 'LWPOLYLINE' && lwCount > lwListed) {
-      throw new DxfError(
-        'malformed',
-        `The LWPOLYLINE at line ${curLine} in ${where(container)} declares ${lwCount.toLocaleString('en-US')} vertices (group 90) but lists ${lwListed}; the file is damaged.`,
-        { line: curLine, block: container.block ?? undefined },
-      );
-    }
-    if (curPaper) container.paperSpace++;
-    else if (!READ_ENTITY_TYPES.has(curType)) bump(container.unsupported, curType);
-    if (curReread && curParsed >= 0) {
-      container.reread.set(curParsed, curOffset);
-      container.lines.set(curParsed, curLine);
-    }
-    if (curType === 'POLYLINE') polylineOpen = curLine;
-    else if (curType === 'INSERT') {
-      attribsOpen = true;
-      attribsPaper = curPaper;
-    }
-    curType = null;
-  };
-
-  const startEntity = (type: string, line: number, offset: number): void => {
-    const c = container!;
-    if (type === 'VERTEX' || type === 'SEQEND') return; // stray parts; dxf-parser skips them too
-    if (type === 'ATTRIB') {
-      bump(c.unsupported, type);
-      return;
-    }
-    c.total++;
-    totalEntities++;
-    if (totalEntities > maxEntities) {
-      throw new DxfError(
-        'too-many-entities',
-        `The drawing has more than ${maxEntities.toLocaleString('en-US')} entities (counting block definitions), more than Gridset reads from one file; the limit was passed at line ${line}.`,
-        { line },
-      );
-    }
-    bump(c.types, type);
-    curType = type;
-    curLine = line;
-    curOffset = offset;
-    curParsed = PARSER_ENTITY_TYPES.has(type) ? c.parsed++ : -1;
-    curPaper = false;
-    curReread = false;
-    lwCount = 0;
-    lwListed = 0;
-    lwPrev = -1;
-    if (type === 'INSERT') c.lines.set(curParsed, line);
-  };
+  const entity = new EntityScan(maxEntities);
 
   while (tok.next()) {
     const code = tok.code;
@@ -136,28 +67,8 @@ export function scanDxf(text: string, maxEntities: number): DxfScan {
       if (awaitTableName) {
         throw new DxfError('malformed', `The TABLE at line ${tableLine} has no name (group 2).`, { line: tableLine });
       }
-      finishEntity();
-
-      if (polylineOpen !== 0) {
-        if (value === 'VERTEX') continue;
-        if (value === 'SEQEND') {
-          polylineOpen = 0;
-          continue;
-        }
-        throw new DxfError(
-          'malformed',
-          `The POLYLINE at line ${polylineOpen} is not closed by SEQEND: line ${valueLine} starts ${value || 'an unnamed group'} instead.`,
-          { line: polylineOpen },
-        );
-      }
-      if (attribsOpen) {
-        if (value === 'ATTRIB') {
-          if (!attribsPaper) bump(container!.unsupported, 'ATTRIB');
-          continue;
-        }
-        attribsOpen = false;
-        if (value === 'SEQEND') continue;
-      }
+      entity.finish(container);
+      if (entity.isPart(value, valueLine, container)) continue;
 
       if (value === 'SECTION') {
         if (section !== null) {
@@ -203,7 +114,7 @@ export function scanDxf(text: string, maxEntities: number): DxfScan {
       }
 
       if (section === 'ENTITIES') {
-        startEntity(value, valueLine, codeStart);
+        entity.start(container!, value, valueLine, codeStart);
       } else if (section === 'BLOCKS') {
         if (value === 'BLOCK') {
           if (block !== null) {
@@ -226,7 +137,7 @@ export function scanDxf(text: string, maxEntities: number): DxfScan {
           inBlockHeader = false;
         } else if (block !== null) {
           inBlockHeader = false;
-          startEntity(value, valueLine, codeStart);
+          entity.start(container!, value, valueLine, codeStart);
         }
       } else if (section === 'TABLES') {
         if (value === 'TABLE') {
@@ -278,53 +189,7 @@ export function scanDxf(text: string, maxEntities: number): DxfScan {
       if (code === 2) block!.block = tok.value();
       continue;
     }
-    if (curType === null) continue;
-
-    // dxf-parser 1.1.2 reads an LWPOLYLINE vertex until a code it does not know, then steps back
-    // two groups: right after a group 10 that lands on the 10 again, and it loops for ever.
-    if (curType === 'LWPOLYLINE') {
-      if (lwPrev === 10 && !LW_VERTEX_CODES.has(code)) {
-        throw new DxfError(
-          'malformed',
-          `The LWPOLYLINE at line ${curLine} in ${where(container!)} has a vertex x (group 10) at line ${codeLine - 2} followed by group ${code} instead of its y (group 20); the file is damaged.`,
-          { line: curLine, block: container!.block ?? undefined },
-        );
-      }
-      lwPrev = code;
-    }
-
-    // Group codes inside an entity that dxf-parser 1.1.2 does not keep or mishandles.
-    if (code === 67) {
-      if (container === entitiesScan) curPaper = tok.value() === '1';
-    } else if (code === 210 || code === 220 || code === 230) {
-      // Extrusion direction (DXF Reference, "Object Coordinate Systems"); default (0, 0, 1).
-      if (curType === 'CIRCLE' || curType === 'ELLIPSE' || curType === 'TEXT') {
-        const v = tok.number();
-        if (code === 230 ? v !== 1 : v !== 0) curReread = true;
-      }
-    } else if (curType === 'SPLINE') {
-      if (code === 41) curReread = true; // weights of a rational spline
-    } else if (curType === 'LWPOLYLINE') {
-      if (code === 90) {
-        lwCount = tok.number();
-        // dxf-parser makes as many vertices as group 90 declares, listed or not: bound it first.
-        if (lwCount > LIMITS.dxfPolylineVertices) {
-          throw new DxfError(
-            'too-large',
-            `The LWPOLYLINE at line ${curLine} in ${where(container!)} declares ${lwCount.toLocaleString('en-US')} vertices (group 90); Gridset reads polylines of up to ${LIMITS.dxfPolylineVertices.toLocaleString('en-US')}. Simplify it or split it.`,
-            { line: curLine, block: container!.block ?? undefined },
-          );
-        }
-      } else if (code === 10) lwListed++;
-      else if (code === 91) curReread = true; // vertex identifier, R2010+
-      if (code === 10 && !(lwCount > 0)) {
-        throw new DxfError(
-          'malformed',
-          `The LWPOLYLINE at line ${curLine} in ${where(container!)} lists vertices, but its vertex count (group 90) is missing or zero.`,
-          { line: curLine, block: container!.block ?? undefined },
-        );
-      }
-    }
+    if (entity.type !== null) entity.group(container!, container === entitiesScan, tok);
   }
 
   if (!sawEof) {
