@@ -12,6 +12,7 @@ import type { DxfCircle, DxfNote, DxfPoint } from './types';
 import type { DxfScan } from './containers';
 import { readEntityGroups } from './tokenizer';
 
+/** What one reading of a drawing gathers, and the checks every entity reader goes through. */
 export class ReadContext {
   readonly paths: OutlinePath[] = [];
   readonly circles: DxfCircle[] = [];
@@ -19,11 +20,11 @@ export class ReadContext {
   readonly points: DxfPoint[] = [];
   readonly ext = new Extents();
   readonly layers = new Map<string, { n: number }>();
-  lastLayer = '';
-  lastCounter = { n: 0 };
+  private lastLayer = '';
+  private lastCounter = { n: 0 };
   readonly unsupported = new Map<string, number>();
-  readonly approx = new Map<string, { type: string; layer: string; how: string; count: number }>();
-  readonly warned = new Map<string, number>();
+  private readonly approx = new Map<string, { type: string; layer: string; how: string; count: number }>();
+  private readonly warned = new Map<string, number>();
   paperSpace = 0;
   misaligned = false;
   // The entity being read, for error messages.
@@ -43,7 +44,7 @@ export class ReadContext {
     readonly unitLabel: string,
   ) {}
 
-  get entityName(): string {
+  private get entityName(): string {
     return `${/^[AEIOU]/.test(this.curType) ? 'An' : 'A'} ${this.curType} entity`;
   }
 
