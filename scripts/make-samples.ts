@@ -3,6 +3,7 @@
 // blocks, and is read back with server/dxf/read-dxf.ts so a broken sample is never written.
 import { mkdirSync, writeFileSync } from 'node:fs';
 import path from 'node:path';
+import { sweepToBulge } from '../shared/geometry/bulge';
 import { emptyDrawing, type Drawing, type DrawingPolyline } from '../server/dxf/drawing';
 import { writeDrawingDxf } from '../server/dxf/write-dxf';
 import { inspectDxf } from '../server/dxf/read-dxf';
@@ -11,7 +12,7 @@ import { projectRoot } from './build-client';
 const samplesDir = path.join(projectRoot, 'samples');
 
 /** Bulge of a 90° arc: tan(90°/4) (DXF Reference, LWPOLYLINE group code 42). */
-const QUARTER = Math.tan(Math.PI / 8);
+const QUARTER = sweepToBulge(Math.PI / 2);
 
 /** A closed w × h rectangle from (x0, y0) with corners rounded to r by bulges, counter-clockwise. */
 function roundedRect(layer: string, x0: number, y0: number, w: number, h: number, r: number): DrawingPolyline {

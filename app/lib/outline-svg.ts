@@ -1,6 +1,7 @@
 // Outline geometry (shared/schemas/geometry: polylines with DXF bulges, and circles) as SVG path
 // data. Pure: no React, no DOM. Coordinates stay in the outline's own Y-up system; a drawing
 // flips Y once, in a scale(1, -1) group, so arc sweep flags keep their meaning (see bulgeToSvgArc).
+import { bulgeRadius, bulgeSweep } from '../../shared/geometry/bulge';
 import type { Point } from '../../shared/schemas/common';
 import type { OutlineCircle, OutlinePath } from '../../shared/schemas/geometry';
 
@@ -28,8 +29,7 @@ export interface SvgArc {
  * The arc a DXF bulge describes from `from` to `to`, or null for a straight segment.
  *
  * bulge = tan(θ/4), θ the included angle, negative when the arc runs clockwise (DXF Reference,
- * LWPOLYLINE group code 42). So θ = 4·atan|b| and, from the chord c = 2r·sin(θ/2),
- * r = c / (2·sin(θ/2)). SVG's sweep-flag 1 runs in the direction of increasing angle in the
+ * LWPOLYLINE group code 42); radius and angle come from shared/geometry/bulge. SVG's sweep-flag 1 runs in the direction of increasing angle in the
  * current user space (SVG 2, Paths, "The elliptical arc curve commands"); drawn in Y-up
  * coordinates before the flip, that is counter-clockwise, the direction of a positive bulge.
  * The large-arc flag is set when θ > 180°, i.e. |b| > 1.
@@ -37,8 +37,8 @@ export interface SvgArc {
 export function bulgeToSvgArc(from: Point, to: Point, bulge: number | undefined): SvgArc | null {
   const chord = Math.hypot(to.x - from.x, to.y - from.y);
   if (!bulge || chord === 0 || !Number.isFinite(bulge)) return null;
-  const includedAngle = 4 * Math.atan(Math.abs(bulge));
-  const r = chord / (2 * Math.sin(includedAngle / 2));
+  const includedAngle = Math.abs(bulgeSweep(bulge));
+  const r = bulgeRadius(chord, bulge);
   return { r, largeArc: Math.abs(bulge) > 1 ? 1 : 0, sweep: bulge > 0 ? 1 : 0, x: to.x, y: to.y, includedAngle };
 }
 

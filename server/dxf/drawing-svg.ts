@@ -1,5 +1,6 @@
 import { type INode, stringify } from 'svgson';
-import { addArcExtents, addBulgeExtents, Extents } from './curves';
+import { bulgeRadius, bulgeSweep } from '../../shared/geometry/bulge';
+import { addArcExtents, addBulgeExtents, Extents } from '../../shared/geometry/extents';
 import type { Drawing } from './drawing';
 
 export interface DrawingSvgOptions {
@@ -17,7 +18,6 @@ export interface DrawingSvgOptions {
   title?: string;
 }
 
-const TAU = 2 * Math.PI;
 const DEG = Math.PI / 180;
 
 /**
@@ -207,10 +207,9 @@ export function drawingToSvg(drawing: Drawing, options: DrawingSvgOptions = {}):
         if (!(p.closed && i === n - 1)) parts.push(`L ${X(b.x)} ${Y(b.y)}`);
         continue;
       }
-      // r = c (1 + b²) / (4 |b|) for a chord c; included angle 4·atan(b) (DXF Reference, LWPOLYLINE 42).
-      const chord = Math.hypot(b.x - a.x, b.y - a.y);
-      const r = (chord * (1 + bulge * bulge)) / (4 * Math.abs(bulge));
-      parts.push(arcTo(r, 4 * Math.atan(bulge), b.x, b.y));
+      // Radius and signed included angle of the bulge (DXF Reference, LWPOLYLINE group 42).
+      const r = bulgeRadius(Math.hypot(b.x - a.x, b.y - a.y), bulge);
+      parts.push(arcTo(r, bulgeSweep(bulge), b.x, b.y));
     }
     if (p.closed) parts.push('Z');
     into(p.layer).push(element('path', { d: parts.join(' ') }));

@@ -1,6 +1,7 @@
 import type { Point } from '../schemas/common';
 import type { Outline, OutlinePath, OutlineVertex } from '../schemas/geometry';
-import { LIMITS } from '../schemas/limits';
+import { arcChordCount, flattenBulge } from './bulge';
+import { addBulgeExtents, Extents } from './extents';
 
 export interface Box {
   minX: number;
@@ -108,51 +109,7 @@ export function boxesOverlap(a: Box, b: Box, slack = 0): boolean {
   return a.minX < b.maxX - slack && b.minX < a.maxX - slack && a.minY < b.maxY - slack && b.minY < a.maxY - slack;
 }
 
-/** The circular arc a DXF bulge describes between two vertices. */
-interface BulgeArc {
-  cx: number;
-  cy: number;
-  r: number;
-  start: number; // radians
-  sweep: number; // radians, + counter-clockwise
-}
-
-/**
- * bulge = tan(θ/4), θ the included angle, negative when clockwise (DXF Reference, LWPOLYLINE
- * group code 42). The center lies off the chord midpoint along its left normal by
- * (c/2)·cot(θ/2) = c·(1 − b²)/(4b), which changes side by itself when b is negative.
- */
-function bulgeArc(a: Point, b: Point, bulge: number): BulgeArc | null {
-  const dx = b.x - a.x;
-  const dy = b.y - a.y;
-  const c = Math.hypot(dx, dy);
-  if (c === 0 || bulge === 0) return null;
-  const k = (1 - bulge * bulge) / (4 * bulge);
-  const cx = (a.x + b.x) / 2 - dy * k;
-  const cy = (a.y + b.y) / 2 + dx * k;
-  return {
-    cx,
-    cy,
-    r: Math.hypot(a.x - cx, a.y - cy),
-    start: Math.atan2(a.y - cy, a.x - cx),
-    sweep: 4 * Math.atan(bulge),
-  };
-}
-
 const TAU = 2 * Math.PI;
-const AXES = [
-  { angle: 0, cos: 1, sin: 0 },
-  { angle: Math.PI / 2, cos: 0, sin: 1 },
-  { angle: Math.PI, cos: -1, sin: 0 },
-  { angle: (3 * Math.PI) / 2, cos: 0, sin: -1 },
-] as const;
-
-/** Whether the arc passes through the direction `angle` (radians). */
-function arcContainsAngle(arc: BulgeArc, angle: number): boolean {
-  const along = arc.sweep >= 0 ? angle - arc.start : arc.start - angle;
-  const wrapped = ((along % TAU) + TAU) % TAU;
-  return wrapped <= Math.abs(arc.sweep);
-}
 
 /** Segments of the path as [from, to, bulge]; a closed path also runs last → first. */
 function segmentsOf(path: OutlinePath): Array<[OutlineVertex, OutlineVertex]> {
@@ -163,44 +120,18 @@ function segmentsOf(path: OutlinePath): Array<[OutlineVertex, OutlineVertex]> {
   return out;
 }
 
-/** The exact bounding box of an outline: vertices, circles, and each arc's axis extremes. */
+/** The exact bounding box of an outline: vertices, circles, and each arc to its true extremes. */
 export function outlineBounds(outline: Outline): Box {
-  let minX = Infinity, minY = Infinity, maxX = -Infinity, maxY = -Infinity;
-  const add = (x: number, y: number) => {
-    if (x < minX) minX = x;
-    if (y < minY) minY = y;
-    if (x > maxX) maxX = x;
-    if (y > maxY) maxY = y;
-  };
+  const ext = new Extents();
   for (const path of outline.paths) {
-    for (const p of path.points) add(p.x, p.y);
-    for (const [a, b] of segmentsOf(path)) {
-      const arc = a.bulge ? bulgeArc(a, b, a.bulge) : null;
-      if (!arc) continue;
-      // An arc reaches past its end points only where it crosses 0°, 90°, 180° or 270°.
-      for (const axis of AXES) {
-        if (arcContainsAngle(arc, axis.angle)) add(arc.cx + arc.r * axis.cos, arc.cy + arc.r * axis.sin);
-      }
-    }
+    for (const p of path.points) ext.add(p.x, p.y);
+    for (const [a, b] of segmentsOf(path)) if (a.bulge) addBulgeExtents(ext, a.x, a.y, b.x, b.y, a.bulge);
   }
   for (const c of outline.circles) {
-    add(c.x - c.r, c.y - c.r);
-    add(c.x + c.r, c.y + c.r);
+    ext.add(c.x - c.r, c.y - c.r);
+    ext.add(c.x + c.r, c.y + c.r);
   }
-  return { minX, minY, maxX, maxY };
-}
-
-/**
- * Chord count for an arc so that no chord strays more than `tolerance` from it: a chord
- * spanning angle Δ on radius r has sagitta r·(1 − cos(Δ/2)) (Machinery's Handbook, segments
- * of circles).
- */
-function chordCount(r: number, sweep: number, tolerance: number): number {
-  if (tolerance >= r) return Math.max(1, Math.ceil(Math.abs(sweep) / (Math.PI / 2)));
-  const maxStep = 2 * Math.acos(1 - tolerance / r);
-  // Counted before any point is made, and capped: a huge radius costs no more than LIMITS.arcChords
-  // chords (a coarser chord error on an arc far larger than any plate).
-  return Math.min(LIMITS.arcChords, Math.max(1, Math.ceil(Math.abs(sweep) / maxStep)));
+  return { minX: ext.minX, minY: ext.minY, maxX: ext.maxX, maxY: ext.maxY };
 }
 
 /**
@@ -216,13 +147,7 @@ export function flattenPath(path: OutlinePath, tolerance: number): Point[] {
   const segments = segmentsOf(path);
   for (const [a, b] of segments) {
     push(a.x, a.y);
-    const arc = a.bulge ? bulgeArc(a, b, a.bulge) : null;
-    if (!arc) continue;
-    const n = chordCount(arc.r, arc.sweep, tolerance);
-    for (let i = 1; i < n; i++) {
-      const t = arc.start + (arc.sweep * i) / n;
-      push(arc.cx + arc.r * Math.cos(t), arc.cy + arc.r * Math.sin(t));
-    }
+    if (a.bulge) flattenBulge(a.x, a.y, b.x, b.y, a.bulge, tolerance, push);
   }
   const lastPoint = path.points[path.points.length - 1]!;
   if (!path.closed) push(lastPoint.x, lastPoint.y);
@@ -233,7 +158,7 @@ export function flattenPath(path: OutlinePath, tolerance: number): Point[] {
 }
 
 export function circlePolygon(cx: number, cy: number, r: number, tolerance: number): Polygon {
-  const n = Math.max(8, chordCount(r, TAU, tolerance));
+  const n = Math.max(8, arcChordCount(r, TAU, tolerance));
   const out: Polygon = [];
   for (let i = 0; i < n; i++) {
     const t = (TAU * i) / n;

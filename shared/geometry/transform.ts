@@ -57,3 +57,74 @@ export function applyTransform(t: RigidTransform, p: Point): Point {
 export function rotateVector(t: RigidTransform, v: Point): Point {
   return { x: t.cos * v.x - t.sin * v.y, y: t.sin * v.x + t.cos * v.y };
 }
+
+/**
+ * A 2D affine map x' = a·x + c·y + e, y' = b·x + d·y + f (the column-major 2×3 matrix of
+ * SVG 2 "transform" and of most graphics texts), with what kind of map it is: arcs stay arcs
+ * (and DXF bulges stay bulges) only under a similarity. Used to place DXF block contents
+ * (INSERT: scale, rotation, MINSERT array steps) and to bring object coordinates to world XY.
+ */
+export class Affine {
+  /** 0 identity, 1 similarity (uniform scale, rotation, mirror, shift), 2 anything else. */
+  readonly kind: 0 | 1 | 2;
+  /** The similarity's scale factor; for other maps √|det|, the factor on areas' square root. */
+  readonly scale: number;
+  /** Whether the map reverses orientation (negative determinant). */
+  readonly mirror: boolean;
+
+  constructor(
+    readonly a: number,
+    readonly b: number,
+    readonly c: number,
+    readonly d: number,
+    readonly e: number,
+    readonly f: number,
+  ) {
+    const su = a * a + b * b;
+    const sv = c * c + d * d;
+    this.mirror = a * d - b * c < 0;
+    if (a === 1 && b === 0 && c === 0 && d === 1 && e === 0 && f === 0) {
+      this.kind = 0;
+      this.scale = 1;
+    } else if (Math.abs(su - sv) <= 1e-9 * su && Math.abs(a * c + b * d) <= 1e-9 * su) {
+      this.kind = 1;
+      this.scale = Math.sqrt(su);
+    } else {
+      this.kind = 2;
+      this.scale = Math.sqrt(Math.abs(a * d - b * c));
+    }
+  }
+
+  static readonly IDENTITY = new Affine(1, 0, 0, 1, 0, 0);
+
+  /** this ∘ n: apply n first. */
+  then(n: Affine): Affine {
+    return new Affine(
+      this.a * n.a + this.c * n.b,
+      this.b * n.a + this.d * n.b,
+      this.a * n.c + this.c * n.d,
+      this.b * n.c + this.d * n.d,
+      this.a * n.e + this.c * n.f + this.e,
+      this.b * n.e + this.d * n.f + this.f,
+    );
+  }
+
+  /** The point (x, y) under the map. */
+  apply(x: number, y: number): Point {
+    return { x: this.a * x + this.c * y + this.e, y: this.b * x + this.d * y + this.f };
+  }
+
+  static translate(x: number, y: number): Affine {
+    return new Affine(1, 0, 0, 1, x, y);
+  }
+
+  /** Rotation counter-clockwise by `deg` degrees; quarter turns exact (see cosSinDeg). */
+  static rotateDeg(deg: number): Affine {
+    const { cos, sin } = cosSinDeg(deg);
+    return new Affine(cos, sin, -sin, cos, 0, 0);
+  }
+
+  static scaling(sx: number, sy: number): Affine {
+    return new Affine(sx, 0, 0, sy, 0, 0);
+  }
+}
