@@ -34,6 +34,8 @@ export class WorkerPool {
       atomics: 'disabled',
       resourceLimits: { maxOldGenerationSizeMb: this.settings.memoryMb },
     });
+    // A thread that fails with no task running (piscina emits 'error'): logged; unheard, it would end the process.
+    this.#piscina.on('error', (err: unknown) => console.error('A worker thread failed outside any upload (a new one starts for the next):', err));
     return this.#piscina;
   }
 
@@ -64,7 +66,7 @@ export class WorkerPool {
   #poolError(err: unknown, signal: AbortSignal): Error {
     const { memoryMb, timeoutMs } = this.settings;
     if (signal.reason instanceof TaskTimeout) {
-      return new HttpError(400, 'file-too-slow', `Reading the file took longer than the ${Math.round(timeoutMs / 1000)} s one upload may take, so it was stopped; send a smaller or simpler file.`);
+      return new HttpError(400, 'file-too-slow', `Reading the file took longer than the ${timeoutMs >= 1000 ? `${Math.round(timeoutMs / 1000)} s` : `${timeoutMs} ms`} one upload may take, so it was stopped; send a smaller or simpler file.`);
     }
     const code = (err as { code?: unknown })?.code;
     if (code === 'ERR_WORKER_OUT_OF_MEMORY') {

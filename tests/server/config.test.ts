@@ -56,3 +56,16 @@ describe('choosing the database', () => {
     expect(stderr).toMatch(/^Gridset cannot start: the database in DATABASE_URL cannot be used \(connect ECONNREFUSED/);
   }, 60_000);
 });
+
+describe('the worker pool settings', () => {
+  it('leaves one core to the request thread by default, and refuses a count that is not a whole number from 1 to 64', () => {
+    const c = readConfig({ GRIDSET_DATA_DIR: dataDir() });
+    // Node's os.availableParallelism() is the number of cores the process may use.
+    expect(c.workers.size).toBe(Math.max(1, os.availableParallelism() - 1));
+    expect(readConfig({ GRIDSET_DATA_DIR: dataDir(), GRIDSET_WORKERS: '3', GRIDSET_WORKER_TIMEOUT_S: '5' }).workers).toMatchObject({ size: 3, timeoutMs: 5000 });
+    for (const bad of ['0', '2.5', 'four', '65']) {
+      expect(() => readConfig({ GRIDSET_DATA_DIR: dataDir(), GRIDSET_WORKERS: bad }), bad).toThrow(ConfigError);
+    }
+    expect(() => readConfig({ GRIDSET_DATA_DIR: dataDir(), GRIDSET_WORKER_MEMORY_MB: '10' })).toThrow(/GRIDSET_WORKER_MEMORY_MB must be a whole number from 64 to 16384/);
+  });
+});
