@@ -11,7 +11,7 @@ import { makeTestApp, ON_POSTGRES, type TestApp } from './test-app';
 
 // On PostgreSQL every case pays network round trips for its before/after row counts; the SQLite run
 // keeps the full count, the PostgreSQL run looks for answers that differ by dialect.
-const PER_ROUTE = ON_POSTGRES ? 100 : 300;
+const PER_ROUTE = ON_POSTGRES ? 50 : 300;
 const SEED = 20261205;
 
 let t: TestApp;
@@ -31,5 +31,5 @@ describe('fuzz: every upload and JSON write route', () => {
       expect(total, route).toBeGreaterThanOrEqual(PER_ROUTE);
     }
     expect((await lead.get('/api/health')).status).toBe(200);
-  }, 240_000);
+  }, 480_000); // a limit for a stuck run, not a speed target: CI runs it beside the browser tests
 });
