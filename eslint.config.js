@@ -67,6 +67,12 @@ export default tseslint.config(
         'error',
         { argsIgnorePattern: '^_', varsIgnorePattern: '^_', caughtErrorsIgnorePattern: '^_', ignoreRestSiblings: true },
       ],
+      // V8's linear-time engine flag (node --enable-experimental-regexp-engine), probed on purpose
+      // by shared/naming/linear-regex.ts.
+      'no-invalid-regexp': ['error', { allowConstructorFlags: ['l'] }],
+      // The DXF, XLSX and text-limit readers find and refuse control characters in uploads: regexes
+      // over \x00-\x1f are their job, which is exactly what this rule forbids.
+      'no-control-regex': 'off',
     },
   },
   {
