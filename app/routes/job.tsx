@@ -141,6 +141,7 @@ function StockCheckSection({ job, version, canRecord }: { job: JobDetail; versio
   useEffect(() => {
     if (latest && focusCheck !== null && latest.id !== focusCheck) {
       resultsHeading.current?.focus();
+      // eslint-disable-next-line react-hooks/set-state-in-effect -- clears the one-shot flag after moving focus, a DOM effect
       setFocusCheck(null);
     }
   }, [latest, focusCheck]);

@@ -3,7 +3,7 @@ import type { Station } from '../schemas/template';
 import type { MachinePosition } from '../stations/work-offsets';
 import { formatNumber, roundTo } from '../units/units';
 import { normalizeDegrees } from '../geometry/transform';
-import { CONTROL_FAMILIES, FAMILIES, WORK_OFFSET_CODES, type ControlFamily } from './control-families';
+import { FAMILIES, WORK_OFFSET_CODES, type ControlFamily } from './control-families';
 
 export { CONTROL_FAMILIES, FAMILIES, WORK_OFFSET_CODES, type ControlFamily } from './control-families';
 

@@ -1,7 +1,7 @@
-import type { Point, Unit } from '../schemas/common';
+import type { Unit } from '../schemas/common';
 import type { Hole, Pairing, Placement, Problem, Station, TemplateComponent, TemplateContent } from '../schemas/template';
 import { GRID_TOLERANCE, convert, formatLength } from '../units/units';
-import { applyTransform, cosSinDeg, isGridRotation, normalizeDegrees, placementTransform, type RigidTransform } from '../geometry/transform';
+import { applyTransform, isGridRotation, normalizeDegrees, placementTransform, type RigidTransform } from '../geometry/transform';
 import { componentGeometryIn, type ComponentGeometry } from '../geometry/component-geometry';
 import { LIMITS } from '../schemas/limits';
 import { boxOfPoints, createBoxIndex, footprintsOverlap, overlappingBoxPairs, outlineBounds, outlineFootprint, type Box, type Polygon } from '../geometry/outline';

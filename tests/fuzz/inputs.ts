@@ -118,7 +118,7 @@ const SHEET_EDITS: Array<(xml: string, rng: Rng) => string> = [
   (x) => x.replace(/<c r="([A-Z]+2)"[^>]*>.*?<\/c>/, '<c r="$1"><f>1/0</f></c>'),
   (x) => x.replace(/<sheetData>/, '<cols><col min="1" max="16384" width="9"/></cols><sheetData>'),
   (x) => x.replace(/<c r="([A-Z]+)(\d+)"/, '<c r="ZZZZ$2"'),
-  (x, rng) => x.replace(/<v>([^<]*)<\/v>/g, (m, v) => (rng.next() < 0.3 ? `<v>${rng.pick(HOSTILE_NUMBER_TEXT)}</v>` : m)),
+  (x, rng) => x.replace(/<v>([^<]*)<\/v>/g, (m) => (rng.next() < 0.3 ? `<v>${rng.pick(HOSTILE_NUMBER_TEXT)}</v>` : m)),
   (x, rng) => x.replace(/<t( [^>]*)?>([^<]*)<\/t>/g, (m, a, v) => (rng.next() < 0.3 ? `<t${a ?? ''}>${rng.pick(['&#1;', 'A&#x7f;B', '&lt;&gt;', v + v])}</t>` : m)),
   (x) => x.slice(0, Math.floor(x.length / 2)),
   (x) => x.replace(/<row /, '<row r="0" '),

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import type { Role } from '../../shared/schemas/auth';
-import { allRows, appWithEveryRole, refuseAuditAction, type Agent } from './test-app';
+import { allRows, appWithEveryRole, refuseAuditAction } from './test-app';
 
 /**
  * Every write keeps its audit line in the same transaction: after success both are there; when

@@ -8,7 +8,6 @@ import type { NamingRule } from '../../shared/schemas/naming';
 // "Suggested names"), with the demo convention; for layers the DXF R12 limits (DXF Reference,
 // TABLES section: 31 characters of letters, digits, $ - _).
 const demoLayer = DEMO_CONVENTION.layer;
-const demoCode = DEMO_CONVENTION.component;
 
 describe('proposeName', () => {
   it.each([

@@ -32,6 +32,7 @@ export type GridsetTableFeatures = typeof gridsetTableFeatures;
 export const columnHelperFor = <Row extends RowData>() => createColumnHelper<GridsetTableFeatures, Row>();
 
 interface DataTableProps<Row extends RowData> {
+  // eslint-disable-next-line @typescript-eslint/no-explicit-any -- columns of mixed value types; TanStack Table documents any for TValue here
   columns: ColumnDef<GridsetTableFeatures, Row, any>[];
   data: Row[];
   filter?: string;

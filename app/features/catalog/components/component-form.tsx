@@ -1,4 +1,4 @@
-import { useFieldArray, useForm, type UseFormRegister, type FieldErrors } from 'react-hook-form';
+import { useFieldArray, useForm, useWatch, type UseFormRegister, type FieldErrors } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { Plus, Trash2 } from 'lucide-react';
 import { COMPONENT_KINDS, ComponentInputSchema, type Component, type ComponentInput } from '../../../../shared/schemas/catalog';
@@ -32,8 +32,8 @@ export function ComponentForm({ component, readOnly, onSaved }: { component: Com
   const dowels = useFieldArray({ control: form.control, name: 'dowels' });
   const stops = useFieldArray({ control: form.control, name: 'stops' });
   const faces = useFieldArray({ control: form.control, name: 'jawFaces' });
-  const unit = form.watch('unit');
-  const hasClamp = form.watch('clamp') !== null;
+  const unit = useWatch({ control: form.control, name: 'unit' });
+  const hasClamp = useWatch({ control: form.control, name: 'clamp' }) !== null;
   const e = form.formState.errors;
   const submit = form.handleSubmit((values) => save.mutate(values, { onSuccess: onSaved, onError: (err) => applyServerIssues(err, form.setError) }));
 

@@ -1,4 +1,4 @@
-import { useForm } from 'react-hook-form';
+import { useForm, useWatch } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { PlateInputSchema, type Plate, type PlateInput } from '../../../../shared/schemas/catalog';
 import { Button } from '../../../components/ui/button';
@@ -15,7 +15,7 @@ export function PlateForm({ plate, readOnly, onSaved }: { plate: Plate | null; r
     resolver: zodResolver(PlateInputSchema) as never,
     defaultValues: plate ?? { code: '', name: '', unit: 'in', pitch: 2, columns: 12, rows: 8, holeDiameter: 0.5, thread: '', notes: '' },
   });
-  const unit = form.watch('unit');
+  const unit = useWatch({ control: form.control, name: 'unit' });
   const e = form.formState.errors;
   const submit = form.handleSubmit((values) =>
     save.mutate(values, { onSuccess: (p) => onSaved(p), onError: (err) => applyServerIssues(err, form.setError) }),

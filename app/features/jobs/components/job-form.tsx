@@ -1,5 +1,5 @@
-import { useEffect, useRef } from 'react';
-import { useForm, type UseFormSetError } from 'react-hook-form';
+import { useEffect, useMemo, useRef } from 'react';
+import { useForm, useWatch, type UseFormSetError } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { JobInputSchema, type JobFields, type JobInput } from '../../../../shared/schemas/job';
 import { PART_ROTATIONS } from '../../../../shared/jobs/job-problems';
@@ -36,9 +36,9 @@ export function JobForm({ templates, defaultValues, title, submitLabel, pending,
     defaultValues: defaultValues ?? { name: '', partNumber: '', partRevision: '', templateId: 0, version: 0, stock: { material: '' }, loadMinutes: 0, partRotation: 0, notes: '' } as JobInput,
   });
   const e = form.formState.errors;
-  const templateId = Number(form.watch('templateId')) || 0;
+  const templateId = Number(useWatch({ control: form.control, name: 'templateId' })) || 0;
   const template = templates.find((t) => t.id === templateId) ?? null;
-  const versions = template ? released(template) : [];
+  const versions = useMemo(() => (template ? released(template) : []), [template]);
   const unit = template?.unit;
 
   // A newly chosen template starts on its latest release; the version stays when it is still listed.

@@ -1,4 +1,4 @@
-import { useEffect, useState } from 'react';
+import { useState } from 'react';
 import { ClipboardList } from 'lucide-react';
 import type { JobDetail } from '../../../../shared/schemas/job';
 import type { LoadList } from '../../../../shared/schemas/load-list';
@@ -20,7 +20,13 @@ export function LoadListPanel({ job, canEdit }: { job: JobDetail; canEdit: boole
   const list = useLoadList(job.id, job.stockChecks.length > 0);
   const save = useSaveLoadList(job.id);
   const [rails, setRails] = useState<Rails | null>(null);
-  useEffect(() => { if (list.data) setRails(list.data.rails); }, [list.data]);
+  // A fresh load list from the server replaces the edited rails (React docs, "Adjusting some state
+  // when a prop changes": set during render, not in an effect).
+  const [shown, setShown] = useState<typeof list.data>(undefined);
+  if (list.data && list.data !== shown) {
+    setShown(list.data);
+    setRails(list.data.rails);
+  }
   if (!job.stockChecks.length) return null;
   if (list.error) return <ErrorText error={list.error} />;
   if (!list.data || !rails) return <p className="text-slate-700">Loading the load list…</p>;

@@ -1,4 +1,4 @@
-import { useEffect, useId, useMemo, useRef, useState, type FormEvent } from 'react';
+import { useId, useMemo, useRef, useState, type FormEvent } from 'react';
 import { useQuery } from '@tanstack/react-query';
 import { Download, Upload } from 'lucide-react';
 import type { JobDetail } from '../../../../shared/schemas/job';
@@ -28,9 +28,13 @@ export function PartProgramPanel({ job, canEdit }: { job: JobDetail; canEdit: bo
   // Stations the load list leaves without a bar are skipped unless the programmer changes it.
   const loadList = useLoadList(job.id, job.stockChecks.length > 0);
   const [skipTouched, setSkipTouched] = useState(false);
-  useEffect(() => {
-    if (!skipTouched && loadList.data) setSkip(loadList.data.emptyStations.filter((n) => job.stationsUsed.includes(n)));
-  }, [loadList.data, skipTouched, job.stationsUsed]);
+  // Set during render when the load list or the stations change (React docs, "Adjusting some state
+  // when a prop changes"), not in an effect.
+  const [seen, setSeen] = useState<{ list: unknown; used: unknown }>({ list: undefined, used: undefined });
+  if (!skipTouched && loadList.data && (loadList.data !== seen.list || job.stationsUsed !== seen.used)) {
+    setSeen({ list: loadList.data, used: job.stationsUsed });
+    setSkip(loadList.data.emptyStations.filter((n) => job.stationsUsed.includes(n)));
+  }
   const [safeZ, setSafeZ] = useState('');
   const [base, setBase] = useState('');
   const needsBase = setsOffsets(family);

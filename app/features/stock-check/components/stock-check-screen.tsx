@@ -50,6 +50,7 @@ export function StockCheckScreen({ components }: { components: readonly Componen
   const unitRef = useRef<Unit>('in');
   const resultsHeading = useRef<HTMLHeadingElement>(null);
 
+  // eslint-disable-next-line react-hooks/incompatible-library -- the whole form re-renders the live check on every keystroke by design
   const values = form.watch();
   const rail = rails.find((r) => String(r.id) === values.railId) ?? null;
   const unit = rail?.unit ?? null;

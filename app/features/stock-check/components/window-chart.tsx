@@ -104,7 +104,8 @@ export function WindowChart({ input }: { input: ChartInput }) {
 
   // Lanes grow to hold their stacked marks, so bars of the same width stay visible side by side.
   let y = TOP;
-  const layout: LaneLayout[] = lanes.map((lane) => {
+  const layout: LaneLayout[] = [];
+  for (const lane of lanes) {
     const base = lane.marks.map((m) => {
       const off = offScale(m.width, domain);
       const px = off === 'below' ? plotL + 10 : off === 'above' ? plotR - 10 : x(m.width);
@@ -117,8 +118,8 @@ export function WindowChart({ input }: { input: ChartInput }) {
     const height = Math.max(MIN_LANE_H, BAND_TOP + bandH + LANE_GAP);
     const out = { lane, top: y, height, bandH, marks: base.map((m, i) => ({ ...m, row: rows[i]! })) };
     y += height;
-    return out;
-  });
+    layout.push(out);
+  }
   const plotBottom = y;
   const height = plotBottom + BOTTOM;
 

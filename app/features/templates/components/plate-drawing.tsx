@@ -179,16 +179,23 @@ export function PlateDrawing(props: PlateDrawingProps) {
   const plate = useMemo(() => buildPlateScene(content), [content]);
   const unit = plate.unit;
   const { sizes } = plate;
+  // Origins are compared by value: callers often rebuild the object on each render.
+  const { x: originX, y: originY } = origin;
   const stationScene = useMemo(
-    () => buildStationScene(content, stations, origin, unit, displayUnit, sizes.cross),
-    // The origin is compared by value: callers often rebuild the object on each render.
-    [content, stations, origin.x, origin.y, unit, displayUnit, sizes.cross],
+    () => buildStationScene(content, stations, { x: originX, y: originY }, unit, displayUnit, sizes.cross),
+    [content, stations, originX, originY, unit, displayUnit, sizes.cross],
   );
   const overlayContent = overlay?.content;
+  const overlayStations = overlay?.stations;
+  const overlayX = overlay?.origin.x ?? 0;
+  const overlayY = overlay?.origin.y ?? 0;
   const older = useMemo(() => (overlayContent ? buildPlateScene(overlayContent, unit) : null), [overlayContent, unit]);
   const olderStations = useMemo(
-    () => (overlay && older ? buildStationScene(overlay.content, overlay.stations, overlay.origin, unit, displayUnit, sizes.cross) : null),
-    [older, overlay?.stations, overlay?.origin.x, overlay?.origin.y, unit, displayUnit, sizes.cross],
+    () =>
+      overlayContent && overlayStations && older
+        ? buildStationScene(overlayContent, overlayStations, { x: overlayX, y: overlayY }, unit, displayUnit, sizes.cross)
+        : null,
+    [older, overlayContent, overlayStations, overlayX, overlayY, unit, displayUnit, sizes.cross],
   );
   const changes = useMemo(() => (older ? comparePlacements(older, plate) : null), [older, plate]);
   const faults = useMemo(() => faultsByPlacement(problems ?? []), [problems]);
@@ -304,9 +311,9 @@ export function PlateDrawing(props: PlateDrawingProps) {
   const px = printMode ? sizes.text / 13 : 1 / scale;
   // Labels near the view only, when there are too many to draw all; the window moves in steps.
   const nearView = cullWindow(view);
-  const nearKey = `${nearView.minX} ${nearView.maxX} ${nearView.minY} ${nearView.maxY}`;
+  const { minX, maxX, minY, maxY } = nearView;
   // Memoized on its value, so the label layers get a new window only when it steps.
-  const cull = useMemo(() => nearView, [nearKey]);
+  const cull = useMemo(() => ({ minX, maxX, minY, maxY }), [minX, maxX, minY, maxY]);
   const stationCull = printMode || stationScene.stations.length <= UNCULLED_LIMIT ? null : cull;
   const labelCull = printMode || plate.placements.length <= UNCULLED_LIMIT ? null : cull;
   // Problem words are few and screen-sized; past a handful in view they would bury the
