@@ -8,8 +8,8 @@ import { Passport } from 'passport';
 import { Strategy as LocalStrategy } from 'passport-local';
 import { csrfSync } from 'csrf-sync';
 import { targetOf, type Db } from './db/knex';
-import { SessionStore } from './db/session-store';
-import { usersRepo } from './db/users-repo';
+import { SessionStore, takeSessionUserRow } from './db/session-store';
+import { toUser, usersRepo } from './db/users-repo';
 import { catalogRepo } from './db/catalog-repo';
 import { settingsRepo } from './db/settings-repo';
 import { usersService } from './services/users';
@@ -137,8 +137,15 @@ export function createApp(deps: AppDeps): GridsetApp {
     }),
   );
   passport.serializeUser((user, done) => done(null, (user as Express.User).id));
-  passport.deserializeUser((id: number, done) => {
-    // A deactivated user's existing sessions stop working at their next request.
+  passport.deserializeUser((req: express.Request, id: number, done: (err: unknown, user?: Express.User | false) => void) => {
+    // A deactivated user's existing sessions stop working at their next request: the user is read
+    // from the database on every request, with the session itself (SessionStore.get) or else by id.
+    const row = takeSessionUserRow(req, id);
+    if (row !== undefined) {
+      const u = row && toUser(row);
+      done(null, u && u.active ? u : false);
+      return;
+    }
     userRows.findById(id).then((u) => done(null, u && u.active ? u : false), done);
   });
   api.use(passport.session());

@@ -1,0 +1,68 @@
+import type BetterSqlite3 from 'better-sqlite3';
+import type { Knex } from 'knex';
+import { toNumber } from '../dialect';
+import type { ComponentPageQuery, HotReads, StoredComponentRow, StoredUserRow } from './types';
+
+const USER_COLUMNS = 'u.id, u.email, u.name, u.role, u.password_hash, u.active, u.display_unit, u.created_at';
+
+/**
+ * SQLite: the session's expiry compared as connect-session-knex compares it ("datetime(?) <=
+ * datetime(expired)"), the user found through the id passport keeps under passport.user (json_extract,
+ * SQLite documentation "JSON Functions").
+ */
+export const SQLITE_SQL = {
+  sessionAndUser: `select s.sess as sess, ${USER_COLUMNS} from sessions s left join users u on u.id = json_extract(s.sess, '$.passport.user') where s.sid = ? and datetime(?) <= datetime(s.expired)`,
+  userById: `select ${USER_COLUMNS} from users u where u.id = ?`,
+  // LIKE ignores ASCII case in SQLite; "limit -1" is no limit (SQLite documentation, "SELECT").
+  componentCount: `select count(*) as total from components c where (@kind is null or c.kind = @kind) and (@pattern is null or c.code like @pattern escape '\\' or c.name like @pattern escape '\\' or c.layer like @pattern escape '\\')`,
+  componentPage: `select c.*, u.n as used_by from components c
+    left join (select component_id, count(distinct version_id) as n from template_version_components group by component_id) u on u.component_id = c.id
+    where (@kind is null or c.kind = @kind) and (@pattern is null or c.code like @pattern escape '\\' or c.name like @pattern escape '\\' or c.layer like @pattern escape '\\')
+    order by c.code limit @limit offset @offset`,
+  versionHash: 'select content_hash from template_versions where template_id = ? and number = ?',
+  stamp: 'select version from read_stamps where name = ?',
+} as const;
+
+type Statements = { [K in keyof typeof SQLITE_SQL]: BetterSqlite3.Statement };
+
+// better-sqlite3 keeps a prepared statement for the life of its connection; the pool's connection is kept.
+const prepared = new WeakMap<BetterSqlite3.Database, Statements>();
+
+function statementsOf(conn: BetterSqlite3.Database): Statements {
+  let s = prepared.get(conn);
+  if (!s) {
+    s = Object.fromEntries(Object.entries(SQLITE_SQL).map(([k, sql]) => [k, conn.prepare(sql)])) as Statements;
+    prepared.set(conn, s);
+  }
+  return s;
+}
+
+export function sqliteHotReads(db: Knex): HotReads {
+  // The connection comes from Knex's own pool (one connection for a SQLite file), so these reads wait
+  // for a running transaction as the query builder's would, and a transaction handle reads through it.
+  async function withStatements<T>(work: (s: Statements) => T): Promise<T> {
+    const conn = (await db.client.acquireConnection()) as BetterSqlite3.Database;
+    try {
+      return work(statementsOf(conn));
+    } finally {
+      await db.client.releaseConnection(conn);
+    }
+  }
+  return {
+    sessionAndUser: (sid, now) => withStatements((s) => {
+      const row = s.sessionAndUser.get(sid, now.toISOString()) as (StoredUserRow & { sess: string; id: number | null }) | undefined;
+      if (!row) return undefined;
+      const { sess, ...user } = row;
+      return { sess, user: user.id === null ? undefined : user };
+    }),
+    userById: (id) => withStatements((s) => s.userById.get(id) as StoredUserRow | undefined),
+    componentPage: (q: ComponentPageQuery) => withStatements((s) => {
+      const filter = { kind: q.kind, pattern: q.pattern };
+      const { total } = s.componentCount.get(filter) as { total: number };
+      const rows = s.componentPage.all({ ...filter, limit: q.limit ?? -1, offset: q.offset }) as StoredComponentRow[];
+      return { rows, total: toNumber(total) };
+    }),
+    stamp: (name) => withStatements((s) => toNumber((s.stamp.get(name) as { version: number } | undefined)?.version)),
+    versionHash: (templateId, number) => withStatements((s) => (s.versionHash.get(templateId, number) as { content_hash: string } | undefined)?.content_hash),
+  };
+}
