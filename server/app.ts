@@ -114,7 +114,10 @@ export function createApp(deps: AppDeps): GridsetApp {
   // a plain-HTTP shop network they would make http://server:3000 load no script at all.
   const overHttp = helmet({ contentSecurityPolicy: { directives: { upgradeInsecureRequests: null } }, strictTransportSecurity: false });
   const overHttps = helmet();
-  app.use((req, res, next) => (deps.https || req.secure ? overHttps : overHttp)(req, res, next));
+  // req.secure asks the trust-proxy rule (an address parse) each time; a plain socket can only be
+  // secure through a forwarded protocol header, so the rule is asked only when one came.
+  const overHttpsRequest = (req: express.Request) => deps.https || (req.socket as { encrypted?: boolean }).encrypted === true || (req.headers['x-forwarded-proto'] !== undefined && req.secure);
+  app.use((req, res, next) => (overHttpsRequest(req) ? overHttps : overHttp)(req, res, next));
 
   const api = Router();
   api.use(express.json({ limit: '10mb' }));

@@ -1,4 +1,4 @@
-import type BetterSqlite3 from 'better-sqlite3';
+import BetterSqlite3 from 'better-sqlite3';
 import type { Knex } from 'knex';
 import { toNumber } from '../dialect';
 import type { ComponentPageQuery, HotReads, StoredComponentRow, StoredUserRow } from './types';
@@ -23,29 +23,75 @@ export const SQLITE_SQL = {
   stamp: 'select version from read_stamps where name = ?',
 } as const;
 
-type Statements = { [K in keyof typeof SQLITE_SQL]: BetterSqlite3.Statement };
+type Statements = { -readonly [K in keyof typeof SQLITE_SQL]: BetterSqlite3.Statement };
 
-// better-sqlite3 keeps a prepared statement for the life of its connection; the pool's connection is kept.
+// better-sqlite3 keeps a prepared statement for the life of its connection; each is prepared on its
+// first use (a table a later migration makes need not exist yet).
 const prepared = new WeakMap<BetterSqlite3.Database, Statements>();
 
 function statementsOf(conn: BetterSqlite3.Database): Statements {
   let s = prepared.get(conn);
   if (!s) {
-    s = Object.fromEntries(Object.entries(SQLITE_SQL).map(([k, sql]) => [k, conn.prepare(sql)])) as Statements;
+    const made: Partial<Statements> = {};
+    s = {} as Statements;
+    for (const k of Object.keys(SQLITE_SQL) as (keyof Statements)[]) {
+      Object.defineProperty(s, k, { get: () => (made[k] ??= conn.prepare(SQLITE_SQL[k])) });
+    }
     prepared.set(conn, s);
   }
   return s;
 }
 
+interface KnexSqliteClient {
+  connectionSettings?: { filename?: string };
+  destroy: (...args: unknown[]) => Promise<unknown>;
+  acquireConnection: () => Promise<unknown>;
+  releaseConnection: (conn: unknown) => unknown;
+}
+
+/**
+ * A reading connection of its own on the app's SQLite file, opened on first use and closed with the
+ * database handle: in WAL mode it reads the last committed state while the pool's one connection
+ * writes (SQLite documentation, "Write-Ahead Logging"), and it needs no trip through the pool.
+ */
+function ownReader(client: KnexSqliteClient): (() => BetterSqlite3.Database) | undefined {
+  const file = client.connectionSettings?.filename;
+  if (!file || file === ':memory:' || file.startsWith('file:')) return undefined;
+  let conn: BetterSqlite3.Database | undefined;
+  let closed = false;
+  const destroy = client.destroy.bind(client);
+  client.destroy = async (...args: unknown[]) => {
+    closed = true;
+    conn?.close();
+    conn = undefined;
+    return destroy(...args);
+  };
+  return () => {
+    if (closed) throw new Error('The database has been closed.');
+    if (!conn) {
+      conn = new BetterSqlite3(file, { fileMustExist: true });
+      conn.pragma('busy_timeout = 5000');
+    }
+    return conn;
+  };
+}
+
+const readers = new WeakMap<object, (() => BetterSqlite3.Database) | undefined>();
+
 export function sqliteHotReads(db: Knex): HotReads {
-  // The connection comes from Knex's own pool (one connection for a SQLite file), so these reads wait
-  // for a running transaction as the query builder's would, and a transaction handle reads through it.
+  const client = db.client as KnexSqliteClient;
+  const inTransaction = (db as { isTransaction?: boolean }).isTransaction === true;
+  if (!inTransaction && !readers.has(client)) readers.set(client, ownReader(client));
+  const reader = inTransaction ? undefined : readers.get(client);
+  // Inside a transaction the reads go through its connection (they see its own writes); with no file
+  // of its own, through Knex's pool, waiting for a running transaction as the query builder would.
   async function withStatements<T>(work: (s: Statements) => T): Promise<T> {
-    const conn = (await db.client.acquireConnection()) as BetterSqlite3.Database;
+    if (reader) return work(statementsOf(reader()));
+    const conn = (await client.acquireConnection()) as BetterSqlite3.Database;
     try {
       return work(statementsOf(conn));
     } finally {
-      await db.client.releaseConnection(conn);
+      await client.releaseConnection(conn);
     }
   }
   return {
