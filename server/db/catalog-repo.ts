@@ -73,14 +73,15 @@ export function catalogRepo(db: Db) {
    * The page as bytes to send, kept rendered while the catalog's read stamp stays where it was: one
    * read of the stamp instead of the page's rows. The stamp is read before the rows, and every write
    * moves it in its own transaction, so a page is never kept under a stamp older than its rows. Never
-   * kept inside a transaction (its rows may yet roll back).
+   * kept inside a transaction (its rows may yet roll back). `readStamp`, when given, is the stamp as
+   * read earlier in the same request (with its session), saving a read.
    */
-  async function listComponentsBody(query: ListQuery & { kind?: string }): Promise<JsonBody> {
+  async function listComponentsBody(query: ListQuery & { kind?: string }, readStamp?: number): Promise<JsonBody> {
     if (db.isTransaction) return jsonBody(await listComponentsJson(query));
     let pages = pageCaches.get(db);
     if (!pages) pageCaches.set(db, (pages = new Map()));
     const key = JSON.stringify([query.kind ?? null, query.q ?? null, query.limit ?? null, query.offset ?? 0]);
-    const stamp = await hot.stamp('catalog');
+    const stamp = readStamp ?? (await hot.stamp('catalog'));
     const hit = pages.get(key);
     if (hit && hit.stamp === stamp) return hit.body;
     const body = jsonBody(await listComponentsJson(query));

@@ -9,8 +9,16 @@ const TOUCH_EVERY_MS = 60_000;
 // The user row read with the session rides on the session data under a symbol: express-session's
 // Session copies only enumerable string keys, and JSON.stringify skips symbols, so it is never stored.
 const USER_ROW = Symbol('signed-in user row');
-type WithUserRow = SessionData & { [USER_ROW]?: StoredUserRow | null };
+type WithUserRow = SessionData & { [USER_ROW]?: { user: StoredUserRow | null; catalogStamp: number } };
 const userRows = new WeakMap<object, StoredUserRow | null>();
+const catalogStamps = new WeakMap<object, number>();
+
+/**
+ * The catalog's read stamp as read with this request's session (the same statement), or undefined
+ * when the request had no stored session: read before anything the request reads afterwards, so it is
+ * a stamp a page read after it may be kept under (read-stamps.ts).
+ */
+export const sessionCatalogStamp = (req: object): number | undefined => catalogStamps.get(req);
 
 /**
  * The user row read together with this request's session (the same statement, this request), or
@@ -51,7 +59,7 @@ export class SessionStore extends ConnectSessionKnexStore {
       const found = await this.hot.sessionAndUser(sid, new Date());
       if (found) {
         session = (typeof found.sess === 'string' ? JSON.parse(found.sess) : found.sess) as WithUserRow;
-        session[USER_ROW] = found.user ?? null;
+        session[USER_ROW] = { user: found.user ?? null, catalogStamp: found.catalogStamp };
       }
     } catch (err) {
       callback?.(err);
@@ -63,8 +71,10 @@ export class SessionStore extends ConnectSessionKnexStore {
 
   override createSession(req: Request, session: SessionData): Session & SessionData {
     const withRow = session as WithUserRow;
-    if (USER_ROW in withRow) {
-      userRows.set(req, withRow[USER_ROW]!);
+    const read = withRow[USER_ROW];
+    if (read) {
+      userRows.set(req, read.user);
+      catalogStamps.set(req, read.catalogStamp);
       delete withRow[USER_ROW];
     }
     return super.createSession(req, session);

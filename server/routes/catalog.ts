@@ -5,6 +5,7 @@ import { currentUser } from '../middleware/auth';
 import type { CatalogService } from '../services/catalog';
 import { parseOr400 } from './parse';
 import { sendRevalidated } from './conditional';
+import { sessionCatalogStamp } from '../db/session-store';
 import { jsonBody } from '../json-body';
 import type { RouteDef } from './route-table';
 
@@ -32,7 +33,8 @@ export function catalogRoutes(catalog: CatalogService): RouteDef[] {
     } },
 
     { method: 'get', path: '/components', access: 'signed-in', handler: async (req, res) => {
-      sendRevalidated(res, await catalog.listComponentsBody(parseOr400(ComponentListQuerySchema, req.query, 'query')));
+      // The catalog's stamp came with the session read: the kept page is checked against it, no second read.
+      sendRevalidated(res, await catalog.listComponentsBody(parseOr400(ComponentListQuerySchema, req.query, 'query'), sessionCatalogStamp(req)));
     } },
     { method: 'post', path: '/components', access: CAN.editCatalog, handler: async (req, res) => {
       res.status(201).json(await catalog.createComponent(currentUser(req).id, parseOr400(ComponentInputSchema, req.body, 'component')));

@@ -187,6 +187,8 @@ describe('hot reads (prepared statements) answer what the query builder answers'
     const expiry = new Date(signedIn.expired);
     const found = await hot.sessionAndUser(signedIn.sid, new Date(expiry.getTime() - 60_000));
     expect(found?.user?.id).toBe(userId);
+    const stampRow = (await t.db('read_stamps').where({ name: 'catalog' }).first()) as { version: number | string } | undefined;
+    expect(found?.catalogStamp).toBe(Number(stampRow?.version ?? 0));
     const user = (await t.db('users').where({ id: userId }).first()) as { email: string };
     expect(found?.user?.email).toBe(user.email);
     expect(await hot.sessionAndUser(signedIn.sid, new Date(expiry.getTime() + 60_000))).toBeUndefined();

@@ -15,7 +15,7 @@ const COMPONENT_FILTER = `($1::text is null or c.kind = $1::text) and ($2::text 
  * round trip): a page past the end is one row of nulls beside the count.
  */
 export const POSTGRES_SQL = {
-  sessionAndUser: `select s.sess::text as sess, ${USER_COLUMNS} from sessions s left join users u on u.id = (s.sess -> 'passport' ->> 'user')::integer where s.sid = $1 and CAST($2 as timestamp with time zone) <= s.expired`,
+  sessionAndUser: `select s.sess::text as sess, (select version from read_stamps where name = 'catalog') as catalog_stamp, ${USER_COLUMNS} from sessions s left join users u on u.id = (s.sess -> 'passport' ->> 'user')::integer where s.sid = $1 and CAST($2 as timestamp with time zone) <= s.expired`,
   userById: `select ${USER_COLUMNS} from users u where u.id = $1`,
   componentPage: `select t.total as page_total, p.* from (select count(*) as total from components c where ${COMPONENT_FILTER}) t
     left join (
@@ -43,10 +43,10 @@ export function postgresHotReads(db: Knex): HotReads {
   }
   return {
     async sessionAndUser(sid, now) {
-      const [row] = await rows<StoredUserRow & { sess: string; id: number | null }>(statement('sessionAndUser', [sid, now.toISOString()]));
+      const [row] = await rows<StoredUserRow & { sess: string; catalog_stamp: string | null; id: number | null }>(statement('sessionAndUser', [sid, now.toISOString()]));
       if (!row) return undefined;
-      const { sess, ...user } = row;
-      return { sess, user: user.id === null ? undefined : user };
+      const { sess, catalog_stamp, ...user } = row;
+      return { sess, user: user.id === null ? undefined : user, catalogStamp: toNumber(catalog_stamp) };
     },
     async userById(id) {
       return (await rows<StoredUserRow>(statement('userById', [id])))[0];

@@ -11,7 +11,7 @@ const USER_COLUMNS = 'u.id, u.email, u.name, u.role, u.password_hash, u.active, 
  * SQLite documentation "JSON Functions").
  */
 export const SQLITE_SQL = {
-  sessionAndUser: `select s.sess as sess, ${USER_COLUMNS} from sessions s left join users u on u.id = json_extract(s.sess, '$.passport.user') where s.sid = ? and datetime(?) <= datetime(s.expired)`,
+  sessionAndUser: `select s.sess as sess, (select version from read_stamps where name = 'catalog') as catalog_stamp, ${USER_COLUMNS} from sessions s left join users u on u.id = json_extract(s.sess, '$.passport.user') where s.sid = ? and datetime(?) <= datetime(s.expired)`,
   userById: `select ${USER_COLUMNS} from users u where u.id = ?`,
   // LIKE ignores ASCII case in SQLite; "limit -1" is no limit (SQLite documentation, "SELECT").
   componentCount: `select count(*) as total from components c where (@kind is null or c.kind = @kind) and (@pattern is null or c.code like @pattern escape '\\' or c.name like @pattern escape '\\' or c.layer like @pattern escape '\\')`,
@@ -96,10 +96,10 @@ export function sqliteHotReads(db: Knex): HotReads {
   }
   return {
     sessionAndUser: (sid, now) => withStatements((s) => {
-      const row = s.sessionAndUser.get(sid, now.toISOString()) as (StoredUserRow & { sess: string; id: number | null }) | undefined;
+      const row = s.sessionAndUser.get(sid, now.toISOString()) as (StoredUserRow & { sess: string; catalog_stamp: number | null; id: number | null }) | undefined;
       if (!row) return undefined;
-      const { sess, ...user } = row;
-      return { sess, user: user.id === null ? undefined : user };
+      const { sess, catalog_stamp, ...user } = row;
+      return { sess, user: user.id === null ? undefined : user, catalogStamp: toNumber(catalog_stamp) };
     }),
     userById: (id) => withStatements((s) => s.userById.get(id) as StoredUserRow | undefined),
     componentPage: (q: ComponentPageQuery) => withStatements((s) => {

@@ -18,8 +18,11 @@ export interface StoredComponentRow {
   created_at: string | Date; updated_at: string | Date; used_by?: number | string | null;
 }
 
-/** A stored, unexpired session (its data as stored: JSON text or already parsed) and the user it is signed in as, if any. */
-export interface SessionAndUser { sess: string | object; user: StoredUserRow | undefined }
+/**
+ * A stored, unexpired session (its data as stored: JSON text or already parsed), the user it is
+ * signed in as, if any, and the catalog's read stamp as it stood at that read (read-stamps.ts).
+ */
+export interface SessionAndUser { sess: string | object; user: StoredUserRow | undefined; catalogStamp: number }
 
 /** One catalog page: `pattern` is a contains-pattern with its escape character (dialect.containsPattern), or null for all. */
 export interface ComponentPageQuery { kind: string | null; pattern: string | null; limit: number | null; offset: number }
