@@ -120,7 +120,10 @@ export function createApp(deps: AppDeps): GridsetApp {
   app.use((req, res, next) => (overHttpsRequest(req) ? overHttps : overHttp)(req, res, next));
 
   const api = Router();
-  api.use(express.json({ limit: '10mb' }));
+  // GET and HEAD carry no body (RFC 9110, 9.3.1 and 9.3.2: content has no defined meaning), so the
+  // hot reads skip the JSON parser's checks.
+  const json = express.json({ limit: '10mb' });
+  api.use((req, res, next) => (req.method === 'GET' || req.method === 'HEAD' ? next() : json(req, res, next)));
   api.use(
     session({
       name: 'gridset.sid',
