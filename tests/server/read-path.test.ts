@@ -92,6 +92,14 @@ describe('conditional GETs on catalog and version reads', () => {
     for (const c of await page()) expect(c.usedBy).toBe(before.get(c.code)! + (used.has(c.code) ? 1 : 0));
   });
 
+  it('routes grouped by their first word still answer an unknown path under that word as no route', async () => {
+    const res = await operator.get('/api/templates/1/versions/1/nothing-here').expect(404);
+    expect(res.body.error.message).toBe('There is no API route GET /templates/1/versions/1/nothing-here.');
+    // The same word's list route and a route with a dot after the word are still found.
+    await operator.get('/api/templates').expect(200);
+    expect((await operator.get('/api/manifest.xlsx')).status).not.toBe(404);
+  });
+
   it('an unknown version is 404 with its sentence, never a kept answer', async () => {
     const res = await operator.get('/api/templates/1/versions/999/stations').expect(404);
     expect(res.body.error.message).toBe('Version 999 of template 1 was not found.');
