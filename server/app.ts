@@ -8,8 +8,8 @@ import { Passport } from 'passport';
 import { Strategy as LocalStrategy } from 'passport-local';
 import { csrfSync } from 'csrf-sync';
 import { targetOf, type Db } from './db/knex';
-import { SessionStore } from './db/session-store';
-import { usersRepo } from './db/users-repo';
+import { SessionStore, takeSessionUserRow } from './db/session-store';
+import { toUser, usersRepo } from './db/users-repo';
 import { catalogRepo } from './db/catalog-repo';
 import { settingsRepo } from './db/settings-repo';
 import { usersService } from './services/users';
@@ -114,10 +114,16 @@ export function createApp(deps: AppDeps): GridsetApp {
   // a plain-HTTP shop network they would make http://server:3000 load no script at all.
   const overHttp = helmet({ contentSecurityPolicy: { directives: { upgradeInsecureRequests: null } }, strictTransportSecurity: false });
   const overHttps = helmet();
-  app.use((req, res, next) => (deps.https || req.secure ? overHttps : overHttp)(req, res, next));
+  // req.secure asks the trust-proxy rule (an address parse) each time; a plain socket can only be
+  // secure through a forwarded protocol header, so the rule is asked only when one came.
+  const overHttpsRequest = (req: express.Request) => deps.https || (req.socket as { encrypted?: boolean }).encrypted === true || (req.headers['x-forwarded-proto'] !== undefined && req.secure);
+  app.use((req, res, next) => (overHttpsRequest(req) ? overHttps : overHttp)(req, res, next));
 
   const api = Router();
-  api.use(express.json({ limit: '10mb' }));
+  // GET and HEAD carry no body (RFC 9110, 9.3.1 and 9.3.2: content has no defined meaning), so the
+  // hot reads skip the JSON parser's checks.
+  const json = express.json({ limit: '10mb' });
+  api.use((req, res, next) => (req.method === 'GET' || req.method === 'HEAD' ? next() : json(req, res, next)));
   api.use(
     session({
       name: 'gridset.sid',
@@ -137,8 +143,15 @@ export function createApp(deps: AppDeps): GridsetApp {
     }),
   );
   passport.serializeUser((user, done) => done(null, (user as Express.User).id));
-  passport.deserializeUser((id: number, done) => {
-    // A deactivated user's existing sessions stop working at their next request.
+  passport.deserializeUser((req: express.Request, id: number, done: (err: unknown, user?: Express.User | false) => void) => {
+    // A deactivated user's existing sessions stop working at their next request: the user is read
+    // from the database on every request, with the session itself (SessionStore.get) or else by id.
+    const row = takeSessionUserRow(req, id);
+    if (row !== undefined) {
+      const u = row && toUser(row);
+      done(null, u && u.active ? u : false);
+      return;
+    }
     userRows.findById(id).then((u) => done(null, u && u.active ? u : false), done);
   });
   api.use(passport.session());

@@ -1,6 +1,8 @@
-import type { Knex } from 'knex';
 import type { Db } from './knex';
-import { isoTime, orderByText, paged, toNumber, whereContains } from './dialect';
+import { containsPattern, isoTime, orderByText, paged, toNumber, whereContains } from './dialect';
+import { hotReads, type StoredComponentRow } from './hot-reads';
+import { bumpReadStamp } from './read-stamps';
+import { jsonBody, type JsonBody } from '../json-body';
 import type { Component, ComponentFields, Plate, PlateFields } from '../../shared/schemas/catalog';
 import type { ListQuery } from '../../shared/schemas/common';
 
@@ -35,7 +37,7 @@ const stored = (text: string | null | undefined) => (text === null || text === u
  * as stored, so a list of a thousand components is not parsed and re-serialized (see the
  * catalog-list benchmark); services that need objects parse this text.
  */
-const componentJson = (r: ComponentRow): string =>
+const componentJson = (r: ComponentRow | StoredComponentRow): string =>
   `{"id":${str(r.id)},"code":${str(r.code)},"kind":${str(r.kind)},"name":${str(r.name)},"unit":${str(r.unit)},` +
   `"dowels":${stored(r.dowels)},"stops":${stored(r.stops)},"jawFaces":${stored(r.jaw_faces)},"clamp":${stored(r.clamp)},"outline":${stored(r.outline)},` +
   `"layer":${str(r.layer)},"notes":${str(r.notes)},"seatHeight":${str(toNumber(r.seat_height))},"jawTop":${r.jaw_top === null ? 'null' : str(toNumber(r.jaw_top))},` +
@@ -49,21 +51,44 @@ const componentToRow = (c: ComponentFields) => ({
 });
 
 
+/** Rendered component pages per database, by query; each is served only while the catalog stamp it was made at is current. */
+const PAGE_CACHE_SIZE = 100;
+const pageCaches = new WeakMap<Db, Map<string, { stamp: number; body: JsonBody }>>();
+
 export function catalogRepo(db: Db) {
   // How many templates use a plate, and how many template versions use a component; shown in lists, checked before delete.
   const plateUse = db('templates').select('plate_id').count({ n: '*' }).groupBy('plate_id').as('u');
   const componentUse = () => db('template_version_components').select('component_id').countDistinct({ n: 'version_id' }).groupBy('component_id').as('u');
   const components = () => db('components as c').leftJoin(componentUse(), 'u.component_id', 'c.id').select('c.*', 'u.n as used_by');
 
+  const hot = hotReads(db);
+
+  /** Contains-search over code, name and layer ignoring case, kind filter, code-point order by code: one prepared statement (hot-reads). */
   async function listComponentsJson(query: ListQuery & { kind?: string }): Promise<string> {
-    const filter = <T extends Knex.QueryBuilder>(q: T): T => {
-      if (query.q) whereContains(db, q, ['c.code', 'c.name', 'c.layer'], query.q);
-      if (query.kind) q.where('c.kind', query.kind);
-      return q;
-    };
-    const [{ total }] = (await filter(db('components as c')).count({ total: '*' })) as [{ total: number | string }];
-    const rows: ComponentRow[] = await paged(orderByText(db, filter(components()), 'c.code'), query.limit, query.offset);
-    return `{"items":[${rows.map(componentJson).join(',')}],"total":${toNumber(total)}}`;
+    const { rows, total } = await hot.componentPage({ kind: query.kind || null, pattern: query.q ? containsPattern(query.q) : null, limit: query.limit ?? null, offset: query.offset ?? 0 });
+    return `{"items":[${rows.map(componentJson).join(',')}],"total":${total}}`;
+  }
+
+  /**
+   * The page as bytes to send, kept rendered while the catalog's read stamp stays where it was: one
+   * read of the stamp instead of the page's rows. The stamp is read before the rows, and every write
+   * moves it in its own transaction, so a page is never kept under a stamp older than its rows. Never
+   * kept inside a transaction (its rows may yet roll back). `readStamp`, when given, is the stamp as
+   * read earlier in the same request (with its session), saving a read.
+   */
+  async function listComponentsBody(query: ListQuery & { kind?: string }, readStamp?: number): Promise<JsonBody> {
+    if (db.isTransaction) return jsonBody(await listComponentsJson(query));
+    let pages = pageCaches.get(db);
+    if (!pages) pageCaches.set(db, (pages = new Map()));
+    const key = JSON.stringify([query.kind ?? null, query.q ?? null, query.limit ?? null, query.offset ?? 0]);
+    const stamp = readStamp ?? (await hot.stamp('catalog'));
+    const hit = pages.get(key);
+    if (hit && hit.stamp === stamp) return hit.body;
+    const body = jsonBody(await listComponentsJson(query));
+    pages.delete(key);
+    pages.set(key, { stamp, body });
+    if (pages.size > PAGE_CACHE_SIZE) pages.delete(pages.keys().next().value!);
+    return body;
   }
 
   return {
@@ -96,8 +121,10 @@ export function catalogRepo(db: Db) {
     },
     deletePlate: (id: number, trx: Db = db) => trx('plates').where({ id }).delete(),
 
-    /** One page of components (all when no limit), ordered by code, as the list answer `{items, total}` in JSON text, ready to send. */
+    /** One page of components (all when no limit), ordered by code, as the list answer `{items, total}` in JSON text. */
     listComponentsJson,
+    /** The same page as bytes ready to send, with their ETag. */
+    listComponentsBody,
     /** The same list as objects. */
     async listComponents(query: ListQuery & { kind?: string }): Promise<{ items: Component[]; total: number }> {
       return JSON.parse(await listComponentsJson(query)) as { items: Component[]; total: number };
@@ -117,19 +144,26 @@ export function catalogRepo(db: Db) {
       return !!(await q.first());
     },
     async insertComponent(c: ComponentFields, trx: Db = db): Promise<number> {
+      await bumpReadStamp(trx, 'catalog');
       const [row] = await trx('components').insert(componentToRow(c)).returning('id');
       return (row as { id: number }).id;
     },
     async updateComponent(id: number, c: ComponentFields, trx: Db = db) {
+      await bumpReadStamp(trx, 'catalog');
       await trx('components').where({ id }).update({ ...componentToRow(c), updated_at: trx.fn.now() });
     },
     async updateComponentIn(trx: Db, id: number, c: ComponentFields) {
+      await bumpReadStamp(trx, 'catalog');
       await trx('components').where({ id }).update({ ...componentToRow(c), updated_at: trx.fn.now() });
     },
     async setOutline(id: number, outline: unknown, file: unknown, trx: Db = db) {
+      await bumpReadStamp(trx, 'catalog');
       await trx('components').where({ id }).update({ outline: JSON.stringify(outline), outline_file: JSON.stringify(file), updated_at: trx.fn.now() });
     },
-    deleteComponent: (id: number, trx: Db = db) => trx('components').where({ id }).delete(),
+    async deleteComponent(id: number, trx: Db = db) {
+      await bumpReadStamp(trx, 'catalog');
+      return trx('components').where({ id }).delete();
+    },
   };
 }
 export type CatalogRepo = ReturnType<typeof catalogRepo>;

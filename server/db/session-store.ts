@@ -1,8 +1,37 @@
 import { ConnectSessionKnexStore } from 'connect-session-knex';
-import type { SessionData } from 'express-session';
+import type { Request } from 'express';
+import type { Session, SessionData } from 'express-session';
 import type { Db } from './knex';
+import { hotReads, type HotReads, type StoredUserRow } from './hot-reads';
 
 const TOUCH_EVERY_MS = 60_000;
+
+// The user row read with the session rides on the session data under a symbol: express-session's
+// Session copies only enumerable string keys, and JSON.stringify skips symbols, so it is never stored.
+const USER_ROW = Symbol('signed-in user row');
+type WithUserRow = SessionData & { [USER_ROW]?: { user: StoredUserRow | null; catalogStamp: number } };
+const userRows = new WeakMap<object, StoredUserRow | null>();
+const catalogStamps = new WeakMap<object, number>();
+
+/**
+ * The catalog's read stamp as read with this request's session (the same statement), or undefined
+ * when the request had no stored session: read before anything the request reads afterwards, so it is
+ * a stamp a page read after it may be kept under (read-stamps.ts).
+ */
+export const sessionCatalogStamp = (req: object): number | undefined => catalogStamps.get(req);
+
+/**
+ * The user row read together with this request's session (the same statement, this request), or
+ * undefined when none was read for `id`; null when the session names a user that no longer exists.
+ * Taken once: a later call reads afresh.
+ */
+export function takeSessionUserRow(req: object, id: number): StoredUserRow | null | undefined {
+  if (!userRows.has(req)) return undefined;
+  const row = userRows.get(req);
+  userRows.delete(req);
+  if (row && row.id !== id) return undefined;
+  return row;
+}
 
 /**
  * Sessions kept in the app's own database, in the table its migrations make (never the store's
@@ -12,9 +41,43 @@ const TOUCH_EVERY_MS = 60_000;
  */
 export class SessionStore extends ConnectSessionKnexStore {
   private lastTouch = new Map<string, number>();
+  private hot: HotReads;
 
   constructor(db: Db) {
     super({ knex: db, tableName: 'sessions', createTable: false, cleanupInterval: 15 * 60 * 1000 });
+    this.hot = hotReads(db);
+  }
+
+  /**
+   * The unexpired session with its signed-in user in one prepared read (hot-reads) instead of two
+   * query-builder reads; passport's deserializer takes the user row from here (takeSessionUserRow).
+   * Errors go to express-session's callback (the request's error, a 503), never thrown on.
+   */
+  override async get(sid: string, callback: (err: unknown, session?: SessionData | null) => void): Promise<SessionData | null> {
+    let session: WithUserRow | null = null;
+    try {
+      const found = await this.hot.sessionAndUser(sid, new Date());
+      if (found) {
+        session = (typeof found.sess === 'string' ? JSON.parse(found.sess) : found.sess) as WithUserRow;
+        session[USER_ROW] = { user: found.user ?? null, catalogStamp: found.catalogStamp };
+      }
+    } catch (err) {
+      callback?.(err);
+      return null;
+    }
+    callback?.(null, session);
+    return session;
+  }
+
+  override createSession(req: Request, session: SessionData): Session & SessionData {
+    const withRow = session as WithUserRow;
+    const read = withRow[USER_ROW];
+    if (read) {
+      userRows.set(req, read.user);
+      catalogStamps.set(req, read.catalogStamp);
+      delete withRow[USER_ROW];
+    }
+    return super.createSession(req, session);
   }
 
   override async touch(sid: string, session: SessionData, callback?: () => void): Promise<void> {

@@ -2,6 +2,8 @@ import type { Db } from './knex';
 import type { TemplateContent } from '../../shared/schemas/template';
 import type { VersionState } from '../../shared/schemas/template-api';
 import { orderByText } from './dialect';
+import { hotReads } from './hot-reads';
+import { bumpReadStamp } from './read-stamps';
 
 export interface TemplateRow { id: number; name: string; plate_id: number; created_by: number | null; created_at: string | Date; updated_at: string | Date }
 export interface VersionRow {
@@ -25,6 +27,8 @@ export function templatesRepo(db: Db) {
     },
     nameTaken: async (name: string, trx: Db = db) => !!(await trx('templates').whereRaw('lower(name) = lower(?)', [name]).first()),
     versions: (templateId: number) => db<VersionRow>('template_versions').where({ template_id: templateId }).orderBy('number'),
+    /** The content hash of a version (one prepared read, hot-reads); undefined when there is no such version. */
+    contentHash: (templateId: number, number: number): Promise<string | undefined> => hotReads(db).versionHash(templateId, number),
     async version(templateId: number, number: number, trx: Db = db): Promise<StoredVersion | undefined> {
       const row = await trx<VersionRow>('template_versions').where({ template_id: templateId, number }).first();
       return row && { row, content: JSON.parse(row.content) as TemplateContent };
@@ -48,6 +52,8 @@ export function templatesRepo(db: Db) {
      * it first. Saving a draft is the draft → draft step with new content.
      */
     async applyTransition(trx: Db, versionId: number, expect: { from: VersionState; revision: number }, to: VersionState, draft?: { content: TemplateContent; hash: string; componentIds: number[] }): Promise<boolean> {
+      // Which versions use a component is part of the catalog's pages (usedBy); the stamp is taken first.
+      if (draft) await bumpReadStamp(trx, 'catalog');
       const n = await trx('template_versions')
         .where({ id: versionId, state: expect.from, revision: expect.revision })
         .update({ state: to, revision: expect.revision + 1, updated_at: trx.fn.now(), ...(draft ? { content: JSON.stringify(draft.content), content_hash: draft.hash, placement_count: draft.content.placements.length } : {}) });
@@ -71,5 +77,6 @@ export type TemplatesRepo = ReturnType<typeof templatesRepo>;
 
 async function linkComponents(trx: Db, versionId: number, componentIds: number[]) {
   const unique = [...new Set(componentIds)];
+  if (unique.length) await bumpReadStamp(trx, 'catalog');
   if (unique.length) await trx('template_version_components').insert(unique.map((component_id) => ({ version_id: versionId, component_id })));
 }

@@ -2,6 +2,7 @@ import type { Db } from './knex';
 import { forUpdate, isoTime, orderByText } from './dialect';
 import type { Role, User } from '../../shared/schemas/auth';
 import type { Unit } from '../../shared/schemas/common';
+import { hotReads, type StoredUserRow } from './hot-reads';
 
 interface UserRow {
   id: number;
@@ -14,26 +15,29 @@ interface UserRow {
   created_at: string;
 }
 
-const toUser = (r: UserRow): User => ({
+/** A users row as the API's user (never its password hash). */
+export const toUser = (r: UserRow | StoredUserRow): User => ({
   id: r.id,
   email: r.email,
   name: r.name,
-  role: r.role,
+  role: r.role as Role,
   active: !!r.active,
-  displayUnit: r.display_unit ?? null,
+  displayUnit: (r.display_unit as Unit | null) ?? null,
   invited: r.password_hash === null,
   createdAt: isoTime(r.created_at),
 });
 
 export function usersRepo(db: Db) {
+  const hot = hotReads(db);
   return {
     /**
      * Every signed-in request reads its user here, from the database each time (one primary-key
      * read): another app process may have changed the role or deactivated the user a moment ago,
-     * and a copy kept in this process's memory would go on signing their requests.
+     * and a copy kept in this process's memory would go on signing their requests. A statement
+     * prepared once (hot-reads), so the read costs little.
      */
     async findById(id: number): Promise<User | undefined> {
-      const row = await db<UserRow>('users').where({ id }).first();
+      const row = await hot.userById(id);
       return row && toUser(row);
     },
     async findWithHashByEmail(email: string): Promise<(User & { passwordHash: string | null }) | undefined> {

@@ -4,6 +4,9 @@ import { CAN } from '../../shared/schemas/auth';
 import { currentUser } from '../middleware/auth';
 import type { CatalogService } from '../services/catalog';
 import { parseOr400 } from './parse';
+import { sendRevalidated } from './conditional';
+import { sessionCatalogStamp } from '../db/session-store';
+import { jsonBody } from '../json-body';
 import type { RouteDef } from './route-table';
 
 const ComponentListQuerySchema = ListQuerySchema.extend({ kind: ComponentKindSchema.optional() });
@@ -30,13 +33,14 @@ export function catalogRoutes(catalog: CatalogService): RouteDef[] {
     } },
 
     { method: 'get', path: '/components', access: 'signed-in', handler: async (req, res) => {
-      res.type('application/json').send(await catalog.listComponentsJson(parseOr400(ComponentListQuerySchema, req.query, 'query')));
+      // The catalog's stamp came with the session read: the kept page is checked against it, no second read.
+      sendRevalidated(res, await catalog.listComponentsBody(parseOr400(ComponentListQuerySchema, req.query, 'query'), sessionCatalogStamp(req)));
     } },
     { method: 'post', path: '/components', access: CAN.editCatalog, handler: async (req, res) => {
       res.status(201).json(await catalog.createComponent(currentUser(req).id, parseOr400(ComponentInputSchema, req.body, 'component')));
     } },
     { method: 'get', path: '/components/:id', access: 'signed-in', handler: async (req, res) => {
-      res.json(await catalog.getComponent(id(req.params)));
+      sendRevalidated(res, jsonBody(JSON.stringify(await catalog.getComponent(id(req.params)))));
     } },
     { method: 'put', path: '/components/:id', access: CAN.editCatalog, handler: async (req, res) => {
       const componentId = id(req.params);

@@ -12,6 +12,8 @@ import { templateDrawing } from '../services/template-drawing';
 import { writeDrawingDxf } from '../dxf/write-dxf';
 import { drawingToSvg } from '../dxf/drawing-svg';
 import { parseOr400 } from './parse';
+import { sendRevalidated } from './conditional';
+import { jsonBody } from '../json-body';
 import type { RouteDef } from './route-table';
 
 const VersionParamsSchema = IdParamSchema.extend({
@@ -47,7 +49,7 @@ export function templateRoutes(templates: TemplatesService, settings: Pick<Setti
       res.status(201).json(await templates.newDraft(currentUser(req), id, from));
     } },
     { method: 'get', path: '/templates/:id/versions/:n', access: 'signed-in', handler: async (req, res) => {
-      res.json(await load(req.params));
+      sendRevalidated(res, jsonBody(JSON.stringify(await load(req.params))));
     } },
     { method: 'put', path: '/templates/:id/versions/:n', access: CAN.editTemplates, handler: async (req, res) => {
       const { id, n } = params(req.params);
@@ -59,11 +61,8 @@ export function templateRoutes(templates: TemplatesService, settings: Pick<Setti
       res.json(await templates.release(currentUser(req), id, n, waiver));
     } },
     { method: 'get', path: '/templates/:id/versions/:n/stations', access: 'signed-in', handler: async (req, res) => {
-      const v = await load(req.params);
-      res.json({
-        unit: v.unit, sharedOffset: v.sharedOffset,
-        stations: v.stations.map((s) => ({ number: s.number, x: s.x, y: s.y, z: s.z, c: s.c, nominalWidth: s.nominalWidth, placement: s.placement, stop: s.stop, id: s.id })),
-      });
+      const { id, n } = params(req.params);
+      sendRevalidated(res, await templates.stationTable(id, n));
     } },
     { method: 'get', path: '/templates/:id/versions/:n/stations.csv', access: 'signed-in', handler: async (req, res) => {
       const v = await load(req.params);

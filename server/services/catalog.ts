@@ -34,7 +34,7 @@ export function catalogService(repo: CatalogRepo, naming: NamingService, audit: 
       await audit.audited((trx) => repo.deletePlate(id, trx), () => ({ userId: actorId, action: 'plate.delete', objectType: 'plate', objectId: id, summary: `Deleted plate ${p.code}`, before: p }));
     },
 
-    listComponentsJson: (q: ListQuery & { kind?: string }) => repo.listComponentsJson(q),
+    listComponentsBody: (q: ListQuery & { kind?: string }, readStamp?: number) => repo.listComponentsBody(q, readStamp),
     async getComponent(id: number) {
       const c = await repo.getComponent(id);
       if (!c) throw notFound(`Component ${id}`);

@@ -8,6 +8,7 @@ import { canonicalJson } from '../../shared/interchange/canonical-json';
 import { layoutForHash, TEMPLATE_FORMAT, TEMPLATE_FORMAT_VERSION } from '../../shared/interchange/template-file';
 import { evaluateTemplate, type TemplateEvaluation } from '../../shared/stations/evaluate-template';
 import type { Db } from '../db/knex';
+import { jsonBody, type JsonBody } from '../json-body';
 import { isoTime, retryUniqueRace, toNumber } from '../db/dialect';
 import type { CatalogRepo } from '../db/catalog-repo';
 import type { StoredVersion, TemplatesRepo } from '../db/templates-repo';
@@ -36,6 +37,9 @@ const EVALUATION_CACHE_SIZE = 200;
 export function templatesService(deps: { db: Db; templates: TemplatesRepo; catalog: CatalogRepo; naming: NamingService; audit: AuditRepo }) {
   const { db, templates, catalog, naming, audit } = deps;
   const evaluations = new Map<string, TemplateEvaluation>();
+  // A version's station table as JSON text, by content hash: unit, shared offset and stations are all
+  // functions of the stored layout, so a read that finds the hash unchanged sends the same bytes.
+  const stationTables = new Map<string, JsonBody>();
   function evaluateStored(v: StoredVersion): TemplateEvaluation {
     const key = v.row.content_hash;
     const hit = evaluations.get(key);
@@ -191,6 +195,29 @@ export function templatesService(deps: { db: Db; templates: TemplatesRepo; catal
     async version(templateId: number, number: number): Promise<TemplateVersion> {
       // One query: a version of a missing template is simply not found.
       return present(templateId, await requireVersion(templateId, number));
+    },
+    /**
+     * A version's stations with its unit and shared offset, as bytes to send: one read of the version's
+     * content hash, and the table built once per hash (re-read in full only when the hash is new).
+     */
+    async stationTable(templateId: number, number: number): Promise<JsonBody> {
+      const hash = await templates.contentHash(templateId, number);
+      if (hash === undefined) throw notFound(`Version ${number} of template ${templateId}`);
+      const hit = stationTables.get(hash);
+      if (hit !== undefined) {
+        stationTables.delete(hash);
+        stationTables.set(hash, hit);
+        return hit;
+      }
+      const v = present(templateId, await requireVersion(templateId, number));
+      const body = jsonBody(JSON.stringify({
+        unit: v.unit, sharedOffset: v.sharedOffset,
+        stations: v.stations.map((s) => ({ number: s.number, x: s.x, y: s.y, z: s.z, c: s.c, nominalWidth: s.nominalWidth, placement: s.placement, stop: s.stop, id: s.id })),
+      }));
+      // Keyed by the hash of what was read (a save in between only means the next read misses).
+      stationTables.set(v.contentHash, body);
+      if (stationTables.size > EVALUATION_CACHE_SIZE) stationTables.delete(stationTables.keys().next().value!);
+      return body;
     },
     async saveDraft(user: User, templateId: number, number: number, body: SaveVersionInput): Promise<TemplateVersion> {
       await requireTemplate(templateId);
