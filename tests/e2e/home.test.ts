@@ -122,4 +122,20 @@ describe('home, comparison and sign-off in a real browser', () => {
     expect((await e2e.db('users').where({ email: 'operator@gridset.test' }).first()).role).toBe('reviewer');
     await page.close();
   });
+
+  it('setup sheet on screen: sign-off lines to fill in, and the footer after the tables, never over them', async () => {
+    const page = await e2e.newPage();
+    await e2e.signIn(page, 'operator');
+    await page.goto(`${e2e.baseUrl}/api/jobs/1/setup-sheet.html`);
+    const signOff = page.getByRole('table', { name: 'Sign-off' });
+    for (const who of ['Prepared by', 'Checked by']) await signOff.getByRole('rowheader', { name: who }).waitFor();
+    expect(await signOff.getByRole('rowheader', { name: 'Date' }).count()).toBe(2);
+    // A footer pinned to the window would sit over whatever table scrolls under it; it must come after the last one.
+    const below = await page.evaluate(() => {
+      const f = document.querySelector('footer')!.getBoundingClientRect();
+      return Array.from(document.querySelectorAll('table')).every((t) => t.getBoundingClientRect().bottom <= f.top);
+    });
+    expect(below).toBe(true);
+    await page.close();
+  });
 });
