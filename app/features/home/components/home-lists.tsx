@@ -1,7 +1,7 @@
 import type { ReactNode } from 'react';
 import { Link } from 'react-router-dom';
 import { ArrowRight, Briefcase, ClipboardCheck, CornerUpLeft, FileClock, Hourglass, PencilLine, ScrollText, type LucideIcon } from 'lucide-react';
-import type { Home, HomeDraft, HomeJob, HomeReview } from '../../../../shared/schemas/home';
+import type { Home, HomeAuditLine, HomeDraft, HomeJob, HomeReview } from '../../../../shared/schemas/home';
 import { VersionStatusTag } from '../../../components/ui/version-status';
 import { formatServerTime } from '../../../lib/server-time';
 
@@ -68,6 +68,21 @@ function JobLine({ j, behind }: { j: HomeJob; behind: boolean }) {
   );
 }
 
+/** Where an audit line's object lives: its own page when it has one, else the audit trail filtered to its kind. */
+function auditHref(a: HomeAuditLine): string {
+  const id = encodeURIComponent(a.objectId);
+  const version = /^(\d+)\/(\d+)$/.exec(a.objectId);
+  if (a.objectType === 'template-version' && version) return `/templates/${version[1]}/versions/${version[2]}`;
+  if (/^\d+$/.test(a.objectId)) {
+    if (a.objectType === 'job') return `/jobs/${id}`;
+    if (a.objectType === 'component') return `/catalog/components/${id}`;
+    if (a.objectType === 'plate') return `/catalog/plates/${id}`;
+    if (a.objectType === 'template') return `/templates/${id}/versions/1`;
+  }
+  if (a.objectType === 'naming') return '/naming';
+  return `/audit?object=${encodeURIComponent(a.objectType)}`;
+}
+
 /** The signed-in person's home: only the lists their role gets, each line a link to where the work is. */
 export function HomeLists({ home }: { home: Home }) {
   return (
@@ -96,7 +111,7 @@ export function HomeLists({ home }: { home: Home }) {
         <Section id="home-audit" title="Recent changes" Icon={ScrollText} count={home.audit.length} empty="Nothing has been written yet.">
           {home.audit.map((a) => (
             <li key={a.id} className="flex flex-col gap-0.5 py-2">
-              <Link className={link} to={`/audit?object=${encodeURIComponent(a.objectType)}`}>{a.summary}</Link>
+              <Link className={link} to={auditHref(a)}>{a.summary}</Link>
               <span className="flex flex-wrap items-center gap-2 text-sm text-slate-600"><FileClock aria-hidden className="h-4 w-4" /><time dateTime={a.at}>{formatServerTime(a.at)}</time> · {a.userEmail ?? 'system'} · <span className="font-mono">{a.action}</span></span>
             </li>
           ))}
