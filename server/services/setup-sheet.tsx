@@ -33,6 +33,7 @@ const STYLE = `
   footer { font-size: 8pt; border-top: 1px solid #000; padding-top: 2pt; margin-top: 12pt; }
   /* On paper the footer repeats at the foot of every page; on screen it stays after the last line, never over a table. */
   @media print { footer { position: fixed; bottom: 0; left: 0; right: 0; margin: 0; } }
+  @media screen { body { max-width: 60rem; margin: 1rem auto; padding: 0 1rem; } }
 `;
 
 type StockCheck = JobDetail['stockChecks'][number];

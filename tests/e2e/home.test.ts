@@ -1,5 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
+import ExcelJS from 'exceljs';
 import { startE2E, type E2E } from './browser';
 
 let e2e: E2E;
@@ -136,6 +137,34 @@ describe('home, comparison and sign-off in a real browser', () => {
       return Array.from(document.querySelectorAll('table')).every((t) => t.getBoundingClientRect().bottom <= f.top);
     });
     expect(below).toBe(true);
+    await page.close();
+  });
+
+  it('manifest preview says old → new for a changed cell, and after the import the preview and its button leave', async () => {
+    const page = await e2e.newPage();
+    await e2e.signIn(page, 'lead');
+    // The catalog's own workbook, edited with exceljs (a second writer): one component renamed.
+    const wb = new ExcelJS.Workbook();
+    await wb.xlsx.load((await (await page.request.get(`${e2e.baseUrl}/api/manifest.xlsx`)).body()) as never);
+    const ws = wb.getWorksheet('Components')!;
+    const header = (ws.getRow(1).values as unknown[]).map((v) => String(v ?? '').toLowerCase());
+    const nameCell = ws.getRow(2).getCell(header.indexOf('name'));
+    const code = String(ws.getRow(2).getCell(header.indexOf('code')).value);
+    const before = String(nameCell.value);
+    nameCell.value = `${before} (relabelled)`;
+    const edited = Buffer.from(await wb.xlsx.writeBuffer());
+
+    await page.goto(`${e2e.baseUrl}/catalog/components`);
+    await page.getByLabel(/Bring back an edited manifest/).setInputFiles({ name: 'manifest.xlsx', mimeType: 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet', buffer: edited });
+    const preview = page.getByRole('table', { name: 'What the import will do' });
+    const row = preview.getByRole('row').filter({ hasText: code });
+    await row.waitFor();
+    expect((await row.innerText()).replace(/\s+/g, ' ')).toContain(`name ${before} ${before} (relabelled)`);
+    await page.getByRole('button', { name: 'Import 1 change' }).click();
+    await page.getByText(/Imported 1 change from manifest\.xlsx/).waitFor();
+    expect(await preview.count()).toBe(0);
+    expect(await page.getByRole('button', { name: /^Import \d+ change/ }).count()).toBe(0);
+    expect((await e2e.db('components').where({ code }).first()).name).toBe(`${before} (relabelled)`);
     await page.close();
   });
 });
