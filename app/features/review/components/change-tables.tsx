@@ -114,13 +114,12 @@ function StationValues({ diff, displayUnit }: { diff: VersionDiffAnswer; display
       <h3 id="station-values" className="mb-1 font-semibold">Station values, before → after ({values.length})</h3>
       <ul className="flex flex-col divide-y divide-slate-200 rounded border border-slate-300 bg-white">
         {values.map((v) => (
-          <li key={`${v.id}-${v.field}`} data-testid="station-value" className="flex flex-wrap items-baseline gap-x-2 px-3 py-1.5">
+          <li key={`${v.id}-${v.field}`} data-testid="station-value" className="flex flex-wrap items-baseline gap-x-2 px-3 py-1.5 sm:grid sm:grid-cols-[6.5rem_9.5rem_1.25rem_9.5rem_minmax(0,1fr)]">
             <span className="font-semibold">{FIELD_WORDS[v.field]}</span>
-            <span className="font-mono tabular-nums">{stationValueText(v.field, v.from, diff.unit, displayUnit)}</span>
+            <span className="num">{stationValueText(v.field, v.from, diff.unit, displayUnit)}</span>
             <ArrowRight aria-label="to" className="h-4 w-4 self-center" />
-            <span className="font-mono font-semibold tabular-nums">{stationValueText(v.field, v.to, diff.unit, displayUnit)}</span>
-            <span className="text-slate-700">at station {v.number}{v.previousNumber !== v.number ? ` (was ${v.previousNumber})` : ''}</span>
-            <span className="font-mono text-sm text-slate-500">{v.id}</span>
+            <span className="num font-semibold">{stationValueText(v.field, v.to, diff.unit, displayUnit)}</span>
+            <span className="text-slate-700">at station {v.number}{v.previousNumber !== v.number ? ` (was ${v.previousNumber})` : ''} <span className="font-mono text-sm text-slate-500">{v.id}</span></span>
           </li>
         ))}
       </ul>
