@@ -25,6 +25,9 @@ import { templateRoutes } from './routes/templates';
 import { stockCheckRoutes } from './routes/stock-check';
 import { namingRoutes } from './routes/naming';
 import { reviewRoutes } from './routes/reviews';
+import { homeRoutes } from './routes/home';
+import { homeService } from './services/home';
+import { reviewsRepo } from './db/reviews-repo';
 import { auditRoutes } from './routes/audit';
 import { jobRoutes } from './routes/jobs';
 import { dxfRoutes } from './routes/dxf';
@@ -182,6 +185,7 @@ export function createApp(deps: AppDeps): GridsetApp {
     ...stockCheckRoutes({ dataDir: deps.dataDir, uploadLimitBytes: deps.uploadLimitBytes ?? 20 * 1024 * 1024, workers }),
     ...namingRoutes(naming),
     ...reviewRoutes(reviews),
+    ...homeRoutes(homeService({ templates, templatesRows: templatesRepo(db), jobs: jobsRepo(db), reviews: reviewsRepo(db), audit })),
     ...auditRoutes(audit),
     ...jobRoutes(jobs, loadListService({ db, jobs, audit }), programs),
     ...manifestRoutes({ manifest: manifestService({ db, catalog: catalogRepo(db), naming, audit, workers }), templates, dataDir: deps.dataDir, uploadLimitBytes: deps.uploadLimitBytes ?? 20 * 1024 * 1024 }),

@@ -76,9 +76,15 @@ export function databaseUrlOf(env: NodeJS.ProcessEnv = process.env): string | un
 }
 
 /** Reads the environment once at start-up; the secret is generated and kept in the data dir when unset (SQLite only). */
-export function readConfig(env: NodeJS.ProcessEnv = process.env): Config {
+/** PORT, 3000 when unset. */
+export function portOf(env: NodeJS.ProcessEnv = process.env): number {
   const port = Number(env.PORT ?? 3000);
   if (!Number.isInteger(port) || port < 0 || port > 65535) throw new ConfigError(`PORT must be a whole number from 0 to 65535; got "${env.PORT}".`);
+  return port;
+}
+
+export function readConfig(env: NodeJS.ProcessEnv = process.env): Config {
+  const port = portOf(env);
   const dataDir = path.resolve(env.GRIDSET_DATA_DIR ?? './data');
   mkdirSync(dataDir, { recursive: true });
   const databaseUrl = databaseUrlOf(env);

@@ -11,11 +11,22 @@ import { sweepUploadTemp } from './middleware/upload';
 import { createFileStore } from './storage/create-store';
 import { StoreError } from './storage/file-store';
 import { sharedWorkerPool } from './workers/pool';
+import { createServer } from 'node:http';
+import type { AddressInfo } from 'node:net';
+import { listenOn, PortTakenError } from './listen';
 
 const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..');
 
 async function main() {
   const config = readConfig();
+  // The port first: a second start on a taken port says so and stops before it touches the data
+  // folder (sweeping another process's uploads) or the database. Until the app is ready, the
+  // port answers 503.
+  const server = createServer((_req, res) => {
+    res.writeHead(503, { 'Content-Type': 'text/plain; charset=utf-8', 'Retry-After': '2' });
+    res.end('Gridset is starting; try again in a moment.\n');
+  });
+  await listenOn(server, config.port);
   sweepUploadTemp(config.dataDir);
   const files = createFileStore(config);
   await files.check();
@@ -41,19 +52,15 @@ async function main() {
     trustProxy: config.trustProxy,
     workers: sharedWorkerPool(config.workers),
   });
-  // Express 5 calls this back with the error too when the port cannot be had; 'error' below says it.
-  const server = app.listen(config.port, (err?: Error) => {
-    if (err) return;
-    console.log(`Gridset is serving http://localhost:${config.port} (data in ${config.dataDir}${config.databaseUrl ? ', database on PostgreSQL (DATABASE_URL)' : ''})`);
+  server.removeAllListeners('request');
+  server.on('request', app);
+  {
+    const port = (server.address() as AddressInfo).port;
+    console.log(`Gridset is serving http://localhost:${port} (data in ${config.dataDir}${config.databaseUrl ? ', database on PostgreSQL (DATABASE_URL)' : ''})`);
     console.log(`Kept files (DXF originals) are in ${files.kind === 's3' ? `object storage, ${files.location} (S3_URL)` : files.location}.`);
     console.log(config.smtpUrl ? 'Mail goes out by SMTP (SMTP_URL).' : files.kind === 's3' ? 'Mail stays in the outbox in the database; admins read it under Outbox.' : `Mail stays in the local outbox (${path.join(config.dataDir, 'outbox')}); admins read it under Outbox.`);
-  });
-  server.on('error', (err: NodeJS.ErrnoException) => {
-    console.error(err.code === 'EADDRINUSE'
-      ? `Gridset cannot start: port ${config.port} is taken by another program (another Gridset?). Stop it, or start with PORT=<another port>.`
-      : `Gridset cannot start: ${err.message}`);
-    process.exit(1);
-  });
+  }
+  server.on('error', (err: NodeJS.ErrnoException) => console.error(`Gridset's listening socket failed: ${err.message}`));
   // A request's error is answered by the error handler; one that escapes it (a promise no one awaited)
   // is logged, and the server goes on serving the others rather than ending for everyone.
   process.on('unhandledRejection', (reason) => console.error('Unhandled rejection (the server goes on):', reason));
@@ -65,6 +72,10 @@ async function main() {
 }
 
 main().catch((err: NodeJS.ErrnoException) => {
+  if (err instanceof PortTakenError) {
+    console.error(err.message);
+    process.exit(1);
+  }
   // A data folder the server cannot write is said in one line, not as a stack.
   if (err instanceof StoreError) {
     console.error(`Gridset cannot start: ${err.message}`);

@@ -1,4 +1,5 @@
 import { useState } from 'react';
+import { useSearchParams } from 'react-router-dom';
 import type { AuditEntry } from '../../shared/schemas/audit';
 import { Page } from '../components/ui/page';
 import { TextField } from '../components/ui/field';
@@ -19,7 +20,9 @@ const NONE: AuditEntry[] = [];
 
 /** Every write, newest first; filter by object and by day. */
 export function AuditRoute() {
-  const [object, setObject] = useState('');
+  // The home's audit lines link here filtered by their object type.
+  const [search] = useSearchParams();
+  const [object, setObject] = useState(search.get('object') ?? '');
   const [from, setFrom] = useState('');
   const [to, setTo] = useState('');
   const [text, setText] = useState('');
@@ -34,7 +37,7 @@ export function AuditRoute() {
         <label className="flex flex-col text-sm font-semibold text-slate-700">Object
           <select className="min-h-10 rounded border border-slate-400 bg-white px-3" value={object} onChange={(e) => setObject(e.target.value)}>
             <option value="">all</option>
-            {['template', 'template-version', 'component', 'plate', 'job', 'user', 'naming', 'settings'].map((o) => <option key={o} value={o}>{o}</option>)}
+            {[...new Set(['template', 'template-version', 'component', 'plate', 'job', 'user', 'naming', 'settings', ...(object ? [object] : [])])].map((o) => <option key={o} value={o}>{o}</option>)}
           </select>
         </label>
         <TextField label="From day" type="date" value={from} onChange={(e) => setFrom(e.target.value)} />

@@ -1,7 +1,9 @@
 import { Link } from 'react-router-dom';
 import { Page } from '../components/ui/page';
+import { ErrorText } from '../components/ui/notice';
 import { useMe } from '../features/auth/api';
-import { useComponents, usePlates } from '../features/catalog/api';
+import { useHome } from '../features/home/api';
+import { HomeLists } from '../features/home/components/home-lists';
 
 const ROLE_JOBS: Record<string, string> = {
   admin: 'Add users, set their roles and deactivate accounts.',
@@ -11,25 +13,16 @@ const ROLE_JOBS: Record<string, string> = {
   operator: 'Read setup sheets and record measured bars at the machine.',
 };
 
+/** What waits for the signed-in person, by role (GET /api/home). */
 export function HomeRoute() {
   const me = useMe();
-  const plates = usePlates();
-  const components = useComponents();
+  const home = useHome(me.data?.id);
   const role = me.data?.role ?? 'operator';
   return (
     <Page title={`Welcome, ${me.data?.name ?? ''}`} subtitle={`Signed in as ${role}: ${ROLE_JOBS[role]}`}>
-      <div className="grid grid-cols-1 gap-4 sm:grid-cols-2">
-        <Link to="/catalog/components" className="rounded border border-slate-300 bg-white p-4 hover:border-accent-700">
-          <p className="text-lg font-semibold">Components</p>
-          <p className="num text-left text-3xl">{components.data?.total ?? '…'}</p>
-          <p className="text-slate-600">rails, vises, stops and subplates in the catalog</p>
-        </Link>
-        <Link to="/catalog/plates" className="rounded border border-slate-300 bg-white p-4 hover:border-accent-700">
-          <p className="text-lg font-semibold">Plates</p>
-          <p className="num text-left text-3xl">{plates.data?.total ?? '…'}</p>
-          <p className="text-slate-600">grid plates and bushed tables</p>
-        </Link>
-      </div>
+      <ErrorText error={home.error} />
+      {home.data ? <HomeLists home={home.data} /> : home.isPending ? <p className="text-slate-700">Loading what waits for you…</p> : null}
+      {role === 'admin' ? <p><Link className="font-semibold text-accent-700 underline" to="/admin/users">Users and roles</Link></p> : null}
     </Page>
   );
 }

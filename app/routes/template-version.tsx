@@ -11,8 +11,11 @@ import { useComponents } from '../features/catalog/api';
 import { useShopSettings } from '../features/settings/api';
 import { useNewDraft, useReleaseVersion, useTemplate, useVersion } from '../features/templates/api';
 import { VersionEditor } from '../features/templates/components/version-editor';
-import { StateTag } from './templates';
+import { VersionStatusTag } from '../components/ui/version-status';
+import { CornerUpLeft } from 'lucide-react';
+import { STATUS_WORDS, compareBase } from '../../shared/review/lifecycle';
 import { ReviewActions } from '../features/review/components/review-actions';
+import { ChangesRequestedNote } from '../features/review/components/changes-requested-note';
 
 const NO_COMPONENTS: Component[] = [];
 
@@ -37,14 +40,15 @@ export function TemplateVersionRoute() {
   return (
     <Page
       title={`${v.name} · version ${v.version}`}
-      subtitle={<span className="flex flex-wrap items-center gap-2"><StateTag state={v.state} /> on plate <span className="font-mono">{v.plate.code}</span> · content hash <span className="font-mono" title={v.contentHash}>{v.contentHash.slice(0, 12)}</span></span>}
+      subtitle={<span className="flex flex-wrap items-center gap-2"><VersionStatusTag status={v.status} /> on plate <span className="font-mono">{v.plate.code}</span> · content hash <span className="font-mono" title={v.contentHash}>{v.contentHash.slice(0, 12)}</span></span>}
       actions={
         <>
           <nav aria-label="Versions" className="flex flex-wrap items-center gap-1">
             {template.data.versions.map((x) => (
-              <Link key={x.number} to={`/templates/${id}/versions/${x.number}`} aria-current={x.number === n ? 'page' : undefined}
+              <Link key={x.number} to={`/templates/${id}/versions/${x.number}`} title={`v${x.number}: ${STATUS_WORDS[x.status]}`} aria-current={x.number === n ? 'page' : undefined}
                 className={`inline-flex min-h-10 items-center rounded border px-3 font-mono ${x.number === n ? 'border-accent-700 bg-accent-700 text-white' : 'border-slate-400 bg-white hover:bg-slate-100'}`}>
                 v{x.number}
+                {x.status === 'changes-requested' ? <><CornerUpLeft aria-hidden className="ml-1 h-4 w-4" /><span className="sr-only"> (changes requested)</span></> : null}
               </Link>
             ))}
           </nav>
@@ -60,11 +64,12 @@ export function TemplateVersionRoute() {
       {release.error instanceof ApiError && release.error.code === 'naming' ? (
         <NamingWaiver problems={(release.error.details as { naming: { message: string }[] }).naming} pending={release.isPending} onWaive={(w) => release.mutate(w)} />
       ) : <ErrorText error={release.error ?? newDraft.error} />}
+      {v.changesRequested ? <ChangesRequestedNote changes={v.changesRequested} version={v.version} /> : null}
       {v.namingWaiver ? <Notice tone="caution" title="Released with a naming waiver">{v.namingWaiver}</Notice> : null}
       <VersionEditor key={`${id}-${n}-${v.revision}`} templateId={id} version={v} catalog={components.data?.items ?? NO_COMPONENTS} displayUnit={displayUnit} canEdit={may(role, 'editTemplates')} probeTolerance={probeTolerance}
         reviewSlot={({ dirty }) => (me.data ? (
           <ReviewActions version={v} user={me.data} isAuthor={v.authorId === me.data.id} unsavedChanges={dirty}
-            previous={template.data.versions.filter((x) => x.number < n && x.state !== 'draft').at(-1)?.number ?? template.data.versions.filter((x) => x.number < n).at(-1)?.number ?? null}
+            previous={compareBase(template.data.versions, n)}
             onChanged={() => { void template.refetch(); void version.refetch(); }} />
         ) : null)} />
     </Page>

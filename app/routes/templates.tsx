@@ -9,17 +9,12 @@ import { Button } from '../components/ui/button';
 import { SelectField, TextField } from '../components/ui/field';
 import { DataTable, columnHelperFor } from '../components/ui/data-table';
 import { ErrorText } from '../components/ui/notice';
+import { VersionStatusTag } from '../components/ui/version-status';
 import { applyServerIssues } from '../lib/form-errors';
 import { useMe } from '../features/auth/api';
 import { usePlates } from '../features/catalog/api';
 import { useCreateTemplate, useImportTemplate, useTemplates } from '../features/templates/api';
 
-const STATE_STYLE: Record<string, string> = {
-  draft: 'border-slate-400 text-slate-800', 'in-review': 'border-accent-700 text-accent-800', released: 'border-slate-800 bg-slate-800 text-white', retired: 'border-slate-300 text-slate-500 line-through',
-};
-export function StateTag({ state }: { state: string }) {
-  return <span className={`inline-block rounded border px-2 py-0.5 text-sm font-semibold ${STATE_STYLE[state] ?? ''}`}>{state}</span>;
-}
 
 const col = columnHelperFor<TemplateSummary>();
 const columns = col.columns([
@@ -30,9 +25,10 @@ const columns = col.columns([
   col.accessor('plateCode', { header: 'Plate', cell: (c) => <span className="font-mono">{c.getValue()}</span> }),
   col.accessor('unit', { header: 'Unit' }),
   col.accessor((t) => t.versions.length, { id: 'versions', header: 'Versions', meta: { numeric: true } }),
-  col.accessor((t) => t.versions.at(-1)?.state ?? '', { id: 'latest', header: 'Latest version', cell: (c) => (
-    <span className="flex items-center gap-2"><span className="num">v{c.row.original.versions.at(-1)?.number}</span><StateTag state={c.getValue()} /></span>
-  ) }),
+  col.accessor((t) => t.versions.at(-1)?.status ?? '', { id: 'latest', header: 'Latest version', cell: (c) => {
+    const latest = c.row.original.versions.at(-1);
+    return latest ? <span className="flex items-center gap-2"><span className="num">v{latest.number}</span><VersionStatusTag status={latest.status} /></span> : '—';
+  } }),
   col.accessor((t) => t.versions.filter((v) => v.state === 'released').at(-1)?.number ?? null, { id: 'released', header: 'Released', cell: (c) => (c.getValue() ? `v${c.getValue()}` : '—') }),
 ]);
 

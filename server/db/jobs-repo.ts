@@ -34,6 +34,11 @@ export function jobsRepo(db: Db) {
       return (row as { id: number }).id;
     },
     stockChecks: (jobId: number) => db('job_stock_checks as c').leftJoin('users as u', 'u.id', 'c.created_by').where('c.job_id', jobId).select('c.*', 'u.name as by_name').orderBy('c.id', 'desc').limit(20),
+    /** Ids of the jobs that have at least one stock check. */
+    async checkedJobIds(): Promise<Set<number>> {
+      const rows = await db('job_stock_checks').distinct('job_id');
+      return new Set(rows.map((r: { job_id: number }) => Number(r.job_id)));
+    },
     /** The latest released version number of each template, for "a newer one is released". */
     async latestReleases(): Promise<Map<number, number>> {
       const rows = await db('template_versions').where({ state: 'released' }).groupBy('template_id').select('template_id').max({ n: 'number' });

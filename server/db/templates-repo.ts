@@ -4,6 +4,7 @@ import type { VersionState } from '../../shared/schemas/template-api';
 import { orderByText } from './dialect';
 import { hotReads } from './hot-reads';
 import { bumpReadStamp } from './read-stamps';
+import type { LastReviewStep } from './reviews-repo';
 
 export interface TemplateRow { id: number; name: string; plate_id: number; created_by: number | null; created_at: string | Date; updated_at: string | Date }
 export interface VersionRow {
@@ -11,13 +12,17 @@ export interface VersionRow {
   revision: number; author_id: number | null; created_at: string | Date; updated_at: string | Date; placement_count: number;
   naming_version?: number | null; naming_waiver?: string | null; naming_waived_by?: number | null;
 }
-export interface StoredVersion { row: VersionRow; content: TemplateContent }
+export interface StoredVersion {
+  row: VersionRow; content: TemplateContent;
+  /** The version's latest review step, when one was read with it (it decides "changes requested"). */
+  lastStep?: LastReviewStep | null;
+}
 
 export function templatesRepo(db: Db) {
   return {
     async list(): Promise<{ t: TemplateRow & { plate_code: string; plate_unit: string }; versions: VersionRow[] }[]> {
       const templates = await orderByText(db, db('templates as t').join('plates as p', 'p.id', 't.plate_id').select('t.*', 'p.code as plate_code', 'p.unit as plate_unit'), 't.name');
-      const versions: VersionRow[] = await db('template_versions').select('id', 'template_id', 'number', 'state', 'content_hash', 'revision', 'updated_at', 'created_at', 'placement_count').orderBy(['template_id', 'number']);
+      const versions: VersionRow[] = await db('template_versions').select('id', 'template_id', 'number', 'state', 'content_hash', 'revision', 'updated_at', 'created_at', 'placement_count', 'author_id').orderBy(['template_id', 'number']);
       const byTemplate = new Map<number, VersionRow[]>();
       for (const v of versions) byTemplate.set(v.template_id, [...(byTemplate.get(v.template_id) ?? []), v]);
       return templates.map((t) => ({ t, versions: byTemplate.get(t.id) ?? [] }));

@@ -8,6 +8,7 @@ import type { ClampModel, Component, ComponentFields, JawFace, Stop } from '../.
 import type { Point, Unit } from '../../shared/schemas/common';
 import { DISPLAY_DECIMALS } from '../../shared/units/units';
 import { CLAMP_FIELDS, COMPONENTS_SHEET, LAYERS_SHEET, type ManifestLayer } from './manifest-columns';
+import { formatDowels, formatJawFaces, formatStops } from './point-lists';
 import type { ManifestError, ManifestRead } from './manifest-types';
 
 export type PlanAction = 'add' | 'change' | 'same';
@@ -16,6 +17,7 @@ export type PlanAction = 'add' | 'change' | 'same';
 export const COMPARED_FIELDS = ['code', 'kind', 'name', 'unit', 'layer', 'dowels', 'stops', 'jawFaces', 'clamp', 'notes'] as const;
 export type ComparedField = (typeof COMPARED_FIELDS)[number];
 export type LayerField = keyof ManifestLayer;
+export interface FieldValueChange { field: string; from: string; to: string }
 
 export interface ComponentChange {
   sheet: string;
@@ -24,6 +26,8 @@ export interface ComponentChange {
   code: string;
   /** For 'change': the fields that differ; empty for 'add' and 'same'. */
   fields: ComparedField[];
+  /** For 'change': each changed field's cell text before → after (a clamp model field by field). */
+  values: FieldValueChange[];
   /** The catalog component the row updates, or null for 'add'. */
   id: number | null;
   /** What to write: the row's fields, keeping the catalog component's outline. */
@@ -37,6 +41,7 @@ export interface LayerChange {
   /** The layer name. */
   code: string;
   fields: LayerField[];
+  values: FieldValueChange[];
   input: ManifestLayer;
 }
 
@@ -105,6 +110,37 @@ export function changedFields(current: Component, next: ComponentFields): Compar
   return COMPARED_FIELDS.filter((f) => differs[f]);
 }
 
+/** A field as the workbook's cell writes it (point lists in their sheet syntax), so the preview reads like the sheet. */
+function cellText(c: Pick<Component, ComparedField>, field: Exclude<ComparedField, 'clamp'>): string {
+  switch (field) {
+    case 'dowels': return formatDowels(c.dowels, c.unit);
+    case 'stops': return formatStops(c.stops, c.unit);
+    case 'jawFaces': return formatJawFaces(c.jawFaces, c.unit);
+    default: return String(c[field] ?? '');
+  }
+}
+
+/** Before → after of each changed field; a changed clamp model is said field by field ("none" where there is no clamp). */
+export function fieldValues(current: Component, next: ComponentFields, changed: readonly ComparedField[]): FieldValueChange[] {
+  const out: FieldValueChange[] = [];
+  for (const field of changed) {
+    if (field !== 'clamp') {
+      out.push({ field, from: cellText(current, field), to: cellText(next, field) });
+      continue;
+    }
+    const a = current.clamp;
+    const b = next.clamp;
+    if (!a || !b) {
+      out.push({ field: 'clamp', from: a ? 'clamp model' : 'none', to: b ? 'clamp model' : 'none' });
+      if (!b) continue;
+    }
+    for (const f of CLAMP_FIELDS) {
+      if (!a || a[f] !== b[f]) out.push({ field: `clamp ${f}`, from: a ? String(a[f]) : 'none', to: String(b[f]) });
+    }
+  }
+  return out;
+}
+
 export function planManifest(existing: readonly Component[], read: ManifestRead, options: PlanOptions = {}): ManifestPlan {
   const errors = [...read.errors];
   const changes: (ComponentChange | LayerChange)[] = [];
@@ -117,7 +153,7 @@ export function planManifest(existing: readonly Component[], read: ManifestRead,
     let fields = readFields;
     const current = byCode.get(fields.code.toLowerCase());
     if (!current) {
-      changes.push({ sheet: componentsSheet, row, action: 'add', code: fields.code, fields: [], id: null, input: fields });
+      changes.push({ sheet: componentsSheet, row, action: 'add', code: fields.code, fields: [], values: [], id: null, input: fields });
       continue;
     }
     const changed = changedFields(current, fields);
@@ -130,7 +166,7 @@ export function planManifest(existing: readonly Component[], read: ManifestRead,
     // The manifest has no seat-height or jaw-top column yet: a change keeps the catalog's values.
     fields = { ...fields, seatHeight: current.seatHeight, jawTop: current.jawTop };
     changes.push({
-      sheet: componentsSheet, row, action: changed.length ? 'change' : 'same', code: fields.code, fields: changed, id: current.id,
+      sheet: componentsSheet, row, action: changed.length ? 'change' : 'same', code: fields.code, fields: changed, values: fieldValues(current, fields, changed), id: current.id,
       input: { ...fields, outline: current.outline },
     });
   }
@@ -141,7 +177,8 @@ export function planManifest(existing: readonly Component[], read: ManifestRead,
       const current = byName.get(fields.name.toLowerCase());
       const changed = current ? (['name', 'holds', 'color'] as const).filter((f) => current[f] !== fields[f]) : [];
       const action: PlanAction = !current ? 'add' : changed.length ? 'change' : 'same';
-      changes.push({ sheet: read.sheets.layers ?? LAYERS_SHEET, row, action, code: fields.name, fields: [...changed], input: fields });
+      const values = changed.map((f) => ({ field: f, from: String(current![f] ?? ''), to: String(fields[f] ?? '') }));
+      changes.push({ sheet: read.sheets.layers ?? LAYERS_SHEET, row, action, code: fields.name, fields: [...changed], values, input: fields });
     }
   }
 

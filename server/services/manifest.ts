@@ -60,7 +60,7 @@ export function manifestService(deps: { db: Db; catalog: CatalogRepo; naming: Na
     const r = await readOnce(path);
     const p = planManifest(await allComponents(), r);
     const errors = [...p.errors].map(({ sheet, row, column, message, code }) => ({ sheet, row, column, message, code }));
-    const changes = p.changes.map(({ sheet, row, action, code, fields }) => ({ sheet, row, action, code, fields }));
+    const changes = p.changes.map(({ sheet, row, action, code, fields, values }) => ({ sheet, row, action, code, fields, values }));
     return { plan: p, answer: { changes, errors, counts: p.counts } };
   }
 

@@ -1,6 +1,7 @@
 import type { User } from '../../shared/schemas/auth';
 import type { TemplateVersion } from '../../shared/schemas/template-api';
-import type { VersionDiff } from '../../shared/schemas/diff';
+import type { VersionDiffAnswer } from '../../shared/schemas/diff';
+import { stationValueChanges } from '../../shared/compare/station-values';
 import type { ReviewAction } from '../../shared/review/lifecycle';
 import { compareVersions } from '../../shared/compare/compare-versions';
 import { versionNamingProblems } from '../../shared/naming/version-names';
@@ -81,12 +82,13 @@ export function reviewsService(deps: Deps) {
       const v = await templates.requireVersion(templateId, number);
       return trail.trail(v.row.id);
     },
-    async diff(templateId: number, from: number, to: number): Promise<VersionDiff> {
+    async diff(templateId: number, from: number, to: number): Promise<VersionDiffAnswer> {
       const [a, b] = await Promise.all([templates.requireVersion(templateId, from), templates.requireVersion(templateId, to)]);
       const convention = await naming.current();
-      return compareVersions(a.content, b.content, {
+      const diff = compareVersions(a.content, b.content, {
         namingProblems: (content) => versionNamingProblems(content, convention).map((p) => ({ key: p.key, message: p.message })),
       });
+      return { ...diff, stationValues: stationValueChanges(diff.stations) };
     },
   };
 }

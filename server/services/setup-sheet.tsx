@@ -29,7 +29,11 @@ const STYLE = `
   td.n { text-align: right; font-family: ui-monospace, monospace; font-variant-numeric: tabular-nums; white-space: nowrap; }
   .page { break-before: page; } svg { width: 100%; height: auto; max-height: 160mm; }
   .caution { border: 2px solid #000; padding: 6pt; margin-top: 10pt; } .box { display: inline-block; width: 10pt; height: 10pt; border: 1px solid #000; margin-right: 6pt; }
-  footer { position: fixed; bottom: 0; left: 0; right: 0; font-size: 8pt; border-top: 1px solid #000; padding-top: 2pt; }
+  table.signoff th { width: 16%; } table.signoff td { height: 28pt; width: 34%; }
+  footer { font-size: 8pt; border-top: 1px solid #000; padding-top: 2pt; margin-top: 12pt; }
+  /* On paper the footer repeats at the foot of every page; on screen it stays after the last line, never over a table. */
+  @media print { footer { position: fixed; bottom: 0; left: 0; right: 0; margin: 0; } }
+  @media screen { body { max-width: 60rem; margin: 1rem auto; padding: 0 1rem; } }
 `;
 
 type StockCheck = JobDetail['stockChecks'][number];
@@ -143,6 +147,13 @@ export function SetupSheet({ job, v, svg, printed }: { job: JobDetail; v: Templa
           ? clamps.map((p) => <p key={p.id}><span className="box" />{`${p.id} (${p.component}): every clamp seated on the stock and torqued to the clamp maker's value; rail bolts tight.`}</p>)
           : <p>No clamping components.</p>}
         <p><span className="box" />A few stations probed against the table; all within the probe-check tolerance.</p>
+        <h2>Sign-off</h2>
+        <table className="signoff" aria-label="Sign-off">
+          <tbody>
+            <tr><th scope="row">Prepared by</th><td /><th scope="row">Date</th><td /></tr>
+            <tr><th scope="row">Checked by</th><td /><th scope="row">Date</th><td /></tr>
+          </tbody>
+        </table>
         <div className="caution"><b>Cautions.</b><ul>{[...CAUTIONS, STOCK_CHECK_ADVICE].map((c) => <li key={c}>{c}</li>)}</ul></div>
         <footer>{`${v.name} v${v.version} · content hash ${v.contentHash} · printed ${printed} · Gridset`}</footer>
       </body>

@@ -16,7 +16,8 @@ import { HttpError, badRequest, conflict, notFound, validationError } from '../m
 import { versionNamingProblems } from '../../shared/naming/version-names';
 import type { NamingService } from './naming';
 import type { AuditRecord, AuditRepo } from '../db/audit-repo';
-import { transition, type LifecycleAction } from '../../shared/review/lifecycle';
+import { transition, versionStatus, type LifecycleAction } from '../../shared/review/lifecycle';
+import { reviewsRepo, type LastReviewStep } from '../db/reviews-repo';
 
 export const sha256Hex = (text: string) => createHash('sha256').update(text, 'utf8').digest('hex');
 export const contentHash = (content: TemplateContent) => sha256Hex(canonicalJson(layoutForHash(content)));
@@ -36,6 +37,7 @@ const EVALUATION_CACHE_SIZE = 200;
 
 export function templatesService(deps: { db: Db; templates: TemplatesRepo; catalog: CatalogRepo; naming: NamingService; audit: AuditRepo }) {
   const { db, templates, catalog, naming, audit } = deps;
+  const reviewSteps = reviewsRepo(db);
   const evaluations = new Map<string, TemplateEvaluation>();
   // A version's station table as JSON text, by content hash: unit, shared offset and stations are all
   // functions of the stored layout, so a read that finds the hash unchanged sends the same bytes.
@@ -55,6 +57,12 @@ export function templatesService(deps: { db: Db; templates: TemplatesRepo; catal
     return evaluation;
   }
 
+  /** The status a version shows and, for one sent back, the reviewer's comment (shared/review/lifecycle.ts decides). */
+  function reviewMark(state: VersionState, last: LastReviewStep | null | undefined) {
+    const status = versionStatus(state, last?.action);
+    return { status, changesRequested: status === 'changes-requested' && last ? { comment: last.comment, by: last.by, at: last.at } : null };
+  }
+
   async function requireTemplate(id: number) {
     const t = await templates.get(id);
     if (!t) throw notFound(`Template ${id}`);
@@ -63,7 +71,7 @@ export function templatesService(deps: { db: Db; templates: TemplatesRepo; catal
   async function requireVersion(templateId: number, number: number, trx: Db = db): Promise<StoredVersion> {
     const v = await templates.version(templateId, number, trx);
     if (!v) throw notFound(`Version ${number} of template ${templateId}`);
-    return v;
+    return { ...v, lastStep: (await reviewSteps.lastSteps([v.row.id], trx)).get(v.row.id) ?? null };
   }
 
   /**
@@ -141,11 +149,13 @@ export function templatesService(deps: { db: Db; templates: TemplatesRepo; catal
       stations: evaluation.stations, problems: evaluation.problems, pairings: evaluation.pairings, updatedAt: isoTime(v.row.updated_at),
       namingWaiver: v.row.naming_waiver ?? null,
       authorId: v.row.author_id ?? null,
+      ...reviewMark(v.row.state, v.lastStep),
     };
   }
 
   return {
     present,
+    reviewMark,
     /**
      * A drawing leaves Gridset only with layer names the convention accepts, or with the lead's
      * written waiver on the version.
@@ -164,10 +174,13 @@ export function templatesService(deps: { db: Db; templates: TemplatesRepo; catal
       return hit ?? evaluateTemplate(v);
     },
     async list(): Promise<{ items: TemplateSummary[]; total: number }> {
-      const rows = await templates.list();
+      const [rows, steps] = await Promise.all([templates.list(), reviewSteps.lastSteps()]);
       const items = rows.map(({ t, versions }) => ({
         id: t.id, name: t.name, plateId: t.plate_id, plateCode: t.plate_code, unit: t.plate_unit as TemplateSummary['unit'],
-        versions: versions.map((v) => ({ number: v.number, state: v.state, contentHash: v.content_hash, placements: toNumber(v.placement_count), updatedAt: isoTime(v.updated_at) })),
+        versions: versions.map((v) => ({
+          number: v.number, state: v.state, contentHash: v.content_hash, placements: toNumber(v.placement_count), updatedAt: isoTime(v.updated_at),
+          authorId: v.author_id ?? null, ...reviewMark(v.state, steps.get(v.id)),
+        })),
         createdAt: isoTime(t.created_at), updatedAt: isoTime(t.updated_at),
       }));
       return { items, total: items.length };

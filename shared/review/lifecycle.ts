@@ -1,5 +1,5 @@
 import { CAN, type Role } from '../schemas/auth';
-import type { VersionState } from '../schemas/template-api';
+import type { VersionState, VersionStatus } from '../schemas/template-api';
 
 export const REVIEW_ACTIONS = ['edit', 'submit', 'approve', 'request-changes', 'retire', 'release'] as const;
 export type ReviewAction = (typeof REVIEW_ACTIONS)[number];
@@ -41,4 +41,32 @@ export function transition(state: VersionState, action: LifecycleAction, actor: 
   }
   if (rule.notByAuthor && actor.isAuthor) return { ok: false, status: 403, message: `You wrote this version, so someone else must ${rule.words} it.` };
   return { ok: true, to: rule.to(state) };
+}
+
+/**
+ * What a version shows besides its state: a draft whose latest review step is a reviewer's
+ * request for changes reads "changes requested" (with the comment) until its author submits it
+ * again, so a version sent back never looks like a draft nobody has read. Saving the draft in
+ * between keeps the mark; only the next review step (submit) clears it.
+ */
+export function versionStatus(state: VersionState, lastReviewStep: string | null | undefined): VersionStatus {
+  return state === 'draft' && lastReviewStep === 'request-changes' ? 'changes-requested' : state;
+}
+
+/** Words and the accessible name of each status, one place for every screen that shows a version. */
+export const STATUS_WORDS: Record<VersionStatus, string> = {
+  draft: 'draft',
+  'changes-requested': 'changes requested',
+  'in-review': 'in review',
+  released: 'released',
+  retired: 'retired',
+};
+
+/**
+ * The version a reviewer reads version `n` against: the latest released (or retired) version before
+ * it, else the version just before it; null for a first version.
+ */
+export function compareBase(versions: readonly { number: number; state: VersionState }[], n: number): number | null {
+  const before = versions.filter((v) => v.number < n).sort((a, b) => a.number - b.number);
+  return before.filter((v) => v.state === 'released' || v.state === 'retired').at(-1)?.number ?? before.at(-1)?.number ?? null;
 }

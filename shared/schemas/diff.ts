@@ -131,3 +131,24 @@ export const VersionDiffSchema = z.object({
   summary: z.string(),
 });
 export type VersionDiff = z.infer<typeof VersionDiffSchema>;
+
+export const STATION_VALUE_FIELDS = ['x', 'y', 'z', 'c', 'width'] as const;
+
+/**
+ * One value of one station, before → after (`unit` of the diff; C in degrees): each translation
+ * component that moved and each nominal width held that changed (null where no jaw rail holds one).
+ */
+export const StationValueChangeSchema = z.object({
+  id: z.string(),
+  /** Number in the later version. */
+  number: z.number().int(),
+  previousNumber: z.number().int(),
+  field: z.enum(STATION_VALUE_FIELDS),
+  from: z.number().nullable(),
+  to: z.number().nullable(),
+});
+export type StationValueChange = z.infer<typeof StationValueChangeSchema>;
+
+/** GET /api/templates/:id/diff: the comparison plus every changed station value, listed one by one. */
+export const VersionDiffAnswerSchema = VersionDiffSchema.extend({ stationValues: z.array(StationValueChangeSchema) });
+export type VersionDiffAnswer = z.infer<typeof VersionDiffAnswerSchema>;

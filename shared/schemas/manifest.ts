@@ -11,6 +11,8 @@ export const ManifestChangeSchema = z.object({
   action: z.enum(['add', 'change', 'same']),
   code: z.string(),
   fields: z.array(z.string()),
+  /** For 'change': each changed field's cell text, before → after (a clamp model field by field). */
+  values: z.array(z.object({ field: z.string(), from: z.string(), to: z.string() })),
 });
 export type ManifestChange = z.infer<typeof ManifestChangeSchema>;
 

@@ -13,6 +13,18 @@ export const VERSION_STATES = ['draft', 'in-review', 'released', 'retired'] as c
 export const VersionStateSchema = z.enum(VERSION_STATES);
 export type VersionState = z.infer<typeof VersionStateSchema>;
 
+/**
+ * What a version shows: its state, except that a draft a reviewer sent back reads "changes
+ * requested" until it is submitted again (decided by `versionStatus` in shared/review/lifecycle.ts).
+ */
+export const VERSION_STATUSES = ['draft', 'changes-requested', 'in-review', 'released', 'retired'] as const;
+export const VersionStatusSchema = z.enum(VERSION_STATUSES);
+export type VersionStatus = z.infer<typeof VersionStatusSchema>;
+
+/** The reviewer's word on a version sent back: who, when and what to change. */
+export const ChangesRequestedSchema = z.object({ comment: z.string(), by: z.string().nullable(), at: z.string() });
+export type ChangesRequested = z.infer<typeof ChangesRequestedSchema>;
+
 export const CreateTemplateInputSchema = z.object({
   name: plainText('Template name', 120).trim().min(1, 'Template name is required.'),
   plateId: z.number({ message: 'Choose a plate.' }).int().positive('Choose a plate.').max(ROW_ID_MAX, TOO_LARGE_ID),
@@ -36,7 +48,13 @@ export const VersionSummarySchema = z.object({
   contentHash: z.string(),
   placements: z.number().int(),
   updatedAt: z.string(),
+  status: VersionStatusSchema,
+  /** Set while the version is a draft sent back by a reviewer and not yet submitted again. */
+  changesRequested: ChangesRequestedSchema.nullable(),
+  /** Who started this version; they may not approve it. */
+  authorId: z.number().int().nullable(),
 });
+export type VersionSummary = z.infer<typeof VersionSummarySchema>;
 
 export const TemplateSummarySchema = z.object({
   id: z.number().int(),
@@ -70,6 +88,8 @@ export const TemplateVersionSchema = TemplateContentFieldsSchema.extend({
   namingWaiver: z.string().nullable().default(null),
   /** Who started this version; they may not approve it. */
   authorId: z.number().int().nullable().default(null),
+  status: VersionStatusSchema,
+  changesRequested: ChangesRequestedSchema.nullable().default(null),
 });
 export type TemplateVersion = z.infer<typeof TemplateVersionSchema>;
 

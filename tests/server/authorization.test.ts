@@ -67,6 +67,7 @@ const EXPECTED: Record<string, typeof PUBLIC | typeof SIGNED_IN | Action> = {
   'POST /templates/:id/versions/:n/retire': 'releaseTemplates',
   'GET /templates/:id/versions/:n/reviews': SIGNED_IN,
   'GET /templates/:id/diff': SIGNED_IN,
+  'GET /home': SIGNED_IN,
   'GET /audit': 'readAudit',
   'GET /jobs': SIGNED_IN,
   'POST /jobs': 'editJobs',

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { spawn } from 'node:child_process';
 import { createServer, type Server } from 'node:net';
-import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import express from 'express';
@@ -85,6 +85,34 @@ describe('start-up faults: a message and a non-zero exit', () => {
       rmSync(dataDir, { recursive: true, force: true });
     }
   }, 60_000);
+
+  it('a second `npm start` on a taken port: one sentence, no client build, and the running one\'s data folder untouched', async () => {
+    const taken: Server = await new Promise((resolve) => { const s = createServer().listen(0, () => resolve(s)); });
+    const port = (taken.address() as { port: number }).port;
+    const dataDir = mkdtempSync(path.join(os.tmpdir(), 'gridset-port2-'));
+    // An upload the running server is still receiving: a second start must not sweep it away.
+    const part = path.join(dataDir, 'uploads', 'tmp', 'in-flight.part');
+    mkdirSync(path.dirname(part), { recursive: true });
+    writeFileSync(part, 'x');
+    try {
+      for (const entry of ['scripts/start.ts', 'server/index.ts']) {
+        const child = spawn(process.execPath, ['--import', 'tsx', entry], { env: { ...process.env, PORT: String(port), GRIDSET_DATA_DIR: dataDir, SESSION_SECRET: 'test' }, stdio: ['ignore', 'pipe', 'pipe'] });
+        let stderr = '';
+        let stdout = '';
+        child.stderr.on('data', (d: Buffer) => { stderr += d.toString(); });
+        child.stdout.on('data', (d: Buffer) => { stdout += d.toString(); });
+        const code = await new Promise<number | null>((resolve) => child.on('exit', resolve));
+        expect(code, entry).toBe(1);
+        expect(stderr.trim(), entry).toBe(`Gridset cannot start: port ${port} is taken by another program (another Gridset?). Stop it, or start with PORT=<another port>.`);
+        expect(stdout, entry).not.toMatch(/serving|Building the client|demo data/);
+        expect(existsSync(part), entry).toBe(true);
+        expect(existsSync(path.join(dataDir, 'gridset.sqlite')), entry).toBe(false);
+      }
+    } finally {
+      taken.close();
+      rmSync(dataDir, { recursive: true, force: true });
+    }
+  }, 90_000);
 
   it('a data folder that cannot be made (its parent is a file)', async () => {
     // Root may write anywhere, so the folder is made impossible rather than forbidden: a file stands where its parent should.

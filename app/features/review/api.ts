@@ -1,6 +1,7 @@
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { z } from 'zod';
-import { VersionDiffSchema } from '../../../shared/schemas/diff';
+import { VersionDiffAnswerSchema } from '../../../shared/schemas/diff';
+import { homeKeys } from '../home/api';
 import { TemplateVersionSchema } from '../../../shared/schemas/template-api';
 import { AuditListSchema } from '../../../shared/schemas/audit';
 import { api, apiRequest } from '../../lib/api-client';
@@ -15,7 +16,7 @@ export const reviewKeys = {
 const TrailSchema = z.object({ items: z.array(z.object({ action: z.string(), comment: z.string(), at: z.string(), by: z.string().nullable(), byEmail: z.string().nullable() })), total: z.number() });
 
 export const diffQuery = (id: number, from: number, to: number) =>
-  queryOptions({ queryKey: reviewKeys.diff(id, from, to), queryFn: () => api.get(`/api/templates/${id}/diff?from=${from}&to=${to}`, VersionDiffSchema) });
+  queryOptions({ queryKey: reviewKeys.diff(id, from, to), queryFn: () => api.get(`/api/templates/${id}/diff?from=${from}&to=${to}`, VersionDiffAnswerSchema) });
 export const useDiff = (id: number, from: number | null, to: number | null) =>
   useQuery({ ...diffQuery(id, from ?? 0, to ?? 0), enabled: from !== null && to !== null && from !== to });
 export const useTrail = (id: number, n: number) => useQuery({ queryKey: reviewKeys.trail(id, n), queryFn: () => api.get(`/api/templates/${id}/versions/${n}/reviews`, TrailSchema) });
@@ -31,6 +32,7 @@ export function useReviewStep(id: number, n: number, onDone: () => void) {
       apiRequest('POST', `/api/templates/${id}/versions/${n}/${step}`, { body: comment !== undefined ? { comment } : {}, schema: TemplateVersionSchema }),
     onSuccess: () => {
       void qc.invalidateQueries({ queryKey: reviewKeys.trail(id, n) });
+      void qc.invalidateQueries({ queryKey: homeKeys.all });
       onDone();
     },
   });

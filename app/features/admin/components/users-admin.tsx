@@ -9,17 +9,43 @@ import { ErrorText } from '../../../components/ui/notice';
 import { applyServerIssues } from '../../../lib/form-errors';
 import { useCreateUser, useInviteUser, useUpdateUser, useUsers } from '../api';
 import { InviteUserForm } from './invite-user-form';
+import { ConfirmDialog } from '../../../components/ui/confirm-dialog';
+import { Check } from 'lucide-react';
 
 const ROLE_OPTIONS = ROLES.map((r) => ({ value: r, label: r }));
 
+const ROLE_WORK: Record<Role, string> = {
+  admin: 'users, roles, invitations, backups and the outbox',
+  lead: 'the catalog, naming, releases, sign-off, jobs and the audit trail',
+  programmer: 'the catalog, templates, jobs and part programs',
+  reviewer: 'signing template versions off',
+  operator: 'measured bars and load lists at the machine',
+};
+
+/** A role changes only after the admin confirms it in a dialog, and the row then says it was saved. */
 function RoleCell({ user }: { user: User }) {
   const update = useUpdateUser();
+  const [pending, setPending] = useState<Role | null>(null);
+  const [saved, setSaved] = useState<string | null>(null);
+  const confirm = () => {
+    if (!pending) return;
+    const to = pending;
+    update.mutate({ id: user.id, patch: { role: to } }, {
+      onSuccess: () => { setSaved(`Saved: ${user.name} is now ${to}.`); setPending(null); },
+      onError: () => setPending(null),
+    });
+  };
   return (
-    <div className="flex flex-col">
-      <select aria-label={`Role of ${user.email}`} className={`${inputClass} w-40`} value={user.role} disabled={update.isPending}
-        onChange={(ev) => update.mutate({ id: user.id, patch: { role: ev.target.value as Role } })}>
+    <div className="flex flex-col gap-1">
+      <select aria-label={`Role of ${user.email}`} className={`${inputClass} w-40`} value={pending ?? user.role} disabled={update.isPending}
+        onChange={(ev) => { const r = ev.target.value as Role; setSaved(null); update.reset(); if (r !== user.role) setPending(r); }}>
         {ROLES.map((r) => <option key={r} value={r}>{r}</option>)}
       </select>
+      <ConfirmDialog open={pending !== null} title={`Change the role of ${user.name}?`} confirmLabel={`Make ${pending ?? ''}`} pending={update.isPending}
+        onConfirm={confirm} onCancel={() => setPending(null)}>
+        <p>{user.email} goes from <strong>{user.role}</strong> to <strong>{pending}</strong>: from their next request they may do what a {pending} does ({pending ? ROLE_WORK[pending] : ''}) and no longer what only a {user.role} does.</p>
+      </ConfirmDialog>
+      {saved ? <span role="status" className="inline-flex items-center gap-1 text-sm text-slate-800"><Check aria-hidden className="h-4 w-4" />{saved}</span> : null}
       {update.error ? <span role="alert" className="text-sm text-danger-700">{update.error.message}</span> : null}
     </div>
   );
