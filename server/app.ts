@@ -83,7 +83,7 @@ export interface AppDeps {
 export type GridsetApp = express.Express & {
   /**
    * whenIdle resolves once mails sent after an answer (password resets) are out: for tests and shutdown.
-   * close does that, then ends the worker threads once the files they are reading are done (a later upload starts them again).
+   * close does that, then ends the worker processes once the files they are reading are done (a later upload starts them again).
    */
   locals: { routes: RouteDef[]; whenIdle: () => Promise<void>; close: () => Promise<void> };
 };

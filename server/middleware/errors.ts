@@ -41,7 +41,7 @@ export const apiNotFound: RequestHandler = (req) => {
  */
 const DB_DOWN = 'The database cannot be reached right now; nothing was saved. Try again in a moment, and tell whoever runs Gridset if it goes on.';
 const BUSY = 'The database is busy with other work; nothing was saved, so try again in a moment.';
-/** The code of a worker thread that stopped while reading an upload for no fault of the file (server/workers/pool.ts). */
+/** The code of a worker process that stopped while reading an upload for no fault of the file (server/workers/pool.ts). */
 export const WORKER_STOPPED = 'WORKER_STOPPED';
 const UNAVAILABLE: Record<string, string> = {
   [WORKER_STOPPED]: 'The server stopped reading the file because of a fault of its own; nothing was saved, so send it again, and tell whoever runs Gridset if it goes on.',

@@ -10,7 +10,7 @@ export function stockCheckRoutes(deps: { dataDir: string; uploadLimitBytes: numb
   const upload = singleFileUpload(deps.dataDir, deps.uploadLimitBytes);
   return [
     { method: 'post', path: '/stock-check/bars-file', access: 'signed-in', before: upload, handler: async (req, res) => {
-      // Read on a worker thread (server/services/bars-file.ts): an XLSX is unzipped and parsed there.
+      // Read in a worker process (server/services/bars-file.ts): an XLSX is unzipped and parsed there.
       res.json(await usingUpload(req.file, (f) => deps.workers.run('bars-file', { path: f.path })));
     } },
     { method: 'post', path: '/stock-check', access: 'signed-in', handler: (req, res) => {

@@ -49,7 +49,7 @@ export function manifestService(deps: { db: Db; catalog: CatalogRepo; naming: Na
     const key = `${await fileSha256(path)}:${convention.version}`;
     const hit = recentReads.get(key);
     if (hit && Date.now() - hit.at < 10 * 60_000) return hit.read;
-    // Read on a worker thread (XLSX or CSV, judged by content: server/manifest/read-upload.ts).
+    // Read in a worker process (XLSX or CSV, judged by content: server/manifest/read-upload.ts).
     const r = await workers.run('manifest-read', { path, convention });
     recentReads.set(key, { read: r, at: Date.now() });
     while (recentReads.size > 4) recentReads.delete(recentReads.keys().next().value!);

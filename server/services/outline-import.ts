@@ -1,5 +1,5 @@
 /**
- * DXF uploads for the three drawing routes: the file is read on a worker thread (server/workers),
+ * DXF uploads for the three drawing routes: the file is read in a worker process (server/workers),
  * the main thread only fetches what the reading needs (the layer rule, the owner's unit) and checks
  * the user's layer mapping on the bounded outline that comes back.
  */

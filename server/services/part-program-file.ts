@@ -8,7 +8,7 @@ import { badRequest } from '../middleware/errors';
 export const refused = (e: { line: number | null; message: string }) => badRequest(e.message, { line: e.line }, 'part-program');
 
 /**
- * An uploaded part program read and checked (runs on a worker thread): the text as stored, its
+ * An uploaded part program read and checked (runs in a worker process): the text as stored, its
  * SHA-256 and the reader's summary. Read byte for byte; a UTF-8 byte-order mark some editors write
  * is dropped, anything else not ASCII is refused by line.
  */

@@ -78,7 +78,7 @@ export function partProgramsService(deps: { db: Db; jobs: JobsService; audit: Au
     async upload(user: User, jobId: number, file: { name: string; size: number; path: string }) {
       const job = await jobs.detail(jobId);
       if (file.size > MAX_PROGRAM_BYTES) throw badRequest(`The part program is ${(file.size / 1048576).toFixed(1)} MB; one part's program may be at most ${MAX_PROGRAM_BYTES / 1048576} MB.`, null, 'part-program');
-      // Read and checked on a worker thread (part-program-file.ts): up to 8 MB of G-code is seconds of work.
+      // Read and checked in a worker process (part-program-file.ts): up to 8 MB of G-code is seconds of work.
       const read = await workers.run('part-program', { path: file.path, unit: job.unit });
       const { text, sha256 } = read;
       const summary = { name: file.name.slice(0, 200), size: file.size, ...read.summary };

@@ -3,7 +3,6 @@
  * uploaded file, never its bytes, and the few settings the reading needs) and what comes back
  * (only what the answer needs, never a parse tree). Types only: no code runs from this file.
  */
-import type { MessagePort } from 'node:worker_threads';
 import type { Unit } from '../../shared/schemas/common';
 import type { Outline } from '../../shared/schemas/geometry';
 import type { NamingConvention, NamingRule } from '../../shared/schemas/naming';
@@ -11,7 +10,7 @@ import type { PartProgramSummary } from '../../shared/gcode/read-part-program';
 import type { ManifestRead } from '../manifest/manifest-types';
 
 export interface TaskIo {
-  /** POST /api/dxf/inspect: the whole answer as bounded JSON (UTF-8 bytes, moved, not copied), layers checked against the rule. */
+  /** POST /api/dxf/inspect: the whole answer as bounded JSON (UTF-8 bytes), layers checked against the rule. */
   'dxf-inspect': { input: { path: string; size: number; layerRule: NamingRule }; output: { json: Uint8Array } };
   /**
    * An outline upload: the drawing's outline in the owner's unit with its origin at the datum.
@@ -44,9 +43,8 @@ export type TaskFailure =
 
 export type TaskReply<K extends TaskName> = { ok: true; value: TaskOutput<K> } | { ok: false; failure: TaskFailure };
 
-/** What the pool posts to a worker; `started` is told once the task begins, so its time limit counts running time only. */
+/** What the pool sends to a worker process. */
 export interface TaskMessage<K extends TaskName = TaskName> {
   name: K;
   input: TaskInput<K>;
-  started: MessagePort;
 }

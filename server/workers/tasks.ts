@@ -1,10 +1,9 @@
 /**
- * The work done on a pool thread (loaded by worker-entry.mjs): each task reads an uploaded file by
+ * The work done in a pool process (loaded by worker-entry.mjs): each task reads an uploaded file by
  * its path and hands back only what the answer needs. A refusal is returned as plain data, never
  * thrown, so its status, code and details reach the main thread unchanged (TaskFailure).
  */
 import { readFileSync } from 'node:fs';
-import Piscina from 'piscina';
 import { ZodError } from 'zod';
 import { HttpError, validationError } from '../middleware/errors';
 import { boundedJson, inspectUploadedDxf, layerReport, normalizeOutline } from '../services/dxf-uploads';
@@ -51,17 +50,10 @@ export function failureOf(err: unknown): TaskFailure {
 /** Details as JSON would send them anyway (the answer is JSON), so nothing uncloneable crosses the thread. */
 const plain = (v: unknown): unknown => (v === undefined ? null : JSON.parse(JSON.stringify(v)));
 
-/** The reply with its byte arrays moved, not copied, to the main thread (piscina's Transferable, marked movable). */
-function movable<T extends object>(reply: T, buffers: ArrayBuffer[]): T {
-  if (!buffers.length) return reply;
-  return Piscina.move({ [Piscina.transferableSymbol]: buffers, [Piscina.valueSymbol]: reply } as never) as unknown as T;
-}
-
-/** Runs one task wherever it is called: tells `started`, then answers the reply as plain data. */
-export async function performTask<K extends TaskName>(message: TaskMessage<K>): Promise<TaskReply<K>> {
-  const { name, input, started } = message;
-  started.postMessage('started');
-  started.close();
+/** Runs one task wherever it is called: tells `started` as it begins, then answers the reply as plain data. */
+export async function performTask<K extends TaskName>(message: TaskMessage<K>, started: () => void = () => {}): Promise<TaskReply<K>> {
+  const { name, input } = message;
+  started();
   try {
     const handler = HANDLERS[name] as (input: TaskIo[K]['input']) => TaskOutput<K> | Promise<TaskOutput<K>>;
     if (!handler) throw new Error(`No worker task named ${String(name)}.`);
@@ -69,12 +61,4 @@ export async function performTask<K extends TaskName>(message: TaskMessage<K>): 
   } catch (err) {
     return { ok: false, failure: failureOf(err) };
   }
-}
-
-/** The pool thread's entry (worker-entry.mjs): the reply, its byte arrays moved to the main thread. */
-export async function runTask<K extends TaskName>(message: TaskMessage<K>): Promise<TaskReply<K>> {
-  const reply = await performTask(message);
-  if (!reply.ok) return reply;
-  const buffers = Object.values(reply.value).filter((v): v is Uint8Array => v instanceof Uint8Array).map((v) => v.buffer as ArrayBuffer);
-  return movable(reply, buffers);
 }

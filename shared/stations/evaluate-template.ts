@@ -1,10 +1,8 @@
-import type { Unit } from '../schemas/common';
-import type { Hole, Pairing, Placement, Problem, Station, TemplateComponent, TemplateContent } from '../schemas/template';
+import type { Hole, Pairing, Placement, Problem, Station, TemplateContent } from '../schemas/template';
 import { GRID_TOLERANCE, convert, formatLength } from '../units/units';
-import { applyTransform, isGridRotation, normalizeDegrees, placementTransform, type RigidTransform } from '../geometry/transform';
-import { componentGeometryIn, type ComponentGeometry } from '../geometry/component-geometry';
+import { applyTransform, isGridRotation, normalizeDegrees, placementTransform } from '../geometry/transform';
 import { LIMITS } from '../schemas/limits';
-import { boxOfPoints, createBoxIndex, footprintsOverlap, overlappingBoxPairs, outlineBounds, outlineFootprint, type Box, type Polygon } from '../geometry/outline';
+import { boxOfPoints, createBoxIndex, footprintsOverlap, overlappingBoxPairs, type Box, type Polygon } from '../geometry/outline';
 import { CLAMPED_KINDS, clampPath, holdingProblems, stopFacesOut, type FacedJaw } from './holding-checks';
 import { orderStations } from './numbering';
 import { pairingTable } from './pairing-table';
@@ -33,31 +31,7 @@ export interface TemplateEvaluation {
   /** Placements whose component has no closed outline: checked for shared holes, not for overlap. */
   notOverlapChecked: string[];
 }
-
-/** Kinds whose jaw face is the fixed jaw a part is pushed against. */
-const FIXED_KINDS = new Set(['center-rail', 'short-rail', 'vise']);
-
-interface PreparedComponent {
-  code: string;
-  kind: TemplateComponent['kind'];
-  geometry: ComponentGeometry;
-  /** Local footprint polygons, or null when the component has no closed outline. */
-  footprint: Polygon[] | null;
-  /** Local extent: the outline's exact bounds, or the box of dowels, stops and jaw faces. */
-  extent: Box;
-  /** How far below its opening the clamp closes (plate unit); null for a jaw rail with no clamp model. */
-  clampCloses: number | null;
-  /** Height of the part seat above the plate deck (plate unit): a station's Z. */
-  seatHeight: number;
-}
-
-interface Placed {
-  index: number;
-  placement: Placement;
-  component: PreparedComponent;
-  transform: RigidTransform;
-  extent: Box;
-}
+import { FIXED_KINDS, holeText, originOf, prepare, transformBox, who, type Placed, type PreparedComponent } from './placed-components';
 
 interface Draft {
   id: string;
@@ -83,48 +57,6 @@ interface Draft {
   facesOut: boolean;
   stopAngle: number;
   faceNormal: number | null;
-}
-
-const holeText = (h: Hole) => `hole (${h.col}, ${h.row})`;
-const who = (p: Placement) => `Placement ${p.id} (${p.component})`;
-
-function prepare(component: TemplateComponent, unit: Unit, chordTolerance: number): PreparedComponent {
-  const geometry = componentGeometryIn(component, unit);
-  const footprint = geometry.outline ? outlineFootprint(geometry.outline, chordTolerance) : [];
-  const features = [...geometry.dowels, ...geometry.stops, ...geometry.jawFaces];
-  return {
-    code: component.code,
-    kind: component.kind,
-    geometry,
-    footprint: footprint.length ? footprint : null,
-    extent: geometry.outline && (geometry.outline.paths.length || geometry.outline.circles.length) ? outlineBounds(geometry.outline) : boxOfPoints(features),
-    clampCloses: component.clamp ? convert(component.clamp.acceptBelow, component.unit, unit) : null,
-    seatHeight: convert(component.seatHeight ?? 0, component.unit, unit),
-  };
-}
-
-/** A local box under a quarter-turn transform is still a box: its corners map onto the new corners. */
-function transformBox(t: RigidTransform, b: Box): Box {
-  return boxOfPoints([
-    applyTransform(t, { x: b.minX, y: b.minY }),
-    applyTransform(t, { x: b.maxX, y: b.minY }),
-    applyTransform(t, { x: b.minX, y: b.maxY }),
-    applyTransform(t, { x: b.maxX, y: b.maxY }),
-  ]);
-}
-
-/** The shared offset origin in plate coordinates and the plate's unit. */
-function originOf(content: TemplateContent): { x: number; y: number; z: number } {
-  const { plate, sharedOffset: so } = content;
-  switch (so.kind) {
-    case 'hole':
-      return { x: so.hole.col * plate.pitch, y: so.hole.row * plate.pitch, z: 0 };
-    case 'center':
-      return { x: ((plate.columns - 1) * plate.pitch) / 2, y: ((plate.rows - 1) * plate.pitch) / 2, z: 0 };
-    case 'point':
-      // A point is entered in the template's unit, like every other number the template shows.
-      return { x: convert(so.x, content.unit, plate.unit), y: convert(so.y, content.unit, plate.unit), z: convert(so.z ?? 0, content.unit, plate.unit) };
-  }
 }
 
 /**

@@ -8,7 +8,6 @@ import { spawn } from 'node:child_process';
 import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
-import { MessageChannel } from 'node:worker_threads';
 import { workerSettingsOf } from '../../server/config';
 import { rebuild, WorkerPool } from '../../server/workers/pool';
 import { performTask } from '../../server/workers/tasks';
@@ -21,10 +20,7 @@ const SECONDS = 30;
 /** The same tasks run on the request's own thread: how uploads were read before the pool. */
 class InRequestReader extends WorkerPool {
   override async run<K extends TaskName>(name: K, input: TaskInput<K>): Promise<TaskOutput<K>> {
-    const { port1, port2 } = new MessageChannel();
-    this.onTaskStart?.(name);
-    const reply = await performTask({ name, input, started: port2 });
-    port1.close();
+    const reply = await performTask({ name, input }, () => this.onTaskStart?.(name));
     if (!reply.ok) throw rebuild(reply.failure);
     return reply.value;
   }
@@ -69,7 +65,7 @@ export async function run() {
   writeFileSync(file, text);
   try {
     const settings = workerSettingsOf(process.env);
-    console.log(`load average ${os.loadavg().map((l) => l.toFixed(2)).join(', ')} on ${os.availableParallelism()} cores; pool of ${settings.size} thread(s), ${settings.memoryMb} MB heap each`);
+    console.log(`load average ${os.loadavg().map((l) => l.toFixed(2)).join(', ')} on ${os.availableParallelism()} cores; pool of ${settings.size} process(es), ${settings.memoryMb} MB heap each`);
     const pooled = await measure('worker pool', new WorkerPool(settings), file);
     printLoad([pooled.quiet, pooled.busy]);
     const inline = await measure('in the request', new InRequestReader(settings), file);

@@ -143,7 +143,7 @@ export async function run() {
   }
 }
 
-/** The service path a user takes: preview the file, then commit the same file (5,000 rows added to a real SQLite catalog; the workbook read on a worker thread). */
+/** The service path a user takes: preview the file, then commit the same file (5,000 rows added to a real SQLite catalog; the workbook read in a worker process). */
 async function previewAndCommit(file: string) {
   const { realServer } = await import('./lib');
   const { manifestService } = await import('../../server/services/manifest');

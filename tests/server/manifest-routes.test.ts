@@ -1,12 +1,13 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import ExcelJS from 'exceljs';
 import { ManifestAnswerSchema } from '../../shared/schemas/manifest';
 import { makeTestApp, tableCounts, type Agent, type TestApp } from './test-app';
 
 let t: TestApp;
 let lead: Agent;
-beforeAll(async () => { t = await makeTestApp(); lead = await t.agent('lead'); });
-afterAll(async () => { await t.close(); });
+// Each test starts from a fresh demo shop (9 components): the counts below hold in any order.
+beforeEach(async () => { t = await makeTestApp(); lead = await t.agent('lead'); });
+afterEach(async () => { await t.close(); });
 
 const binary = (r: import('supertest').Test) => r.buffer(true).parse((res, cb) => { const c: Buffer[] = []; res.on('data', (d: Buffer) => c.push(d)); res.on('end', () => cb(null, Buffer.concat(c))); });
 const upload = (url: string, body: Buffer, name = 'manifest.xlsx') => lead.http.post(url).set('X-CSRF-Token', lead.token).attach('file', body, name);

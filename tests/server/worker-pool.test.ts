@@ -1,8 +1,8 @@
 /**
- * Heavy uploads are read on worker threads (server/workers/pool.ts): while a large DXF is being
- * inspected, the app on a real port still answers another request; a thread that runs out of its
- * heap (Node's worker resourceLimits) or of its time answers one sentence, and the next upload is
- * read by a fresh thread; a refusal thrown on a thread keeps its code and details.
+ * Heavy uploads are read in worker processes (server/workers/pool.ts): while a large DXF is being
+ * inspected, the app on a real port still answers another request; a process that runs out of its
+ * heap (node's --max-old-space-size) or of its time answers one sentence, and the next upload is
+ * read by a fresh process; a refusal thrown in a child keeps its code and details.
  *
  * The test drawings are written here as plain ASCII DXF: HEADER $INSUNITS 70 = 4 (millimetres) and
  * LINE entities with start 10/20/30 and end 11/21/31 (DXF Reference, HEADER section and LINE
@@ -52,12 +52,12 @@ describe('the event loop stays free while a large DXF is read', () => {
     await t.close();
   });
 
-  it(`answers GET /api/components while a ${(large.length / 1024 / 1024).toFixed(1)} MB DXF is being inspected on a thread`, async () => {
+  it(`answers GET /api/components while a ${(large.length / 1024 / 1024).toFixed(1)} MB DXF is being inspected in a worker process`, async () => {
     expect(large.length).toBeGreaterThan(5 * 1024 * 1024);
     const lead = await t.agent('lead', base);
     const operator = await t.agent('operator', base);
     const finished: string[] = [];
-    // The list is asked for only once the thread has begun reading the drawing.
+    // The list is asked for only once the worker process has begun reading the drawing.
     const listed = new Promise<number>((resolve, reject) => {
       workers.onTaskStart = (name) => {
         if (name !== 'dxf-inspect') return;
@@ -79,7 +79,7 @@ describe('the event loop stays free while a large DXF is read', () => {
     expect(res.body.bbox).toMatchObject({ minX: 0, minY: 0, maxX: 1000, maxY: rows - 1 });
   });
 
-  it('keeps the code, line and block of a DXF refused on the thread (the same 400 as when read in the request)', async () => {
+  it('keeps the code, line and block of a DXF refused in a worker process (the same 400 as when read in the request)', async () => {
     const lead = await t.agent('lead', base);
     const res = await inspect(lead, Buffer.from('0\nSECTION\n2\nENTITIES\n0\nINSERT\n8\n0\n2\nNOPE\n10\n0\n20\n0\n0\nENDSEC\n0\nEOF\n'));
     expect(res.status).toBe(400);
@@ -90,8 +90,8 @@ describe('the event loop stays free while a large DXF is read', () => {
   });
 });
 
-describe('a thread that exceeds its limits', () => {
-  it('runs out of its heap cap: a 400 with a sentence, nothing logged, and the next upload is read by a new thread', async () => {
+describe('a worker process that exceeds its limits', () => {
+  it('runs out of its heap cap: a 400 with a sentence, nothing logged, and the next upload is read by a new process', async () => {
     // 64 MB of heap cannot hold the parse of the large drawing (the bench's 20 MB file peaks near 400 MB).
     const workers = new WorkerPool({ size: 1, memoryMb: 64, timeoutMs: 300_000 });
     const t = await makeTestApp({ workers });
@@ -112,7 +112,7 @@ describe('a thread that exceeds its limits', () => {
   });
 
   it('runs past its time limit: the reading is stopped, a 400 says so, and nothing is logged', async () => {
-    // One millisecond: no thread reads a 100,000-line drawing that fast, so the limit is always reached.
+    // One millisecond: no process reads a 100,000-line drawing that fast, so the limit is always reached.
     const workers = new WorkerPool({ size: 1, memoryMb: 1024, timeoutMs: 1 });
     const t = await makeTestApp({ workers });
     try {
