@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
-import { startE2E, type E2E } from './browser';
+import { apiStatus, startE2E, type E2E } from './browser';
 
 /**
  * The lead's naming-rules form in Chromium. The demo convention (shared/naming/conventions.ts) has a
@@ -82,6 +82,22 @@ describe('naming rules as a form', () => {
     await value.fill('CR');
     await expect.poll(() => value.getAttribute('aria-invalid')).toBe('false');
     expect((await apiConvention(page)).version).toBe(before);
+    await page.close();
+  });
+
+  it('a save made while someone else saved a newer version is refused, and the edits stay on screen', async () => {
+    const page = await e2e.newPage();
+    await e2e.signIn(page, 'lead');
+    await openForm(page);
+    const opened = (await apiConvention(page)).version;
+    await page.getByLabel('Value 2 of token {kind}', { exact: true }).first().fill('SX');
+    // Another lead saves the rules as they are, through the API, while this form is open.
+    const { version: _v, ...rules } = (await apiConvention(page)) as unknown as Record<string, unknown>;
+    expect(await apiStatus(page, e2e.baseUrl, 'put', '/api/naming/convention', { ...rules, revision: opened })).toBe(200);
+    await page.getByRole('button', { name: `Save as version ${opened + 1}` }).click();
+    await page.getByText(`Someone saved naming convention version ${opened + 1} after you opened version ${opened}`).waitFor();
+    expect(await page.getByLabel('Value 2 of token {kind}', { exact: true }).first().inputValue()).toBe('SX');
+    expect((await apiConvention(page)).layer.tokens.find((t) => t.name === 'kind')?.values).not.toContain('SX');
     await page.close();
   });
 
