@@ -189,7 +189,7 @@ export function createApp(deps: AppDeps): GridsetApp {
     ...auditRoutes(audit),
     ...jobRoutes(jobs, loadListService({ db, jobs, audit }), programs),
     ...manifestRoutes({ manifest: manifestService({ db, catalog: catalogRepo(db), naming, audit, workers }), templates, dataDir: deps.dataDir, uploadLimitBytes: deps.uploadLimitBytes ?? 20 * 1024 * 1024 }),
-    ...dxfRoutes({ dataDir: deps.dataDir, files, uploadLimitBytes: deps.uploadLimitBytes ?? 20 * 1024 * 1024, catalog, jobs, outlines: outlineImportService({ workers, naming, catalog, jobs }) }),
+    ...dxfRoutes({ dataDir: deps.dataDir, files, uploadLimitBytes: deps.uploadLimitBytes ?? 20 * 1024 * 1024, catalog, jobs, outlines: outlineImportService({ workers, naming, catalog, jobs, files, dataDir: deps.dataDir }) }),
     ...originalFileRoutes(originalFilesService({ files, catalog, jobs })),
     ...partProgramRoutes({ dataDir: deps.dataDir, uploadLimitBytes: deps.uploadLimitBytes ?? 20 * 1024 * 1024, programs }),
   ];

@@ -11,8 +11,7 @@ export function namingRepo(db: Db) {
   return {
     /** The convention in force: the latest saved, or the plain default when none was saved. */
     async current(): Promise<NamingConvention> {
-      const latest = await db('naming_conventions').max({ v: 'version' });
-      const version = Number((latest as [{ v: number | string | null }])[0].v ?? 0);
+      const version = await this.latestVersion();
       if (version === 0) return DEFAULT_CONVENTION;
       if (kept?.version === version) return kept.convention;
       const row = await db('naming_conventions').where({ version }).first();
@@ -23,9 +22,13 @@ export function namingRepo(db: Db) {
       const rows = await db('naming_conventions').select('version', 'created_at', 'created_by').orderBy('version', 'desc');
       return rows.map((r) => ({ version: r.version, createdAt: isoTime(r.created_at), createdBy: r.created_by }));
     },
-    async save(convention: Omit<NamingConvention, 'version'>, userId: number | null, trx: Db = db): Promise<NamingConvention> {
+    /** The newest saved version number, 0 when none was saved (the default convention is in force). */
+    async latestVersion(trx: Db = db): Promise<number> {
       const latest = await trx('naming_conventions').max({ v: 'version' });
-      const version = Number((latest as [{ v: number | null }])[0].v ?? 0) + 1;
+      return Number((latest as [{ v: number | string | null }])[0].v ?? 0);
+    },
+    async save(convention: Omit<NamingConvention, 'version'>, userId: number | null, trx: Db = db): Promise<NamingConvention> {
+      const version = (await this.latestVersion(trx)) + 1;
       const saved: NamingConvention = { ...convention, version };
       await trx('naming_conventions').insert({ version, body: JSON.stringify(saved), created_by: userId });
       return saved;

@@ -1,5 +1,6 @@
 import type { ErrorRequestHandler, RequestHandler } from 'express';
 import { ZodError } from 'zod';
+import { zodIssues } from '../../shared/schemas/issues';
 import { isForeignKeyViolation, isOutOfRange, isUniqueViolation } from '../db/dialect';
 
 /** The one error type routes and services throw; the handler below turns it into the error body. */
@@ -18,14 +19,7 @@ export const badRequest = (message: string, details: unknown = null, code = 'bad
 export const notFound = (what: string) => new HttpError(404, 'not-found', `${what} was not found.`);
 export const conflict = (message: string, details: unknown = null) => new HttpError(409, 'conflict', message, details);
 
-export interface FieldIssue {
-  path: string;
-  message: string;
-}
-
-export function zodIssues(error: ZodError): FieldIssue[] {
-  return error.issues.map((i) => ({ path: i.path.map(String).join('.'), message: i.message }));
-}
+export { zodIssues, type FieldIssue } from '../../shared/schemas/issues';
 
 /** A 400 whose message repeats the first problem so a script's log line says what to fix. */
 export function validationError(error: ZodError, where = 'request'): HttpError {

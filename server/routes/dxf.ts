@@ -2,6 +2,7 @@ import { z } from 'zod';
 import { CAN } from '../../shared/schemas/auth';
 import { IdParamSchema, UnitSchema } from '../../shared/schemas/common';
 import { LIMITS } from '../../shared/schemas/limits';
+import { InspectedOutlineInputSchema } from '../../shared/schemas/dxf-inspection';
 import { currentUser } from '../middleware/auth';
 import { singleFileUpload, usingUpload } from '../middleware/upload';
 import { keepOriginal } from '../services/dxf-uploads';
@@ -40,6 +41,11 @@ export function dxfRoutes(deps: { dataDir: string; files: FileStore; uploadLimit
       await keepOriginal(files, file.path, sha256);
       res.json(await catalog.setOutline(currentUser(req).id, id, outline, { name: file.originalname, size: file.size, sha256, unit }));
     }) },
+    { method: 'post', path: '/components/:id/outline/from-inspection', access: CAN.editCatalog, handler: async (req, res) => {
+      const { id } = parseOr400(IdParamSchema, req.params, 'address');
+      const input = parseOr400(InspectedOutlineInputSchema, req.body, 'outline from the inspected drawing');
+      res.json(await outlines.storeInspected(currentUser(req).id, id, input));
+    } },
     { method: 'post', path: '/jobs/:id/outline', access: CAN.editJobs, before: upload, handler: (req, res) => usingUpload(req.file, async (file) => {
       const { id } = parseOr400(IdParamSchema, req.params, 'address');
       const f = parseOr400(OutlineFieldsSchema, req.body, 'part outline upload');

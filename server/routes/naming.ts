@@ -1,12 +1,9 @@
-import { z } from 'zod';
 import { CAN } from '../../shared/schemas/auth';
-import { NamingCheckInputSchema, LayerRuleSchema, ComponentRuleSchema } from '../../shared/schemas/naming';
+import { NamingCheckInputSchema, SaveConventionInputSchema } from '../../shared/schemas/naming';
 import { currentUser } from '../middleware/auth';
 import type { NamingService } from '../services/naming';
 import { parseOr400 } from './parse';
 import type { RouteDef } from './route-table';
-
-const SaveConventionSchema = z.object({ layer: LayerRuleSchema, component: ComponentRuleSchema });
 
 export function namingRoutes(naming: NamingService): RouteDef[] {
   return [
@@ -14,8 +11,8 @@ export function namingRoutes(naming: NamingService): RouteDef[] {
       res.json(await naming.current());
     } },
     { method: 'put', path: '/naming/convention', access: CAN.editNaming, handler: async (req, res) => {
-      const body = parseOr400(SaveConventionSchema, req.body, 'naming convention');
-      res.json(await naming.save(body, currentUser(req).id));
+      const { revision, ...rules } = parseOr400(SaveConventionInputSchema, req.body, 'naming convention');
+      res.json(await naming.save(rules, currentUser(req).id, revision));
     } },
     { method: 'get', path: '/naming/conventions', access: 'signed-in', handler: async (_req, res) => {
       const items = await naming.history();

@@ -3,6 +3,7 @@ import { CAN } from '../../shared/schemas/auth';
 import { IdParamSchema, ROW_ID_MAX, TOO_LARGE_ID } from '../../shared/schemas/common';
 import { CreateTemplateInputSchema, NewVersionInputSchema, ReleaseInputSchema, OffsetsQuerySchema, SaveVersionInputSchema } from '../../shared/schemas/template-api';
 import { toTemplateFile } from '../../shared/interchange/template-file';
+import { draftMark } from '../../shared/interchange/draft-mark';
 import { currentUser } from '../middleware/auth';
 import type { TemplatesService } from '../services/templates';
 import type { SettingsRepo } from '../db/settings-repo';
@@ -66,7 +67,7 @@ export function templateRoutes(templates: TemplatesService, settings: Pick<Setti
     } },
     { method: 'get', path: '/templates/:id/versions/:n/stations.csv', access: 'signed-in', handler: async (req, res) => {
       const v = await load(req.params);
-      const csv = stationsCsv(v.unit, v.stations);
+      const csv = stationsCsv(v, v.stations);
       res.type('text/csv').attachment(fileName(v.name, v.version, 'stations.csv')).send(csv);
     } },
     { method: 'get', path: '/templates/:id/versions/:n/stations.xlsx', access: 'signed-in', handler: async (req, res) => {
@@ -83,12 +84,14 @@ export function templateRoutes(templates: TemplatesService, settings: Pick<Setti
     { method: 'get', path: '/templates/:id/versions/:n/drawing.dxf', access: 'signed-in', handler: async (req, res) => {
       const v = await load(req.params);
       await templates.requireExportableNames(v);
-      const dxf = writeDrawingDxf(templateDrawing(v, templates.evaluation(v)));
+      const dxf = writeDrawingDxf(templateDrawing(v, templates.evaluation(v), undefined, v));
       res.type('application/dxf').attachment(fileName(v.name, v.version, 'drawing.dxf')).send(dxf);
     } },
     { method: 'get', path: '/templates/:id/versions/:n/drawing.svg', access: 'signed-in', handler: async (req, res) => {
       const v = await load(req.params);
-      const svg = drawingToSvg(templateDrawing(v, templates.evaluation(v)), { title: `${v.name} v${v.version} — origin at the shared offset`, background: '#ffffff' });
+      const mark = draftMark(v);
+      const title = `${mark ? `${mark}: ` : ''}${v.name} v${v.version} — origin at the shared offset`;
+      const svg = drawingToSvg(templateDrawing(v, templates.evaluation(v), undefined, v), { title, background: '#ffffff' });
       res.type('image/svg+xml').send(svg);
     } },
     { method: 'get', path: '/templates/:id/versions/:n/offsets.nc', access: 'signed-in', handler: async (req, res) => {

@@ -29,7 +29,7 @@ const partLayer = (job: JobDetail) => `PART-${job.partNumber.toUpperCase().repla
 export function jobDrawing(job: JobDetail, v: TemplateVersion) {
   const evaluation = evaluateTemplate(v);
   const stations = usedVersion(job, v).stations;
-  return templateDrawing(v, { origin: evaluation.origin, stations }, job.partOutline ? { outline: turnOutline(job.partOutline, job.partRotation), layer: partLayer(job) } : undefined);
+  return templateDrawing(v, { origin: evaluation.origin, stations }, job.partOutline ? { outline: turnOutline(job.partOutline, job.partRotation), layer: partLayer(job) } : undefined, v);
 }
 
 /** Layer of the screen picture's unused-station marks, drawn light grey. */
@@ -42,7 +42,7 @@ const UNUSED_LAYER = 'STATIONS-UNUSED';
  * files keep templateDrawing's CAM colours.
  */
 const SCREEN_ACI: Readonly<Record<string, number>> = {
-  [DRAWING_LAYERS.plate]: 8, [DRAWING_LAYERS.holes]: 9, [DRAWING_LAYERS.origin]: 7, [DRAWING_LAYERS.stations]: 250, [DRAWING_LAYERS.numbers]: 7,
+  [DRAWING_LAYERS.plate]: 8, [DRAWING_LAYERS.holes]: 9, [DRAWING_LAYERS.origin]: 7, [DRAWING_LAYERS.stations]: 250, [DRAWING_LAYERS.numbers]: 7, [DRAWING_LAYERS.draft]: 7,
 };
 
 /** The job's plate drawing as an SVG picture for the job page: the template with the part at every station. */

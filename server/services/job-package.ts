@@ -19,7 +19,7 @@ export async function jobPackage(job: JobDetail, v: TemplateVersion, programFile
   // A shift family needs no machine position; one that turns when any station the job uses is turned.
   const shiftFamily = used.stations.some(isTurned) ? 'shift-rotate' : 'ngc-g52';
   const files: [string, string | Buffer][] = [
-    ['stations.csv', stationsCsv(v.unit, used.stations)],
+    ['stations.csv', stationsCsv(v, used.stations)],
     ['stations.xlsx', await stationsXlsx(used)],
     ['job-drawing.dxf', writeDrawingDxf(drawing)],
     ['job-drawing.svg', drawingToSvg(drawing, { background: '#ffffff', title: job.name })],

@@ -9,9 +9,20 @@ export function namingService(repo: NamingRepo, audit: AuditRepo) {
   return {
     current: () => repo.current(),
     history: () => repo.history(),
-    async save(c: Omit<NamingConvention, 'version'>, userId: number) {
-      // Two leads saving at once both read the same latest version; the one that loses saves again as the next.
-      return retryUniqueRace(() => audit.audited((trx) => repo.save(c, userId, trx), (saved) => ({ userId, action: 'naming.save', objectType: 'naming', objectId: saved.version, summary: `Saved naming convention version ${saved.version}`, after: saved })));
+    /**
+     * Saves the rules as the next version. With `revision` (the version the lead edited), a version
+     * saved by someone else since is a 409 and nothing is written; without it, two leads saving at
+     * once both read the same latest version and the one that loses saves again as the next.
+     */
+    async save(c: Omit<NamingConvention, 'version'>, userId: number, revision?: number) {
+      return retryUniqueRace(() => audit.audited(async (trx) => {
+        if (revision !== undefined) {
+          // The default convention is version 1 to everyone before any save (repo.current()).
+          const now = Math.max(1, await repo.latestVersion(trx));
+          if (now !== revision) throw new HttpError(409, 'stale-revision', `Someone saved naming convention version ${now} after you opened version ${revision}; nothing of yours was saved. Reload the rules and make your change again.`, { current: now });
+        }
+        return repo.save(c, userId, trx);
+      }, (saved) => ({ userId, action: 'naming.save', objectType: 'naming', objectId: saved.version, summary: `Saved naming convention version ${saved.version}`, after: saved })));
     },
     async check(target: NamingTarget, name: string): Promise<NamingCheckResult> {
       const convention = await repo.current();

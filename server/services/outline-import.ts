@@ -5,11 +5,14 @@
  */
 import type { Unit } from '../../shared/schemas/common';
 import type { Outline } from '../../shared/schemas/geometry';
+import type { InspectedOutlineInput } from '../../shared/schemas/dxf-inspection';
+import type { FileStore } from '../storage/file-store';
 import type { WorkerPool } from '../workers/pool';
 import type { CatalogService } from './catalog';
 import type { JobsService } from './jobs';
 import type { NamingService } from './naming';
-import { mapLayers } from './dxf-uploads';
+import { keepOriginal, mapLayers } from './dxf-uploads';
+import { inspectedUploads } from './inspected-uploads';
 
 /** The upload as the route has it: its temporary file and size. */
 export interface UploadedFile { path: string; size: number }
@@ -19,22 +22,41 @@ export interface OutlineFields { unit?: Unit; datumX?: number; datumY?: number; 
 
 export interface OutlineRead { outline: Outline; unit: Unit; sha256: string; datum: { x: number; y: number } }
 
-export function outlineImportService(deps: { workers: WorkerPool; naming: NamingService; catalog: CatalogService; jobs: JobsService }) {
-  const { workers, naming, catalog, jobs } = deps;
+export function outlineImportService(deps: { workers: WorkerPool; naming: NamingService; catalog: CatalogService; jobs: JobsService; files: FileStore; dataDir: string; now?: () => number }) {
+  const { workers, naming, catalog, jobs, files } = deps;
+  const inspected = inspectedUploads(files, deps.dataDir, deps.now);
+  /** A component's outline with its origin at the primary dowel (datumX/datumY, 0 by default), layers mapped and checked. */
+  async function componentOutline(id: number, file: UploadedFile, f: OutlineFields): Promise<OutlineRead> {
+    const component = await catalog.getComponent(id);
+    const read = await workers.run('dxf-outline', { path: file.path, fileUnit: f.unit ?? null, targetUnit: component.unit, datum: { x: f.datumX, y: f.datumY }, datumDefault: 'origin' });
+    const convention = await naming.current();
+    return { ...read, outline: mapLayers(convention.layer, read.outline, f.layerMap) };
+  }
+
   return {
-    /** POST /api/dxf/inspect: the answer as bounded JSON (UTF-8 bytes), each layer checked against the convention. */
+    /**
+     * POST /api/dxf/inspect: the answer as bounded JSON (UTF-8 bytes), each layer checked against the
+     * convention; the file, once read, is kept for an hour under its SHA-256 for the import that follows.
+     */
     async inspect(file: UploadedFile): Promise<Buffer> {
       const convention = await naming.current();
-      const { json } = await workers.run('dxf-inspect', { path: file.path, size: file.size, layerRule: convention.layer });
+      const { json, sha256 } = await workers.run('dxf-inspect', { path: file.path, size: file.size, layerRule: convention.layer });
+      await inspected.keep(file.path, sha256);
       return Buffer.from(json.buffer, json.byteOffset, json.byteLength);
     },
-    /** A component's outline with its origin at the primary dowel (datumX/datumY, 0 by default), layers mapped and checked. */
-    async componentOutline(id: number, file: UploadedFile, f: OutlineFields): Promise<OutlineRead> {
-      const component = await catalog.getComponent(id);
-      const read = await workers.run('dxf-outline', { path: file.path, fileUnit: f.unit ?? null, targetUnit: component.unit, datum: { x: f.datumX, y: f.datumY }, datumDefault: 'origin' });
-      const convention = await naming.current();
-      return { ...read, outline: mapLayers(convention.layer, read.outline, f.layerMap) };
+    /**
+     * POST /api/components/:id/outline/from-inspection: the outline of a file inspected a moment ago,
+     * read again from the kept copy with the user's choices, its original kept and the outline stored.
+     */
+    async storeInspected(actorId: number, id: number, input: InspectedOutlineInput) {
+      const { sha256, name, layerMap, ...fields } = input;
+      return inspected.using(sha256, async (file) => {
+        const read = await componentOutline(id, file, { ...fields, layerMap: layerMap ? JSON.stringify(layerMap) : undefined });
+        await keepOriginal(files, file.path, read.sha256);
+        return catalog.setOutline(actorId, id, read.outline, { name, size: file.size, sha256: read.sha256, unit: read.unit });
+      });
     },
+    componentOutline,
     /** A job's part outline; its datum corner defaults to the lower-left corner of the extents, the corner that sits against the stop. */
     async jobOutline(id: number, file: UploadedFile, f: OutlineFields): Promise<OutlineRead> {
       const job = await jobs.detail(id);

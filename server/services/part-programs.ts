@@ -59,7 +59,7 @@ export function partProgramsService(deps: { db: Db; jobs: JobsService; audit: Au
     const request: TableProgramRequest = {
       program: stored.program, unit: job.unit, stations, order: q.order, safeZ,
       header: {
-        templateName: job.templateName, version: job.version, contentHash: job.contentHash, jobId: job.id, jobName: job.name,
+        templateName: job.templateName, version: job.version, state: job.versionState, contentHash: job.contentHash, jobId: job.id, jobName: job.name,
         partNumber: job.partNumber, programSha256: stored.sha256, family: familyText, skipped,
       },
     };

@@ -5,6 +5,7 @@ import type { TemplateEvaluation } from '../../shared/stations/evaluate-template
 import { componentGeometryIn } from '../../shared/geometry/component-geometry';
 import { applyTransform, cosSinDeg, placementTransform, type RigidTransform } from '../../shared/geometry/transform';
 import { DRAWING_LAYERS, componentLayer } from '../../shared/interchange/drawing-layers';
+import { draftMark, type MarkedVersion } from '../../shared/interchange/draft-mark';
 import { emptyDrawing, type Drawing } from '../dxf/drawing';
 
 export interface PartOnStations {
@@ -17,8 +18,10 @@ export interface PartOnStations {
  * A template (or a job: with the part drawn at every station) as a neutral drawing whose origin
  * is the shared work offset, so it drops into a CAM file with the work offset at the drawing
  * origin. Plate coordinates minus the shared offset origin; the part is turned by each station's C.
+ * Given the version (`source`) and it is not released, its draft mark is written as one text on a
+ * layer of its own above the plate's far edge, as wide as the plate at most.
  */
-export function templateDrawing(content: TemplateContent, evaluation: Pick<TemplateEvaluation, 'stations' | 'origin'>, part?: PartOnStations): Drawing {
+export function templateDrawing(content: TemplateContent, evaluation: Pick<TemplateEvaluation, 'stations' | 'origin'>, part?: PartOnStations, source?: MarkedVersion): Drawing {
   const { plate } = content;
   const d = emptyDrawing(content.unit);
   const o = evaluation.origin;
@@ -61,6 +64,15 @@ export function templateDrawing(content: TemplateContent, evaluation: Pick<Templ
     d.lines.push({ layer: DRAWING_LAYERS.stations, start: { x: s.x - size, y: s.y }, end: { x: s.x + size, y: s.y } }, { layer: DRAWING_LAYERS.stations, start: { x: s.x, y: s.y - size }, end: { x: s.x, y: s.y + size } });
     d.texts.push({ layer: DRAWING_LAYERS.numbers, x: s.x + size * 0.6, y: s.y + size * 0.6, height: size * 1.4, text: String(s.number) });
     if (part) pushOutline(d, part.outline, part.layer, stationTransform(s));
+  }
+
+  const mark = source ? draftMark(source) : null;
+  if (mark) {
+    // SVG and most CAD fonts set a capital about 0.6 of the text height wide (drawing-svg.ts boxes texts the same way).
+    const height = Math.min(pitch / 4, (x1 + margin) / (0.6 * mark.length));
+    const corner = shift({ x: -margin, y: y1 + height });
+    d.layers.push({ name: DRAWING_LAYERS.draft, color: 7 });
+    d.texts.push({ layer: DRAWING_LAYERS.draft, x: corner.x, y: corner.y, height, text: mark });
   }
   return d;
 }

@@ -11,7 +11,7 @@ import type { ManifestRead } from '../manifest/manifest-types';
 
 export interface TaskIo {
   /** POST /api/dxf/inspect: the whole answer as bounded JSON (UTF-8 bytes), layers checked against the rule. */
-  'dxf-inspect': { input: { path: string; size: number; layerRule: NamingRule }; output: { json: Uint8Array } };
+  'dxf-inspect': { input: { path: string; size: number; layerRule: NamingRule }; output: { json: Uint8Array; sha256: string } };
   /**
    * An outline upload: the drawing's outline in the owner's unit with its origin at the datum.
    * A datum coordinate left out is 0 (`origin`) or the lower-left corner of the extents (`extents`).

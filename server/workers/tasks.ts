@@ -16,11 +16,11 @@ type Handlers = { [K in TaskName]: (input: TaskInput<K>) => TaskOutput<K> | Prom
 
 const HANDLERS: Handlers = {
   'dxf-inspect': ({ path, size, layerRule }) => {
-    const { inspection } = inspectUploadedDxf(path);
+    const { inspection, sha256 } = inspectUploadedDxf(path);
     const { unit, layers, entities, entityTypes, bbox, circles, unsupported, outline, notes, points, approximations, warnings, version, insunits } = inspection;
-    const answer = { unit, insunits, version, layers: layerReport(layerRule, layers), entities, entityTypes, bbox, circles, unsupported, outline, notes, points, approximations, warnings };
+    const answer = { sha256, unit, insunits, version, layers: layerReport(layerRule, layers), entities, entityTypes, bbox, circles, unsupported, outline, notes, points, approximations, warnings };
     // UTF-8 bytes in a buffer of their own, moved to the main thread rather than copied.
-    return { json: new TextEncoder().encode(boundedJson(answer, size)) };
+    return { json: new TextEncoder().encode(boundedJson(answer, size)), sha256 };
   },
   'dxf-outline': ({ path, fileUnit, targetUnit, datum: given, datumDefault }) => {
     const { inspection, sha256 } = inspectUploadedDxf(path);

@@ -4,6 +4,7 @@ import type { MachinePosition } from '../stations/work-offsets';
 import { formatNumber, roundTo } from '../units/units';
 import { normalizeDegrees } from '../geometry/transform';
 import { FAMILIES, WORK_OFFSET_CODES, type ControlFamily } from './control-families';
+import { draftMark } from '../interchange/draft-mark';
 
 export { CONTROL_FAMILIES, FAMILIES, WORK_OFFSET_CODES, type ControlFamily } from './control-families';
 
@@ -189,16 +190,22 @@ export function restoreSharedLines(plan: StationPlan): string[] {
   return [...FAMILIES[plan.family].restoreLines, plan.sharedCode];
 }
 
+/** The draft mark as the first comment of a file from a version that is not released; nothing for a released one. */
+export function draftMarkLines(source: OffsetFileSource): string[] {
+  const mark = draftMark(source);
+  return mark ? [comment(mark)] : [];
+}
+
 /** The header comments every Gridset G-code file carries: what, from which version, in which state, and the cautions. */
 export function headerLines(plan: StationPlan, source: OffsetFileSource, title: string): string[] {
   const f = FAMILIES[plan.family];
   const lines = [
+    ...draftMarkLines(source),
     comment(`GRIDSET ${title}`),
     comment(`CONTROL FAMILY: ${plan.family} - ${f.label}`),
     comment(`TEMPLATE: ${source.templateName}`),
     comment(`VERSION: ${source.version} - ${source.state.toUpperCase()}`),
   ];
-  if (source.state !== 'released') lines.push(comment(`NOT RELEASED: THIS VERSION IS ${source.state.toUpperCase()} - NOT FOR PRODUCTION`));
   lines.push(
     comment(`CONTENT HASH: ${source.contentHash}`),
     comment(plan.unit === 'in' ? 'UNIT: INCH - G20' : 'UNIT: MILLIMETER - G21'),

@@ -1,6 +1,6 @@
 import type { Unit } from '../schemas/common';
 import type { Station } from '../schemas/template';
-import { commentText } from './offsets';
+import { commentText, draftMarkLines } from './offsets';
 import type { Block, PartProgram, Segment, XY } from './read-part-program';
 
 /**
@@ -19,6 +19,8 @@ export const MAX_TABLE_BLOCKS = 4_000_000;
 export interface TableProgramHeader {
   templateName: string;
   version: number | string;
+  /** The pinned version's state: a version retired since the job was made is marked at the top. */
+  state: string;
   contentHash: string;
   jobId: number;
   jobName: string;
@@ -119,6 +121,7 @@ export function* tableProgramChunks(req: TableProgramRequest, frame: StationFram
   const h = req.header;
 
   out.push(
+    ...draftMarkLines(h),
     comment('GRIDSET WHOLE-TABLE PROGRAM'),
     comment(`TEMPLATE: ${h.templateName} VERSION ${h.version}`),
     comment(`CONTENT HASH: ${h.contentHash}`),

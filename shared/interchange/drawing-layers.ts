@@ -11,6 +11,8 @@ export const DRAWING_LAYERS = {
   origin: 'GRID-ORIGIN',
   stations: 'GRID-STATIONS',
   numbers: 'GRID-NUMBERS',
+  /** The draft mark of a version that is not released (shared/interchange/draft-mark.ts). */
+  draft: 'GRID-DRAFT',
 } as const;
 
 /** A component's outline goes on its catalog layer, or on one named after its code when it has none. */

@@ -49,7 +49,7 @@ export const DEMO_CONVENTION: NamingConvention = {
       { name: 'rail', type: 'list', values: ['CR', 'JR'] },
       { name: 'mm', type: 'number', format: '0', min: 1, max: 2000 },
       { name: 'part', type: 'regex', regex: '[A-Z0-9][A-Z0-9_-]*', hint: 'a part number such as 10452-A' },
-      { name: 'what', type: 'list', values: ['PLATE', 'HOLES', 'ORIGIN', 'STATIONS', 'NUMBERS'] },
+      { name: 'what', type: 'list', values: ['PLATE', 'HOLES', 'ORIGIN', 'STATIONS', 'NUMBERS', 'DRAFT'] },
     ],
     case: 'upper',
     minLength: 2,

@@ -102,6 +102,17 @@ export const NamingConventionSchema = z.object({
 export type NamingConventionInput = z.input<typeof NamingConventionSchema>;
 export type NamingConvention = z.output<typeof NamingConventionSchema>;
 
+/**
+ * PUT /api/naming/convention: the two rules, and optionally `revision`, the convention version the
+ * edit started from; when given and another version was saved since, the save is refused with 409.
+ */
+export const SaveConventionInputSchema = z.object({
+  layer: LayerRuleSchema,
+  component: ComponentRuleSchema,
+  revision: z.number({ message: 'revision must be a whole number: the convention version you edited.' }).int('revision must be a whole number: the convention version you edited.').min(1, 'revision must be 1 or more.').max(ROW_ID_MAX, TOO_LARGE_ID).optional(),
+}, { error: 'The naming convention must be an object with layer and component.' });
+export type SaveConventionInput = z.input<typeof SaveConventionInputSchema>;
+
 /** The most characters a checked name may have: the DXF limit for symbol-table names since R2000. */
 export const MAX_CHECKED_NAME_LENGTH = 255;
 

@@ -15,7 +15,7 @@ const read = readPartProgram(text, 'in');
 if (!read.ok) throw new Error(read.error.message);
 let bytes = text.length;
 if (mode === 'table') {
-  const out = expandedProgram({ program: read.program, unit: 'in', stations, order: 'tool', safeZ: 2, header: { templateName: 'Bench', version: 1, contentHash: 'x', jobId: 1, jobName: 'Bench', partNumber: 'P', programSha256: 'y', family: 'EXPANDED', skipped: [] } });
+  const out = expandedProgram({ program: read.program, unit: 'in', stations, order: 'tool', safeZ: 2, header: { templateName: 'Bench', version: 1, state: 'released', contentHash: 'x', jobId: 1, jobName: 'Bench', partNumber: 'P', programSha256: 'y', family: 'EXPANDED', skipped: [] } });
   if (!out.ok) throw new Error(out.message);
   bytes = out.text.length;
 }

@@ -29,6 +29,13 @@ describe('outline from a drawing, in a real browser', () => {
     await e2e.signIn(page, 'lead');
     await page.goto(`${e2e.baseUrl}/catalog/components/${id}`);
     await page.getByRole('heading', { name: 'Outline from a drawing' }).waitFor();
+    // Every request that carries a body, to see the drawing leave the browser once.
+    const sent: { url: string; type: string; bytes: number; json: unknown }[] = [];
+    page.on('request', (r) => {
+      if (r.method() !== 'POST') return;
+      const type = r.headers()['content-type'] ?? '';
+      sent.push({ url: new URL(r.url()).pathname, type, bytes: r.postDataBuffer()?.length ?? 0, json: type.startsWith('application/json') ? r.postDataJSON() : null });
+    });
     await page.getByLabel('Choose a DXF file').setInputFiles(SAMPLE);
 
     // The preview, the unit the file says, and every layer with a show/hide checkbox.
@@ -73,6 +80,15 @@ describe('outline from a drawing, in a real browser', () => {
 
     const after = await storedComponent('JR-1.000');
     const sha256 = createHash('sha256').update(readFileSync(SAMPLE)).digest('hex');
+    // The file went up once, to be read; both attempts to store named it by its SHA-256 in a small JSON body.
+    const uploads = sent.filter((r) => r.type.startsWith('multipart/form-data'));
+    expect(uploads.map((r) => r.url)).toEqual(['/api/dxf/inspect']);
+    const stores = sent.filter((r) => r.url === `/api/components/${id}/outline/from-inspection`);
+    expect(stores).toHaveLength(2);
+    for (const r of stores) {
+      expect(r.json).toMatchObject({ sha256, name: 'jaw-rail-inch.dxf', datumX: 1, datumY: 0.75 });
+      expect(r.bytes).toBeLessThan(readFileSync(SAMPLE).length);
+    }
     expect(after.outlineFile).toMatchObject({ name: 'jaw-rail-inch.dxf', sha256, unit: 'in' });
     // Origin at the primary dowel: the dowel holes (r 0.25 in) at (0, 0) and (10, 0).
     const dowelHoles = after.outline!.circles.filter((c) => Math.abs(c.r - 0.25) < 1e-9);

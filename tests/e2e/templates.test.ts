@@ -30,6 +30,11 @@ describe('template editor in a real browser', () => {
     expect(JSON.parse(stored.content).placements).toHaveLength(7);
     await page.reload();
     await page.getByRole('row', { name: /^21 / }).waitFor();
+    // The files of a draft say so at their top; the page says it beside them.
+    await page.getByText('Version 2 is draft, not released').waitFor();
+    const csv = await page.request.get(`${e2e.baseUrl}/api/templates/1/versions/2/stations.csv`);
+    expect(csv.ok()).toBe(true);
+    expect((await csv.text()).split('\r\n')[0]).toMatch(/^NOT RELEASED - DRAFT - VERSION 2 - CONTENT HASH [0-9a-f]{64}/);
     await page.close();
   });
 
@@ -39,6 +44,7 @@ describe('template editor in a real browser', () => {
     await page.goto(`${e2e.baseUrl}/templates/1/versions/1`);
     await page.getByRole('row', { name: /^20 / }).waitFor();
     expect(await page.getByRole('button', { name: /Save draft|New draft|Release|Add placement/ }).count()).toBe(0);
+    expect(await page.getByText(/not released/).count()).toBe(0);
     await page.close();
   });
 

@@ -132,6 +132,13 @@ export async function buildCases(t: TestApp, a: Agent, perRoute: number, seed: n
   jsonRoute('PUT /api/templates/:id/versions/:n', 'put', () => `/api/templates/${draftId}/versions/1`, draftBody);
   jsonRoute('POST /api/jobs', 'post', () => '/api/jobs', () => jobBody);
   jsonRoute('PUT /api/jobs/:id', 'put', () => `/api/jobs/${job.id}`, () => jobBody);
+  // An outline stored from a drawing inspected first, named by its SHA-256.
+  const inspected = (await a.http.post('/api/dxf/inspect').set('X-CSRF-Token', a.token).attach('file', dxfs[0]!, 'a.dxf').expect(200)).body as { sha256: string; layers: { name: string }[] };
+  // Every layer onto one the demo convention takes, so the unmutated body is a store that succeeds.
+  const onOneLayer = Object.fromEntries(inspected.layers.map((l) => [l.name, 'FX-ST']));
+  jsonRoute('POST /api/components/:id/outline/from-inspection', 'post', () => `/api/components/${component.id}/outline/from-inspection`,
+    () => ({ sha256: inspected.sha256, name: 'a.dxf', unit: 'mm', datumX: 0, datumY: 0, layerMap: onOneLayer }),
+    [['a hash never inspected', { sha256: 'f'.repeat(64), name: 'a.dxf' }], ['a path for a hash', { sha256: '../../gridset.sqlite', name: 'a.dxf' }]]);
   jsonRoute('POST /api/jobs/:id/stock-check', 'post', () => `/api/jobs/${job.id}/stock-check`, () => ({ bars }));
   jsonRoute('POST /api/stock-check', 'post', () => '/api/stock-check', () => stockBody);
   jsonRoute('POST /api/naming/check', 'post', () => '/api/naming/check', () => ({ target: 'layer', name: 'FX-CR-8' }));

@@ -86,6 +86,7 @@ const EXPECTED: Record<string, typeof PUBLIC | typeof SIGNED_IN | Action> = {
   'POST /manifest/preview': 'editCatalog',
   'POST /manifest/commit': 'editCatalog',
   'POST /components/:id/outline': 'editCatalog',
+  'POST /components/:id/outline/from-inspection': 'editCatalog',
   'GET /components/:id/outline-file.dxf': SIGNED_IN,
   'GET /jobs/:id/part-file.dxf': SIGNED_IN,
   'POST /jobs/:id/outline': 'editJobs',

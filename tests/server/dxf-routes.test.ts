@@ -1,9 +1,13 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { readFileSync, readdirSync } from 'node:fs';
+import { createHash } from 'node:crypto';
+import { mkdtempSync, readFileSync, readdirSync, rmSync, writeFileSync } from 'node:fs';
+import os from 'node:os';
 import path from 'node:path';
 import facts from '../fixtures/facts.json' with { type: 'json' };
 import { DxfInspectionSchema } from '../../shared/schemas/dxf-inspection';
 import { makeTestApp, tableCounts, type Agent, type TestApp } from './test-app';
+import { localFileStore } from '../../server/storage/local-store';
+import { INSPECTED_KEEP_MS, inspectedUploads } from '../../server/services/inspected-uploads';
 
 let t: TestApp;
 let lead: Agent;
@@ -87,5 +91,70 @@ describe('POST /api/components/:id/outline', () => {
     expect(res.body.error.code).toBe('naming');
     expect(res.body.error.details.layers.map((l: { layer: string }) => l.layer)).toContain('RAIL-OUTLINE');
     expect((await lead.get('/api/components/3')).body.outline).toEqual(before);
+  });
+});
+
+describe('the inspected drawing is sent once: POST /api/components/:id/outline/from-inspection names it', () => {
+  const sha = (b: Buffer) => createHash('sha256').update(b).digest('hex'); // FIPS 180-4, by node:crypto
+  const choices = { datumX: 1, datumY: 0.75, layerMap: { 'RAIL-OUTLINE': 'FX-JR-1000', 'RAIL-DOWEL': 'FX-JR-1000', 'RAIL-BOLT': 'FX-JR-1000' } };
+
+  it('stores the same outline as a second upload would, from the file kept by the inspection', async () => {
+    const file = fixture('jaw-rail-inch-r2000.dxf');
+    const inspected = await post('/api/dxf/inspect', file, 'jaw-rail.dxf').expect(200);
+    expect(inspected.body.sha256).toBe(sha(file));
+    const byName = await lead.post('/api/components/2/outline/from-inspection', { sha256: inspected.body.sha256, name: 'jaw-rail.dxf', ...choices }).expect(200);
+    // The multipart route with the same file and choices, on another component, is the reference.
+    const byUpload = await post('/api/components/4/outline', file, 'jaw-rail.dxf', {
+      datumX: String(choices.datumX), datumY: String(choices.datumY), layerMap: JSON.stringify(choices.layerMap),
+    }).expect(200);
+    expect(byName.body.outline).toEqual(byUpload.body.outline);
+    expect(byName.body.outlineFile).toMatchObject({ name: 'jaw-rail.dxf', sha256: sha(file), size: file.length, unit: 'in' });
+    // The original is kept as for an upload, and comes back byte for byte.
+    const back = await lead.http.get('/api/components/2/outline-file.dxf').buffer(true).parse((res, cb) => {
+      const chunks: Buffer[] = [];
+      res.on('data', (c: Buffer) => chunks.push(c));
+      res.on('end', () => cb(null, Buffer.concat(chunks)));
+    }).expect(200);
+    expect(sha(back.body as Buffer)).toBe(sha(file));
+    expect(readdirSync(path.join(t.dataDir, 'uploads', 'tmp'))).toEqual([]);
+  });
+
+  it('refuses a file never inspected (410), a bad hash (400) and bad layer names (400), writing nothing', async () => {
+    const file = fixture('jaw-rail-inch-r2000.dxf');
+    const { sha256 } = (await post('/api/dxf/inspect', file).expect(200)).body;
+    const before = await tableCounts(t.db, ['components', 'audit']);
+    const outlineBefore = (await lead.get('/api/components/3')).body.outline;
+    const gone = await lead.post('/api/components/3/outline/from-inspection', { sha256: sha(Buffer.from('never sent')), name: 'x.dxf' });
+    expect(gone.status).toBe(410);
+    expect(gone.body.error.message).toMatch(/choose the file again/);
+    const badHash = await lead.post('/api/components/3/outline/from-inspection', { sha256: '../../etc/passwd', name: 'x.dxf' });
+    expect(badHash.status).toBe(400);
+    expect(badHash.body.error.details.issues[0].path).toBe('sha256');
+    const naming = await lead.post('/api/components/3/outline/from-inspection', { sha256, name: 'jaw-rail.dxf', datumX: 1, datumY: 0.75 });
+    expect(naming.status).toBe(400);
+    expect(naming.body.error.code).toBe('naming');
+    expect(await tableCounts(t.db, ['components', 'audit'])).toEqual(before);
+    expect((await lead.get('/api/components/3')).body.outline).toEqual(outlineBefore);
+  });
+
+  it('keeps an inspected file one to two hours, on the file store', async () => {
+    const dir = mkdtempSync(path.join(os.tmpdir(), 'inspected-'));
+    try {
+      let clock = Date.UTC(2026, 11, 5, 10, 30);
+      const store = localFileStore(dir);
+      const kept = inspectedUploads(store, dir, () => clock);
+      const tmp = path.join(dir, 'a.dxf');
+      writeFileSync(tmp, 'one');
+      await kept.keep(tmp, 'a'.repeat(64));
+      const read = (h: string) => kept.using(h, async (f) => readFileSync(f.path, 'utf8'));
+      clock += INSPECTED_KEEP_MS; // the next hour: still there
+      expect(await read('a'.repeat(64))).toBe('one');
+      clock += INSPECTED_KEEP_MS; // two hours on: gone, and the next inspection clears it from the store
+      await expect(read('a'.repeat(64))).rejects.toMatchObject({ status: 410 });
+      await kept.keep(tmp, 'b'.repeat(64));
+      expect((await store.list('inspected/')).map((f) => f.key.split('/').pop())).toEqual([`${'b'.repeat(64)}.dxf`]);
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
   });
 });

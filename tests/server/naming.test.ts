@@ -46,6 +46,20 @@ describe('naming convention', () => {
     expect((await programmer.post('/api/naming/check', { target: 'component', name: 'TEST-5' })).body.ok).toBe(true);
     expect((await programmer.get('/api/naming/conventions')).body.items.map((i: { version: number }) => i.version)).toEqual([2, 1]);
   });
+
+  it('refuses a save made from a version someone replaced meanwhile (409), writing nothing', async () => {
+    const { version: _v, ...rules } = DEMO_CONVENTION;
+    // Two leads open version 1; the first saves version 2 from it.
+    await lead.put('/api/naming/convention', { ...rules, revision: 1 }).expect(200);
+    const before = await tableCounts(t.db, ['naming_conventions', 'audit']);
+    const stale = await lead.put('/api/naming/convention', { ...rules, revision: 1 });
+    expect(stale.status).toBe(409);
+    expect(stale.body.error).toMatchObject({ code: 'stale-revision', details: { current: 2 } });
+    expect(stale.body.error.message).toMatch(/version 2/);
+    expect(await tableCounts(t.db, ['naming_conventions', 'audit'])).toEqual(before);
+    expect((await lead.put('/api/naming/convention', { ...rules, revision: 0 })).status).toBe(400);
+    expect((await lead.put('/api/naming/convention', { ...rules, revision: 2 }).expect(200)).body.version).toBe(3);
+  });
 });
 
 describe('release and the naming convention', () => {

@@ -149,7 +149,11 @@ describe('every file: cleared, modal, named, ended', () => {
     const t = writeOffsetFile({ family: 'ngc-g52', source: { ...source, state: 'draft' }, unit: 'mm', stations: railA });
     if (!t.ok) throw new Error(t.error.message);
     expect(t.text).toContain('(VERSION: 3 - DRAFT)');
-    expect(t.text).toContain('(NOT RELEASED: THIS VERSION IS DRAFT - NOT FOR PRODUCTION)');
+    // The first line, a comment (NISTIR 6556, "Comments and Messages"), names the state and the content hash.
+    const first = t.text.split('\n')[0]!;
+    expect(first).toMatch(/^\(NOT RELEASED.*\)$/);
+    expect(first).toContain('DRAFT');
+    expect(first).toContain(source.contentHash);
     expect(t.text).toContain('G21 G90');
     expect(t.text).toContain('G52 X-7.500 Y-3.625 Z0.000'); // three decimals in mm
   });

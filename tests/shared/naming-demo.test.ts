@@ -32,7 +32,7 @@ describe('the demo convention', () => {
 
   it.each([
     // the drawing's other layers: part outlines, plate and station marks (the demo convention)
-    'PART-10452-A', 'PART-7', 'GRID-PLATE', 'GRID-HOLES', 'GRID-ORIGIN', 'GRID-STATIONS', 'GRID-NUMBERS',
+    'PART-10452-A', 'PART-7', 'GRID-PLATE', 'GRID-HOLES', 'GRID-ORIGIN', 'GRID-STATIONS', 'GRID-NUMBERS', 'GRID-DRAFT',
   ])('passes the demo layer %s', (layer) => {
     expect(checkName(DEMO_CONVENTION.layer, layer, 'layer')).toEqual({ ok: true, problems: [] });
   });
@@ -45,7 +45,7 @@ describe('the demo convention', () => {
     ['ST-0.3750', 'component', 'dia', 'dia: "0.3750" must be a number written like 1.0 (1 to 3 decimals).'],
     ['FX-JR-1.000', 'layer', null, 'A layer name may hold only letters, digits, "$", "-" and "_"'],
     ['FX-JR-0050', 'layer', 'width', 'width: "0050" is below the smallest allowed, 0100.'],
-    ['GRID-DOTS', 'layer', 'what', 'what: "DOTS" is not one of PLATE, HOLES, ORIGIN, STATIONS, NUMBERS.'],
+    ['GRID-DOTS', 'layer', 'what', 'what: "DOTS" is not one of PLATE, HOLES, ORIGIN, STATIONS, NUMBERS, DRAFT.'],
     ['PART-$1', 'layer', 'part', 'part: "$1" must be a part number such as 10452-A.'],
     ['fx-cr-8', 'layer', null, 'A layer name must be written in capitals: "FX-CR-8", not "fx-cr-8".'],
   ] as const)('refuses %s (%s)', (name, target, token, words) => {

@@ -6,7 +6,7 @@ import { expandedProgram } from '../../shared/gcode/expand-program';
 import type { Station } from '../../shared/schemas/template';
 import { movesOf, runRs274 } from './rs274';
 
-const header = { templateName: 'Hand', version: 1, contentHash: 'c', jobId: 1, jobName: 'J', partNumber: 'P', programSha256: 's', family: 'EXPANDED', skipped: [] };
+const header = { templateName: 'Hand', version: 1, state: 'released', contentHash: 'c', jobId: 1, jobName: 'J', partNumber: 'P', programSha256: 's', family: 'EXPANDED', skipped: [] };
 
 describe('line words, checked against the gcode-parser tokenizer (npm gcode-parser 2)', () => {
   const sample = [

@@ -110,7 +110,7 @@ function checkTable(opts: { part: string; stations: Station[]; skip: number[]; o
   const read = readPartProgram(opts.part, opts.unit);
   if (!read.ok) throw new Error(JSON.stringify(read.error));
   const used = opts.stations.filter((s) => !opts.skip.includes(s.number)).sort((a, b) => a.number - b.number);
-  const table = expandedProgram({ program: read.program, unit: opts.unit, stations: used, order: opts.order, safeZ: opts.safeZ, header: { templateName: 'Random', version: 1, contentHash: 'x', jobId: 1, jobName: 'J', partNumber: 'P', programSha256: 'y', family: 'EXPANDED', skipped: opts.skip } });
+  const table = expandedProgram({ program: read.program, unit: opts.unit, stations: used, order: opts.order, safeZ: opts.safeZ, header: { templateName: 'Random', version: 1, state: 'released', contentHash: 'x', jobId: 1, jobName: 'J', partNumber: 'P', programSha256: 'y', family: 'EXPANDED', skipped: opts.skip } });
   if (!table.ok) throw new Error(table.message);
   const { canon, errors } = runRs274(table.text, TOOLS);
   expect(errors, 'rs274 reads the whole-table program without error').toEqual([]);
@@ -211,7 +211,7 @@ describe('whole-table program read back by rs274 (LinuxCNC interpreter)', () => 
         const made = offsetFrame({ family, unit: 'in', stations, sharedOffsetName: 'G54', base });
         if (!made.ok) throw new Error(made.error.message);
         const safeZ = 1.25;
-        const table = writeTableProgram({ program: read.program, unit: 'in', stations, order, safeZ, header: { templateName: 'T', version: 1, contentHash: 'h', jobId: 1, jobName: 'J', partNumber: 'P', programSha256: 's', family, skipped: [] } }, made.frame);
+        const table = writeTableProgram({ program: read.program, unit: 'in', stations, order, safeZ, header: { templateName: 'T', version: 1, state: 'released', contentHash: 'h', jobId: 1, jobName: 'J', partNumber: 'P', programSha256: 's', family, skipped: [] } }, made.frame);
         if (!table.ok) throw new Error(table.message);
         const { canon, errors } = runRs274(table.text, TOOLS);
         expect(errors).toEqual([]);

@@ -1,49 +1,30 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { Point, Unit } from '../../../shared/schemas/common';
 import { ComponentSchema } from '../../../shared/schemas/catalog';
-import { uploadWithProgress } from '../../lib/api-client';
-import { catalogKeys } from './api';
+import type { InspectedOutlineInput } from '../../../shared/schemas/dxf-inspection';
 import { DxfInspectionSchema } from '../../../shared/schemas/dxf-inspection';
+import { api, uploadWithProgress } from '../../lib/api-client';
+import { catalogKeys } from './api';
 
 const noProgress = () => {};
 
-/** Reads a DXF on the server without storing anything: layers, circles, outline, what was not read. */
+/**
+ * Sends a DXF to be read: layers, circles, outline, what was not read, and its SHA-256. Nothing is
+ * stored in the catalog; the server keeps the file an hour so the outline can be stored from it by name.
+ */
 export function inspectDxf(file: File, onProgress?: (fraction: number) => void) {
   const form = new FormData();
   form.append('file', file);
   return uploadWithProgress('/api/dxf/inspect', form, onProgress ?? noProgress, { schema: DxfInspectionSchema });
 }
 
-export interface OutlineUpload {
-  file: File;
-  /** Only when the file does not say its unit. */
-  unit: Unit | null;
-  /** The drawing point (file coordinates and unit) that becomes the local origin: the primary dowel. */
-  datum: Point | null;
-  /** File layer → conforming name, for the layers that change. */
-  layerMap: Record<string, string>;
-}
-
-export function postComponentOutline(id: number, u: OutlineUpload, onProgress?: (fraction: number) => void) {
-  const form = new FormData();
-  form.append('file', u.file);
-  if (u.unit) form.append('unit', u.unit);
-  if (u.datum) {
-    // String(number) is the shortest form that reads back to the same double, so the datum arrives exact.
-    form.append('datumX', String(u.datum.x));
-    form.append('datumY', String(u.datum.y));
-  }
-  if (Object.keys(u.layerMap).length) form.append('layerMap', JSON.stringify(u.layerMap));
-  return uploadWithProgress(`/api/components/${id}/outline`, form, onProgress ?? noProgress, { schema: ComponentSchema });
-}
-
 export const useInspectDxf = () =>
   useMutation({ mutationFn: ({ file, onProgress }: { file: File; onProgress?: (f: number) => void }) => inspectDxf(file, onProgress) });
 
-export function useSetComponentOutline(id: number) {
+/** Stores the outline of the file inspected a moment ago, named by its SHA-256 (the file is not sent again). */
+export function useStoreInspectedOutline(id: number) {
   const qc = useQueryClient();
   return useMutation({
-    mutationFn: ({ upload, onProgress }: { upload: OutlineUpload; onProgress?: (f: number) => void }) => postComponentOutline(id, upload, onProgress),
+    mutationFn: (input: InspectedOutlineInput) => api.post(`/api/components/${id}/outline/from-inspection`, input, ComponentSchema),
     onSuccess: (component) => {
       qc.setQueryData(catalogKeys.component(id), component);
       return qc.invalidateQueries({ queryKey: catalogKeys.components() });

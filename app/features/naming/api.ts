@@ -1,5 +1,5 @@
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import { NamingCheckResultSchema, NamingConventionSchema, type NamingCheckInput, type NamingConvention } from '../../../shared/schemas/naming';
+import { NamingCheckResultSchema, NamingConventionSchema, type NamingCheckInput, type SaveConventionInput } from '../../../shared/schemas/naming';
 import { api } from '../../lib/api-client';
 
 export const namingKeys = { all: ['naming'] as const, current: () => [...namingKeys.all, 'current'] as const };
@@ -12,7 +12,7 @@ export const useCheckName = () => useMutation({ mutationFn: (input: NamingCheckI
 export function useSaveConvention() {
   const qc = useQueryClient();
   return useMutation({
-    mutationFn: (c: Omit<NamingConvention, 'version'>) => api.put('/api/naming/convention', c, NamingConventionSchema),
+    mutationFn: (c: SaveConventionInput) => api.put('/api/naming/convention', c, NamingConventionSchema),
     onSuccess: (c) => qc.setQueryData(namingKeys.current(), c),
   });
 }

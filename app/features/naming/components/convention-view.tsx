@@ -1,9 +1,7 @@
 import { useState } from 'react';
 import type { NamingConvention, NamingRule } from '../../../../shared/schemas/naming';
 import { Button } from '../../../components/ui/button';
-import { Notice } from '../../../components/ui/notice';
-import { ApiError } from '../../../lib/api-client';
-import { useSaveConvention } from '../api';
+import { ConventionForm } from './convention-form';
 
 function tokenText(t: NamingRule['tokens'][number]) {
   if (t.type === 'list') return `one of ${t.values.join(', ')}`;
@@ -24,46 +22,19 @@ function RuleView({ title, rule }: { title: string; rule: NamingRule }) {
   );
 }
 
-/** The rules in words for everyone; the lead edits them as JSON, checked by the server on save. */
+/** The rules in words for everyone; the lead edits them in a form, checked as typed and by the server on save. */
 export function ConventionView({ convention, canEdit }: { convention: NamingConvention; canEdit: boolean }) {
   const [editing, setEditing] = useState(false);
-  const { version: _v, ...rules } = convention;
-  const [text, setText] = useState(() => JSON.stringify(rules, null, 2));
-  const [parseError, setParseError] = useState<string | null>(null);
-  const save = useSaveConvention();
-  const submit = () => {
-    setParseError(null);
-    let body: unknown;
-    try {
-      body = JSON.parse(text);
-    } catch (e) {
-      setParseError(`The rules are not valid JSON: ${(e as Error).message}`);
-      return;
-    }
-    save.mutate(body as Omit<NamingConvention, 'version'>, { onSuccess: () => setEditing(false) });
-  };
-  const issues = save.error instanceof ApiError ? save.error.issues : [];
   return (
-    <div className="flex flex-col gap-4">
+    <div className="flex min-w-0 flex-col gap-4">
       <p className="text-slate-700">Version <span className="num">{convention.version}</span> is in force. Every component code, every layer of an imported or exported drawing, every manifest row and every release is checked against it.</p>
       <div className="grid grid-cols-1 gap-4 lg:grid-cols-2">
         <RuleView title="Layer names" rule={convention.layer} />
         <RuleView title="Component codes" rule={convention.component} />
       </div>
       {canEdit ? (
-        editing ? (
-          <section className="flex flex-col gap-2">
-            <label htmlFor="rules-json" className="font-semibold">Rules (JSON; saving makes version {convention.version + 1})</label>
-            <textarea id="rules-json" className="min-h-96 rounded border border-slate-400 p-3 font-mono text-[15px]" value={text} onChange={(e) => setText(e.target.value)} spellCheck={false} />
-            {parseError ? <Notice tone="danger" title={parseError} /> : null}
-            {save.error ? (
-              <Notice tone="danger" title={save.error.message}>
-                {issues.length ? <ul className="list-disc pl-5">{issues.map((i) => <li key={i.path + i.message}><span className="font-mono">{i.path}</span>: {i.message}</li>)}</ul> : null}
-              </Notice>
-            ) : null}
-            <div className="flex gap-2"><Button onClick={submit} disabled={save.isPending}>Save as version {convention.version + 1}</Button><Button variant="secondary" onClick={() => setEditing(false)}>Cancel</Button></div>
-          </section>
-        ) : <div><Button variant="secondary" onClick={() => setEditing(true)}>Edit the rules</Button></div>
+        editing ? <ConventionForm convention={convention} onCancel={() => setEditing(false)} />
+          : <div><Button variant="secondary" onClick={() => setEditing(true)}>Edit the rules</Button></div>
       ) : null}
     </div>
   );

@@ -4,7 +4,8 @@ import type { TemplateVersion } from '../../../../shared/schemas/template-api';
 import { CONTROL_FAMILIES, FAMILIES, FAMILY_NAMES, type ControlFamily } from '../../../../shared/gcode/control-families';
 import { inputClass } from '../../../components/ui/field';
 import { Button } from '../../../components/ui/button';
-import { ErrorText } from '../../../components/ui/notice';
+import { ErrorText, Notice } from '../../../components/ui/notice';
+import { isReleased } from '../../../../shared/interchange/draft-mark';
 import { downloadFile } from '../../../lib/api-client';
 import { versionFileUrl } from '../api';
 
@@ -52,6 +53,9 @@ export function Downloads({ templateId, version, dirty }: { templateId: number; 
     <section className="flex flex-col gap-3 rounded border border-slate-300 bg-white p-4" aria-labelledby="downloads-title">
       <h2 id="downloads-title" className="text-lg font-semibold">Files of version {n}</h2>
       {dirty ? <p className="text-warning-700 font-semibold">Unsaved changes: files are written from the saved version.</p> : null}
+      {!isReleased(version) ? (
+        <Notice tone="caution" title={`Version ${n} is ${version.state}, not released`}>Every file below starts with a NOT RELEASED line naming its state and content hash; use files of a released version on the machine.</Notice>
+      ) : null}
       <div className="flex flex-wrap gap-2">
         <a className={linkClass} href={versionFileUrl(templateId, n, 'stations.csv')} download><Download aria-hidden className="h-4 w-4" />Stations CSV</a>
         <a className={linkClass} href={versionFileUrl(templateId, n, 'stations.xlsx')} download><Download aria-hidden className="h-4 w-4" />Stations XLSX</a>

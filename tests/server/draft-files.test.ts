@@ -1,0 +1,184 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import ExcelJS from 'exceljs';
+import { parse as parseCsv } from 'csv-parse/sync';
+import DxfParser from 'dxf-parser';
+import { parseString as parseDxfIndependent } from 'dxf';
+import { parse as parseSvg, type INode } from 'svgson';
+import JSZip from 'jszip';
+import { makeTestApp, type Agent, type TestApp } from './test-app';
+import { runRs274, type Canon } from '../shared/rs274';
+import { generatePartProgram } from '../bench/generate-program';
+
+/**
+ * Files written from a version that is not released carry a mark at their top naming the state and
+ * the content hash; a released version's files carry none. Each file is read back by a reader that is
+ * not Gridset's: LinuxCNC's rs274 for G-code, exceljs for XLSX, csv-parse for CSV, dxf-parser and the
+ * `dxf` package for DXF, svgson for SVG. The metric demo template's v1 is released; its v2 is a draft
+ * copied from it, so both hold the same stations and the same content hash, and the files differ only
+ * by the mark.
+ */
+
+let t: TestApp;
+let programmer: Agent;
+let lead: Agent;
+let operator: Agent;
+let hash: string;
+beforeAll(async () => {
+  t = await makeTestApp();
+  [programmer, lead, operator] = await Promise.all([t.agent('programmer'), t.agent('lead'), t.agent('operator')]);
+  const draft = (await programmer.post('/api/templates/2/versions', { from: 1 }).expect(201)).body;
+  expect(draft).toMatchObject({ version: 2, state: 'draft' });
+  hash = draft.contentHash;
+  expect((await operator.get('/api/templates/2/versions/1').expect(200)).body).toMatchObject({ state: 'released', contentHash: hash });
+}, 60_000);
+afterAll(async () => { await t.close(); });
+
+const DRAFT = '/api/templates/2/versions/2';
+const RELEASED = '/api/templates/2/versions/1';
+
+/** A mark says the version is not released and names its state and content hash (the version's own answer). */
+const expectMark = (text: string | undefined, state: string, contentHash = hash) => {
+  expect(text).toMatch(/NOT RELEASED/);
+  expect(text).toContain(state.toUpperCase());
+  expect(text).toContain(contentHash);
+};
+
+const raw = (r: import('supertest').Test) => r.buffer(true).parse((res, cb) => {
+  const chunks: Buffer[] = [];
+  res.on('data', (c: Buffer) => chunks.push(c));
+  res.on('end', () => cb(null, Buffer.concat(chunks)));
+});
+const text = async (r: import('supertest').Test) => ((await raw(r).expect(200)).body as Buffer).toString('utf8');
+
+/** rs274's canonical commands less the comments, the part that moves or sets the machine. */
+const working = (canon: Canon[]) => canon.filter((c) => c.kind !== 'COMMENT').map((c) => `${c.kind}(${c.text})`);
+/** COMMENT("…") as rs274 prints it (LinuxCNC canon: a comment is passed on as one command). */
+const comments = (canon: Canon[]) => canon.filter((c) => c.kind === 'COMMENT').map((c) => c.text.replace(/^"|"$/g, ''));
+
+describe('G-code from a draft: the mark is the first comment and rs274 still runs the file', () => {
+  it.each([
+    ['ngc-g52', 'family=ngc-g52'],
+    ['ngc-g10', 'family=ngc-g10&base=-400,-250,-300.5'],
+  ])('%s', async (_family, query) => {
+    const draft = await text(operator.get(`${DRAFT}/offsets.nc?${query}`));
+    const released = await text(operator.get(`${RELEASED}/offsets.nc?${query}`));
+    // The first line that is a comment: RS274/NGC comments are in parentheses (NISTIR 6556, "Comments and Messages").
+    expectMark(draft.split('\n').find((l) => l.startsWith('(')), 'draft');
+    const d = runRs274(draft, []);
+    const r = runRs274(released, []);
+    expect(d.errors).toEqual([]);
+    expect(r.errors).toEqual([]);
+    expectMark(comments(d.canon)[0], 'draft');
+    expect(comments(r.canon).some((c) => /NOT RELEASED/.test(c))).toBe(false);
+    // The mark is only a comment: the interpreter does the same work for both files.
+    expect(working(d.canon)).toEqual(working(r.canon));
+    expect(working(d.canon).some((c) => c.startsWith('SET_G5X_OFFSET') || c.startsWith('SET_G92_OFFSET'))).toBe(true);
+  });
+
+  it('a percent-framed family keeps % first and the mark as the first comment (common practice for tape files)', async () => {
+    const lines = (await text(operator.get(`${DRAFT}/offsets.nc?family=ext-l20&base=0,0,0`))).split('\n');
+    expect(lines[0]).toBe('%');
+    expectMark(lines[1], 'draft');
+    expect(lines[1]).toMatch(/^\(.*\)$/);
+  });
+});
+
+describe('spreadsheets from a draft', () => {
+  it('CSV: csv-parse reads the mark as the first record, then the header and the same rows as the released file', async () => {
+    const draft = parseCsv(await text(operator.get(`${DRAFT}/stations.csv`))) as string[][];
+    const released = parseCsv(await text(operator.get(`${RELEASED}/stations.csv`))) as string[][];
+    expectMark(draft[0]![0], 'draft');
+    // csv-parse holds every record to the first one's field count unless told otherwise (csv-parse, option relax_column_count).
+    expect(draft[0]).toHaveLength(released[0]!.length);
+    expect(draft.slice(1)).toEqual(released);
+    expect(released[0]![0]).toBe('station');
+  });
+
+  it('XLSX: exceljs reads a banner row above the header, frozen with it, and the mark first on the About sheet', async () => {
+    const read = async (url: string) => {
+      const wb = new ExcelJS.Workbook();
+      await wb.xlsx.load((await raw(operator.get(url)).expect(200)).body as Parameters<typeof wb.xlsx.load>[0]);
+      return wb;
+    };
+    const draft = await read(`${DRAFT}/stations.xlsx`);
+    const released = await read(`${RELEASED}/stations.xlsx`);
+    const ds = draft.getWorksheet('Stations')!;
+    const rs = released.getWorksheet('Stations')!;
+    expectMark(ds.getCell('A1').text, 'draft');
+    expect(ds.getCell('A1').isMerged).toBe(true);
+    expect(ds.getCell('A2').text).toBe('Station');
+    expect(ds.views[0]).toMatchObject({ state: 'frozen', ySplit: 2 });
+    expect(rs.getCell('A1').text).toBe('Station');
+    expect(rs.views[0]).toMatchObject({ state: 'frozen', ySplit: 1 });
+    // Station rows: the same numbers, one row lower.
+    expect(ds.rowCount).toBe(rs.rowCount + 1);
+    for (let r = 2; r <= rs.rowCount; r++) expect(ds.getRow(r + 1).values).toEqual(rs.getRow(r).values);
+    const about = draft.getWorksheet('About')!;
+    expectMark(about.getCell('B1').text, 'draft');
+    expect(about.getCell('A1').text).toMatch(/not released/i);
+    const aboutReleased = released.getWorksheet('About')!;
+    const releasedText = aboutReleased.getSheetValues().flat().join(' ');
+    expect(releasedText).not.toMatch(/NOT RELEASED/i);
+    expect(releasedText).toContain(hash);
+  });
+});
+
+describe('drawings from a draft', () => {
+  it('DXF: one TEXT on its own layer holds the mark, above the plate, read alike by dxf-parser and dxf', async () => {
+    const body = await text(operator.get(`${DRAFT}/drawing.dxf`));
+    const parsed = new DxfParser().parseSync(body)!;
+    const marks = parsed.entities.filter((e) => e.layer === 'GRID-DRAFT') as unknown as { type: string; text: string; startPoint: { y: number } }[];
+    expect(marks).toHaveLength(1);
+    expect(marks[0]!.type).toBe('TEXT');
+    expectMark(marks[0]!.text, 'draft');
+    expect(Object.keys(parsed.tables.layer.layers)).toContain('GRID-DRAFT');
+    // Above every grid hole, so it covers no part of the plate's drawing.
+    const holes = parsed.entities.filter((e) => e.type === 'CIRCLE' && e.layer === 'GRID-HOLES') as unknown as { center: { y: number }; radius: number }[];
+    expect(marks[0]!.startPoint.y).toBeGreaterThan(Math.max(...holes.map((h) => h.center.y + h.radius)));
+    const second = parseDxfIndependent(body).entities.filter((e: { layer: string }) => e.layer === 'GRID-DRAFT') as { type: string; string: string }[];
+    expect(second.map((e) => e.type)).toEqual(['TEXT']);
+    expect(second[0]!.string).toBe(marks[0]!.text);
+    const released = new DxfParser().parseSync(await text(operator.get(`${RELEASED}/drawing.dxf`)))!;
+    expect(released.entities.filter((e) => e.layer === 'GRID-DRAFT')).toEqual([]);
+    expect(released.entities.length).toBe(parsed.entities.length - 1);
+  });
+
+  it('SVG: svgson finds the mark as a text of the drawing and in its title', async () => {
+    const find = (n: INode, pred: (x: INode) => boolean): INode[] => [...(pred(n) ? [n] : []), ...n.children.flatMap((c) => find(c, pred))];
+    const textOf = (n: INode): string => (n.type === 'text' ? n.value : n.children.map(textOf).join(''));
+    const draft = await parseSvg(await text(operator.get(`${DRAFT}/drawing.svg`)));
+    const layer = find(draft, (n) => n.attributes['data-layer'] === 'GRID-DRAFT');
+    expect(layer).toHaveLength(1);
+    expectMark(textOf(find(layer[0]!, (n) => n.name === 'text')[0]!), 'draft');
+    expectMark(textOf(find(draft, (n) => n.name === 'title')[0]!), 'draft');
+    const released = await parseSvg(await text(operator.get(`${RELEASED}/drawing.svg`)));
+    expect(find(released, (n) => n.attributes['data-layer'] === 'GRID-DRAFT')).toEqual([]);
+    expect(textOf(released)).not.toMatch(/NOT RELEASED/);
+  });
+});
+
+describe('a job whose version was retired after it was made', () => {
+  it('marks its whole-table program and the package offsets once the version is retired; rs274 still runs it', async () => {
+    const job = (await programmer.post('/api/jobs', {
+      name: 'Retired run', partNumber: 'BR-1001', partRevision: 'B', templateId: 1, version: 1,
+      stock: { width: 1, thickness: 0.5, length: 2.75, material: '6061-T6' }, carrier: 0.25, clearance: 0.03, minBite: 0.06, cycleMinutes: 13, loadMinutes: 10,
+    }).expect(201)).body;
+    await programmer.http.post(`/api/jobs/${job.id}/part-program`).set('X-CSRF-Token', programmer.token).attach('file', Buffer.from(generatePartProgram(80)), 'part.nc').expect(200);
+    const tools = [1, 2, 3, 4].map((n) => ({ t: n, z: 1 + n / 10, d: 0.25 }));
+    const before = await text(operator.get(`/api/jobs/${job.id}/program.nc`));
+    expect(before).not.toMatch(/NOT RELEASED/);
+    const v1 = (await operator.get('/api/templates/1/versions/1').expect(200)).body;
+    await lead.post('/api/templates/1/versions/1/retire', {}).expect(200);
+    const after = await text(operator.get(`/api/jobs/${job.id}/program.nc`));
+    expectMark(after.split('\n').find((l) => l.startsWith('(')), 'retired', v1.contentHash);
+    const b = runRs274(before, tools);
+    const a = runRs274(after, tools);
+    expect(a.errors).toEqual([]);
+    expectMark(comments(a.canon)[0], 'retired', v1.contentHash);
+    expect(working(a.canon)).toEqual(working(b.canon));
+    const zip = await JSZip.loadAsync((await raw(operator.get(`/api/jobs/${job.id}/package.zip`)).expect(200)).body as Buffer);
+    const offsets = Object.keys(zip.files).find((n) => /^offsets-.*\.nc$/.test(n))!;
+    expectMark((await zip.file(offsets)!.async('string')).split('\n').find((l) => l.startsWith('(')), 'retired', v1.contentHash);
+    expectMark((await zip.file('stations.csv')!.async('string')).split('\r\n')[0], 'retired', v1.contentHash);
+  });
+});
