@@ -76,4 +76,221 @@ describe('template editor in a real browser', () => {
     expect((await e2e.db('template_versions').where({ template_id: 1, number: n }).first()).state).toBe('draft');
     await page.close();
   });
+
+  /** A fresh draft of the demo bracket template (version 1, released), made through the API as a programmer. */
+  async function openDraft(page: Page): Promise<number> {
+    const token = (await (await page.request.get(`${e2e.baseUrl}/api/auth/csrf`)).json()).token as string;
+    const draft = await (await page.request.post(`${e2e.baseUrl}/api/templates/1/versions`, { data: { from: 1 }, headers: { 'X-CSRF-Token': token } })).json();
+    const n = draft.version as number;
+    await page.goto(`${e2e.baseUrl}/templates/1/versions/${n}`);
+    await page.getByRole('row', { name: /^20 / }).waitFor();
+    return n;
+  }
+
+  /** The X and Y cells of the station on a placement's stop (1-based), read from the station table. */
+  async function station(page: Page, placement: string, stop: number): Promise<{ x: number; y: number }> {
+    const cells = await page.getByRole('table', { name: 'Station translations' }).evaluate((table, [p, s]) => {
+      for (const row of table.querySelectorAll('tbody tr')) {
+        const c = [...row.querySelectorAll('td')].map((td) => td.textContent?.trim() ?? '');
+        if (c[6] === p && c[7] === String(s)) return c;
+      }
+      return null;
+    }, [placement, stop] as const);
+    if (!cells) throw new Error(`no station on ${placement} stop ${stop}`);
+    const inches = (t: string) => {
+      expect(t).toMatch(/ in$/);
+      return Number(t.replace(/[^\d.-]/g, ''));
+    };
+    return { x: inches(cells[1]!), y: inches(cells[2]!) };
+  }
+
+  /** The pitch of the stored plate, in inches, read from the database rather than from the screen. */
+  async function platePitch(): Promise<number> {
+    const row = await e2e.db('template_versions').where({ template_id: 1, number: 1 }).first();
+    const plate = JSON.parse(row.content).plate as { pitch: number; unit: string };
+    expect(plate.unit).toBe('in');
+    return plate.pitch;
+  }
+
+  /** Press on a placement's middle and carry it by (cols, rows) grid pitches on the screen; resolves with the pointer still down. */
+  async function carry(page: Page, placement: string, cols: number, rows: number, pitch: number) {
+    const shape = page.locator(`svg[data-testid="plate-drawing"] g[data-placement="${placement}"][role="img"]`).first();
+    const box = (await shape.boundingBox())!;
+    // Screen pixels per inch: the zoom group's own screen matrix (SVG 1.1, getScreenCTM); +Y of the plate is up the screen.
+    const perUnit = await page.locator('svg[data-testid="plate-drawing"] > g').first().evaluate((g) => (g as SVGGElement).getScreenCTM()!.a);
+    const start = { x: box.x + box.width / 2, y: box.y + box.height / 2 };
+    await page.mouse.move(start.x, start.y);
+    await page.mouse.down();
+    await page.mouse.move(start.x + cols * pitch * perUnit, start.y - rows * pitch * perUnit, { steps: 12 });
+  }
+
+  it('a programmer drags a placement one hole over and sees its stations move; undo restores it, redo re-applies it', async () => {
+    const page = await e2e.newPage();
+    await page.setViewportSize({ width: 1440, height: 900 });
+    await e2e.signIn(page, 'programmer');
+    await openDraft(page);
+    const pitch = await platePitch();
+    const before = await station(page, 'C-SR', 1);
+
+    // A hole taken by another placement is refused in words during the drag and not dropped on:
+    // C-SR on (9, 1) carried six holes in −X lands on the rail A-CR spanning holes (1, 1) to (5, 1).
+    await carry(page, 'C-SR', -6, 0, pitch);
+    await expect.poll(() => page.getByTestId('drag-status').textContent()).toMatch(/C-SR cannot go on hole \(3, 1\): .*overlaps A-CR/);
+    await page.mouse.up();
+    expect(await station(page, 'C-SR', 1)).toEqual(before);
+    await page.getByText('Saved · revision').waitFor();
+
+    // One hole in +X: a free hole. A grid plate's holes are one pitch apart (common practice), so every
+    // station of the placement moves by exactly one pitch in X and not at all in Y.
+    await carry(page, 'C-SR', 1, 0, pitch);
+    await expect.poll(() => page.getByTestId('drag-status').textContent()).toContain('C-SR to hole (10, 1)');
+    await page.mouse.up();
+    const moved = { x: before.x + pitch, y: before.y };
+    await expect.poll(() => station(page, 'C-SR', 1)).toEqual(moved);
+    await page.getByText('Unsaved changes', { exact: true }).waitFor();
+    expect(await page.getByRole('button', { name: /C-SR/ }).first().textContent()).toContain('(10, 1)');
+
+    await page.getByRole('button', { name: 'Undo' }).click();
+    await expect.poll(() => station(page, 'C-SR', 1)).toEqual(before);
+    await page.getByText('Saved · revision').waitFor();
+    await page.getByRole('button', { name: 'Redo' }).click();
+    await expect.poll(() => station(page, 'C-SR', 1)).toEqual(moved);
+
+    // The same from the keyboard: Ctrl+Z, then Ctrl+Shift+Z and Ctrl+Y (common practice for undo and redo).
+    await page.keyboard.press('Control+z');
+    await expect.poll(() => station(page, 'C-SR', 1)).toEqual(before);
+    await page.keyboard.press('Control+Shift+z');
+    await expect.poll(() => station(page, 'C-SR', 1)).toEqual(moved);
+    await page.keyboard.press('Control+z');
+    await page.keyboard.press('Control+y');
+    await expect.poll(() => station(page, 'C-SR', 1)).toEqual(moved);
+
+    // With it selected and the drawing focused, an arrow key moves it one hole and R turns it.
+    await page.getByTestId('plate-drawing').focus();
+    await page.keyboard.press('ArrowUp');
+    await expect.poll(() => station(page, 'C-SR', 1)).toEqual({ x: moved.x, y: moved.y + pitch });
+    await page.keyboard.press('r');
+    await expect.poll(async () => page.getByRole('button', { name: /C-SR/ }).first().textContent()).toContain('180°');
+    await page.close();
+  });
+
+  it('leaving with unsaved edits asks first; staying keeps the edits, and closing the tab asks too', async () => {
+    const page = await e2e.newPage();
+    await page.setViewportSize({ width: 1440, height: 900 });
+    await e2e.signIn(page, 'programmer');
+    const n = await openDraft(page);
+    const pitch = await platePitch();
+    const before = await station(page, 'C-SR', 1);
+    await carry(page, 'C-SR', 1, 0, pitch);
+    await page.mouse.up();
+    const moved = { x: before.x + pitch, y: before.y };
+    await expect.poll(() => station(page, 'C-SR', 1)).toEqual(moved);
+
+    await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Templates' }).click();
+    const ask = page.getByRole('alertdialog', { name: 'Leave with unsaved changes?' });
+    await ask.waitFor();
+    await ask.getByRole('button', { name: 'Stay and keep editing' }).click();
+    await ask.waitFor({ state: 'detached' });
+    expect(page.url()).toBe(`${e2e.baseUrl}/templates/1/versions/${n}`);
+    await page.getByText('Unsaved changes', { exact: true }).waitFor();
+    expect(await station(page, 'C-SR', 1)).toEqual(moved);
+
+    // Closing the tab: the browser asks through beforeunload (HTML Living Standard, "unloading documents").
+    const dialog = new Promise<string>((resolve) => page.once('dialog', (d) => { resolve(d.type()); void d.accept(); }));
+    await page.close({ runBeforeUnload: true });
+    expect(await dialog).toBe('beforeunload');
+  });
+
+  it('a new draft can add a placement at once, even when the catalog arrives after the editor', async () => {
+    const page = await e2e.newPage();
+    await e2e.signIn(page, 'programmer');
+    // Hold the catalog until the editor is on the screen.
+    let release: () => void = () => {};
+    const held = new Promise<void>((resolve) => { release = resolve; });
+    await page.route('**/api/components', async (route) => { await held; await route.continue(); });
+    const token = (await (await page.request.get(`${e2e.baseUrl}/api/auth/csrf`)).json()).token as string;
+    const draft = await (await page.request.post(`${e2e.baseUrl}/api/templates/1/versions`, { data: { from: 1 }, headers: { 'X-CSRF-Token': token } })).json();
+    await page.goto(`${e2e.baseUrl}/templates/1/versions/${draft.version}`);
+    await page.getByRole('row', { name: /^20 / }).waitFor();
+    const add = page.getByRole('button', { name: 'Add placement' });
+    expect(await add.isDisabled()).toBe(true);
+    release();
+    await expect.poll(() => add.isDisabled()).toBe(false);
+    const firstCode = (await (await page.request.get(`${e2e.baseUrl}/api/components`)).json()).items[0].code as string;
+    expect(await page.getByLabel('Component').inputValue()).toBe(firstCode);
+    await page.close();
+  });
+
+  it('the drawing DXF and SVG are offered beside the other files', async () => {
+    const page = await e2e.newPage();
+    await e2e.signIn(page, 'programmer');
+    await page.goto(`${e2e.baseUrl}/templates/1/versions/1`);
+    await page.getByRole('row', { name: /^20 / }).waitFor();
+    const [download] = await Promise.all([page.waitForEvent('download'), page.getByRole('button', { name: 'Drawing DXF' }).click()]);
+    const file = await download.path();
+    const { readFileSync } = await import('node:fs');
+    // A DXF file ends with the EOF group (code 0, value EOF: AutoCAD DXF Reference, "DXF file structure").
+    expect(readFileSync(file, 'latin1').trim().split(/\r?\n/).slice(-2).map((l) => l.trim())).toEqual(['0', 'EOF']);
+    const svgHref = await page.getByRole('link', { name: 'Drawing SVG' }).getAttribute('href');
+    expect(svgHref).toBe('/api/templates/1/versions/1/drawing.svg');
+    const svg = await page.request.get(`${e2e.baseUrl}${svgHref}`);
+    expect(svg.headers()['content-type']).toContain('image/svg+xml');
+    await page.close();
+  });
+
+  for (const [width, height] of [[1440, 900], [390, 844]] as const) {
+    it(`at ${width} × ${height} nothing is wider than the screen, and every label sits inside the drawing, none on another`, async () => {
+      const page = await e2e.newPage();
+      await page.setViewportSize({ width, height });
+      await e2e.signIn(page, 'programmer');
+      await openDraft(page);
+      await page.screenshot({ path: `/tmp/editor-e2e-${width}.png`, fullPage: true });
+      const wide = await page.evaluate(() => {
+        const vw = document.documentElement.clientWidth;
+        // An element inside a scroll box no wider than the screen is scrolled there, not off the page.
+        const scrolledIn = (el: Element) => {
+          for (let a = el.parentElement; a; a = a.parentElement) {
+            const o = getComputedStyle(a).overflowX;
+            if ((o === 'auto' || o === 'scroll' || o === 'hidden' || o === 'clip') && a.getBoundingClientRect().width <= vw + 0.5) return true;
+          }
+          return false;
+        };
+        const over = [...document.querySelectorAll('body *')].filter((el) => {
+          const r = el.getBoundingClientRect();
+          // Visually hidden text (a 1 px clipped box, e.g. the skip link) is not on the screen.
+          if (r.width <= 1 && r.height <= 1) return false;
+          return (r.width > vw + 0.5 || r.right > vw + 0.5 || r.left < -0.5) && !scrolledIn(el);
+        });
+        return { vw, scrollWidth: document.documentElement.scrollWidth, over: over.slice(0, 5).map((el) => `${el.tagName.toLowerCase()}.${el.getAttribute('class') ?? ''}`) };
+      });
+      expect(wide.over).toEqual([]);
+      expect(wide.scrollWidth).toBeLessThanOrEqual(wide.vw);
+
+      const labels = await page.getByTestId('plate-drawing').evaluate((svg) => {
+        const s = svg as SVGSVGElement;
+        // The drawing box on the screen: the viewBox through the svg's screen matrix (SVG 1.1, getScreenCTM).
+        const vb = s.viewBox.baseVal;
+        const m = s.getScreenCTM()!;
+        const frame = s.getBoundingClientRect();
+        const box = {
+          left: Math.max(m.e + m.a * vb.x, frame.left), top: Math.max(m.f + m.d * vb.y, frame.top),
+          right: Math.min(m.e + m.a * (vb.x + vb.width), frame.right), bottom: Math.min(m.f + m.d * (vb.y + vb.height), frame.bottom),
+        };
+        const rect = (el: Element) => { const r = el.getBoundingClientRect(); return { left: r.left, top: r.top, right: r.right, bottom: r.bottom, text: el.textContent }; };
+        return { box, codes: [...s.querySelectorAll('text[data-label]')].map(rect), all: [...s.querySelectorAll('text')].map(rect) };
+      });
+      expect(labels.codes.length).toBeGreaterThan(0);
+      const inside = (r: { left: number; top: number; right: number; bottom: number }) =>
+        r.left >= labels.box.left - 1 && r.right <= labels.box.right + 1 && r.top >= labels.box.top - 1 && r.bottom <= labels.box.bottom + 1;
+      expect(labels.all.filter((r) => !inside(r))).toEqual([]);
+      // Two boxes overlap when they overlap on both axes; glyph boxes may touch by a pixel.
+      const overlaps: string[] = [];
+      labels.codes.forEach((a, i) => labels.codes.slice(i + 1).forEach((b) => {
+        if (Math.min(a.right, b.right) - Math.max(a.left, b.left) > 1 && Math.min(a.bottom, b.bottom) - Math.max(a.top, b.top) > 1) overlaps.push(`${a.text} / ${b.text}`);
+      }));
+      expect(overlaps).toEqual([]);
+      await page.getByTestId('plate-drawing').screenshot({ path: `/tmp/editor-drawing-e2e-${width}.png` });
+      await page.close();
+    });
+  }
 });

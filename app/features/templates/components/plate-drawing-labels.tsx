@@ -110,14 +110,16 @@ export function OffsetLabels({ origin, arm, name, px, ink }: { origin: Point; ar
 
 /**
  * Problem words above their placements, each kept inside `box` (the drawing box in view) and
- * moved up or down a line at a time, within reach of its placement, until it meets none placed
- * before it; one that finds no room is left to its dashed outline and its title.
+ * moved up or down a line at a time, within reach of its placement, until it meets no words placed
+ * before it nor a component code; one that finds no room is left to its dashed outline and its title.
  */
-export function FaultLabels({ faults, px, ink, box }: {
+export function FaultLabels({ faults, px, ink, box, avoid }: {
   faults: ReadonlyArray<{ fault: PlacementFault; placement: DrawnPlacement }>;
   px: number;
   ink: Ink;
   box: Box;
+  /** Boxes already taken by other words (the component codes). */
+  avoid: readonly Box[];
 }) {
   if (faults.length === 0) return null;
   const size = LABEL_PX * px;
@@ -137,7 +139,7 @@ export function FaultLabels({ faults, px, ink, box }: {
       const push = pushInside(at, box);
       if (!push) break;
       const b = { minX: at.minX + push.dx, minY: at.minY + push.dy, maxX: at.maxX + push.dx, maxY: at.maxY + push.dy };
-      if (!boxInside(b, box) || taken.some((t) => boxesIntersect(t, b))) continue;
+      if (!boxInside(b, box) || taken.some((t) => boxesIntersect(t, b)) || avoid.some((t) => boxesIntersect(t, b))) continue;
       taken.push(b);
       spots.push({ fault, placement, x: b.minX, y: (b.minY + b.maxY) / 2 });
       break;

@@ -163,6 +163,7 @@ export function PlateDrawing(props: PlateDrawingProps) {
       : [];
     return layoutLabels(plate.placements.map(labelRequest), drawingBox, tags);
   }, [plate, stationScene, drawingBox, sizes.cross, sizes.tag]);
+  const codeBoxes = useMemo(() => (detail === 'sparse' ? [] : [...placedLabels.values()].map((l) => l.box)), [placedLabels, detail]);
 
   // Problem words are few and screen-sized; past a handful in view they would bury the
   // drawing, so the outlines stay and one line above the drawing says how many.
@@ -339,7 +340,7 @@ export function PlateDrawing(props: PlateDrawingProps) {
             <FocusLabels selected={selected} hovered={printMode ? null : hovered} placed={placedLabels} drawingBox={drawingBox} ink={ink} />
             <DatumLabel holeRadius={plate.holeRadius} px={px} ink={ink} />
             <OffsetLabels origin={stationScene.origin} arm={sizes.arm} name={stationScene.offsetName} px={px} ink={ink} />
-            <FaultLabels faults={faultWordsHidden ? NO_FAULTS : faultsInView} px={px} ink={ink} box={faultBox} />
+            <FaultLabels faults={faultWordsHidden ? NO_FAULTS : faultsInView} px={px} ink={ink} box={faultBox} avoid={codeBoxes} />
           </g>
         </svg>
         {faultWordsHidden && !drag ? (
