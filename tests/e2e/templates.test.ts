@@ -174,6 +174,72 @@ describe('template editor in a real browser', () => {
     await page.close();
   });
 
+  it('on a phone a placement is dragged with a finger, and the drawing does not pan under it', async () => {
+    const page = await e2e.newPage();
+    await page.setViewportSize({ width: 390, height: 844 });
+    await e2e.signIn(page, 'programmer');
+    // Real touch input through the DevTools protocol (Input.dispatchTouchEvent): the browser makes the
+    // touch and pointer events (pointerType "touch") a finger would. Touch is on before the page loads,
+    // as on a phone (d3-zoom listens for touches where navigator.maxTouchPoints says there are any).
+    const cdp = await page.context().newCDPSession(page);
+    await cdp.send('Emulation.setTouchEmulationEnabled', { enabled: true, maxTouchPoints: 2 });
+    await openDraft(page);
+    const pitch = await platePitch();
+    const before = await station(page, 'C-SR', 1);
+    const drawing = page.getByTestId('plate-drawing');
+    await drawing.scrollIntoViewIfNeeded();
+    const shape = page.locator(`svg[data-testid="plate-drawing"] g[data-placement="C-SR"][role="img"]`).first();
+    const box = (await shape.boundingBox())!;
+    const zoomGroup = page.locator('svg[data-testid="plate-drawing"] > g').first();
+    const perUnit = await zoomGroup.evaluate((g) => (g as SVGGElement).getScreenCTM()!.a);
+    const panned = await zoomGroup.getAttribute('transform');
+    const at = { x: box.x + box.width / 2, y: box.y + box.height / 2 };
+    await cdp.send('Input.dispatchTouchEvent', { type: 'touchStart', touchPoints: [{ x: at.x, y: at.y }] });
+    for (let i = 1; i <= 10; i++) {
+      await cdp.send('Input.dispatchTouchEvent', { type: 'touchMove', touchPoints: [{ x: at.x + (pitch * perUnit * i) / 10, y: at.y }] });
+    }
+    await cdp.send('Input.dispatchTouchEvent', { type: 'touchEnd', touchPoints: [] });
+    await expect.poll(() => station(page, 'C-SR', 1)).toEqual({ x: before.x + pitch, y: before.y });
+    expect(await zoomGroup.getAttribute('transform')).toBe(panned);
+
+    // The same finger on empty plate pans the drawing (d3-zoom): the zoom group's translation changes.
+    const frame = (await drawing.boundingBox())!;
+    const empty = { x: frame.x + frame.width - 12, y: frame.y + 12 };
+    await cdp.send('Input.dispatchTouchEvent', { type: 'touchStart', touchPoints: [empty] });
+    for (let i = 1; i <= 5; i++) await cdp.send('Input.dispatchTouchEvent', { type: 'touchMove', touchPoints: [{ x: empty.x - 10 * i, y: empty.y + 6 * i }] });
+    await cdp.send('Input.dispatchTouchEvent', { type: 'touchEnd', touchPoints: [] });
+    await expect.poll(() => zoomGroup.getAttribute('transform')).not.toBe(panned);
+    expect(await station(page, 'C-SR', 1)).toEqual({ x: before.x + pitch, y: before.y });
+    await cdp.detach();
+    await page.close();
+  });
+
+  it('the wheel zooms the drawing about the pointer and Fit shows the whole plate again', async () => {
+    const page = await e2e.newPage();
+    await page.setViewportSize({ width: 1440, height: 900 });
+    await e2e.signIn(page, 'programmer');
+    await page.goto(`${e2e.baseUrl}/templates/1/versions/1`);
+    await page.getByRole('row', { name: /^20 / }).waitFor();
+    const drawing = page.getByTestId('plate-drawing');
+    const zoomGroup = page.locator('svg[data-testid="plate-drawing"] > g').first();
+    const box = (await drawing.boundingBox())!;
+    const at = { x: box.x + box.width * 0.3, y: box.y + box.height * 0.6 };
+    // The plate point under the pointer, through the zoom group's screen matrix (SVG 1.1, getScreenCTM).
+    const under = () => zoomGroup.evaluate((g, p) => new DOMPoint(p.x, p.y).matrixTransform((g as SVGGElement).getScreenCTM()!.inverse()).toJSON() as { x: number; y: number }, at);
+    const was = await under();
+    await page.mouse.move(at.x, at.y);
+    await page.mouse.wheel(0, -300);
+    await expect.poll(async () => zoomGroup.evaluate((g) => (g as SVGGElement).transform.baseVal.consolidate()?.matrix.a ?? 1)).toBeGreaterThan(1.2);
+    // Zooming about the pointer keeps the plate point under it where it was (common practice for wheel zoom).
+    // Within a pixel or so: the browser rounds the pointer and the wheel to whole pixels.
+    const now = await under();
+    const perUnit = await zoomGroup.evaluate((g) => (g as SVGGElement).getScreenCTM()!.a);
+    expect(Math.hypot(now.x - was.x, now.y - was.y) * perUnit).toBeLessThan(1.5);
+    await page.getByRole('button', { name: 'Fit' }).click();
+    await expect.poll(() => zoomGroup.getAttribute('transform')).toBe('translate(0 0) scale(1)');
+    await page.close();
+  });
+
   it('leaving with unsaved edits asks first; staying keeps the edits, and closing the tab asks too', async () => {
     const page = await e2e.newPage();
     await page.setViewportSize({ width: 1440, height: 900 });

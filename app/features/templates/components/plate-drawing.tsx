@@ -369,7 +369,7 @@ export function PlateDrawing(props: PlateDrawingProps) {
           <p id={hintId} className="text-sm text-slate-600">
             Drag to pan; wheel or pinch to zoom. With the drawing focused: + and − zoom, arrow keys pan, 0 fits the plate
             {onSelectPlacement ? ', Escape clears the selection' : ''}
-            {canDrag ? '. Drag a placement to a hole to move it; with one selected, arrow keys move it a hole and R turns it' : ''}.
+            {canDrag ? '. Drag a placement to a hole to move it; with one selected, arrow keys move it a hole (Shift+arrows pan) and R turns it' : ''}.
           </p>
         </div>
       )}
