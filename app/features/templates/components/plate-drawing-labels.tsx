@@ -21,8 +21,9 @@ const textProps = (size: number, ink: Ink) => ({
   className: `${ink.text} ${ink.halo}`,
 });
 
-/** What the label layout is asked for a placement: its code, centered on it. */
-export const labelRequest = (p: DrawnPlacement): LabelRequest => ({ key: p.key, text: p.code, at: p.labelAt, size: p.labelSize, vertical: p.labelVertical, bounds: p.bounds });
+/** What the label layout is asked for a placement: its code, centered on it, never smaller than `minSize`. */
+export const labelRequest = (p: DrawnPlacement, minSize = 0): LabelRequest =>
+  ({ key: p.key, text: p.code, at: p.labelAt, size: Math.max(p.labelSize, minSize), vertical: p.labelVertical, bounds: p.bounds });
 
 function Label({ text, at, ink, className, weight, placementKey }: { text: string; at: PlacedLabel; ink: Ink; className?: string; weight?: number; placementKey: string }) {
   const x = at.x;
@@ -57,11 +58,12 @@ export const CodeLabels = memo(function CodeLabels({ placements, placed, ink, de
 });
 
 /** The selected and the hovered placement's codes, on top, wherever the layout put (or left out) their labels. */
-export const FocusLabels = memo(function FocusLabels({ selected, hovered, placed, drawingBox, ink }: {
+export const FocusLabels = memo(function FocusLabels({ selected, hovered, placed, drawingBox, minSize, ink }: {
   selected: DrawnPlacement | null;
   hovered: DrawnPlacement | null;
   placed: ReadonlyMap<string, PlacedLabel>;
   drawingBox: Box;
+  minSize: number;
   ink: Ink;
 }) {
   const shown = [selected, hovered && hovered !== selected ? hovered : null].filter((p): p is DrawnPlacement => !!p);
@@ -69,7 +71,7 @@ export const FocusLabels = memo(function FocusLabels({ selected, hovered, placed
   return (
     <g aria-hidden="true" pointerEvents="none">
       {shown.map((p) => (
-        <Label key={p.key} placementKey={`focus:${p.key}`} text={p.code} at={placed.get(p.key) ?? labelAlone(labelRequest(p), drawingBox)} ink={ink}
+        <Label key={p.key} placementKey={`focus:${p.key}`} text={p.code} at={placed.get(p.key) ?? labelAlone(labelRequest(p, minSize), drawingBox)} ink={ink}
           className={p === selected ? ink.selectedText : ink.text} weight={600} />
       ))}
     </g>

@@ -45,6 +45,8 @@ const KEY_ZOOM = 1.25;
  * labels catch up when it ends.
  */
 const HEAVY_SCENE = 3_000;
+/** Smallest component code on the screen, in px: smaller cannot be read at arm's length. */
+const MIN_CODE_PX = 10;
 /** More problem labels than this in view are replaced by one line of words over the drawing. */
 const MAX_FAULT_LABELS = 30;
 const NO_FAULTS: never[] = [];
@@ -156,13 +158,17 @@ export function PlateDrawing(props: PlateDrawingProps) {
 
   // ---- labels: inside the drawing box, clear of each other and of the station tags ----
   const drawingBox = useMemo(() => viewToPlateBox(fit), [fit]);
+  // Codes are sized on the plate, but never under MIN_CODE_PX on the screen; the size steps by
+  // quarter octaves of zoom, so the layout is redone now and then, not on every frame.
+  const minCode = printMode ? 0 : MIN_CODE_PX * 2 ** (Math.ceil(Math.log2(px) * 4) / 4);
   const placedLabels = useMemo(() => {
     const off = sizes.cross + sizes.tag * 0.85;
-    const tags = stationScene.stations.length <= UNCULLED_LIMIT
+    // Station tags are drawn, and so kept clear, only when close enough to read.
+    const tags = detail === 'full' && stationScene.stations.length <= UNCULLED_LIMIT
       ? stationScene.stations.map((s) => ({ minX: s.datum.x + off - sizes.tag, minY: s.datum.y + off - sizes.tag, maxX: s.datum.x + off + sizes.tag, maxY: s.datum.y + off + sizes.tag }))
       : [];
-    return layoutLabels(plate.placements.map(labelRequest), drawingBox, tags);
-  }, [plate, stationScene, drawingBox, sizes.cross, sizes.tag]);
+    return layoutLabels(plate.placements.map((p) => labelRequest(p, minCode)), drawingBox, tags);
+  }, [plate, stationScene, drawingBox, sizes.cross, sizes.tag, minCode, detail]);
   const codeBoxes = useMemo(() => (detail === 'sparse' ? [] : [...placedLabels.values()].map((l) => l.box)), [placedLabels, detail]);
 
   // Problem words are few and screen-sized; past a handful in view they would bury the
@@ -337,7 +343,7 @@ export function PlateDrawing(props: PlateDrawingProps) {
             </g>
             <CodeLabels placements={plate.placements} placed={placedLabels} ink={ink} detail={detail} cull={labelCull} />
             <StationTags stations={stationScene.stations} ink={ink} tag={sizes.tag} cross={sizes.cross} detail={detail} cull={stationCull} />
-            <FocusLabels selected={selected} hovered={printMode ? null : hovered} placed={placedLabels} drawingBox={drawingBox} ink={ink} />
+            <FocusLabels selected={selected} hovered={printMode ? null : hovered} placed={placedLabels} drawingBox={drawingBox} minSize={minCode} ink={ink} />
             <DatumLabel holeRadius={plate.holeRadius} px={px} ink={ink} />
             <OffsetLabels origin={stationScene.origin} arm={sizes.arm} name={stationScene.offsetName} px={px} ink={ink} />
             <FaultLabels faults={faultWordsHidden ? NO_FAULTS : faultsInView} px={px} ink={ink} box={faultBox} avoid={codeBoxes} />
