@@ -77,11 +77,16 @@ describe('template editor in a real browser', () => {
     await page.close();
   });
 
-  /** A fresh draft of the demo bracket template (version 1, released), made through the API as a programmer. */
-  async function openDraft(page: Page): Promise<number> {
+  /** A fresh draft of the demo bracket template (version 1, released), made through the API as a programmer, with `extra` placements saved in it. */
+  async function openDraft(page: Page, extra: object[] = []): Promise<number> {
     const token = (await (await page.request.get(`${e2e.baseUrl}/api/auth/csrf`)).json()).token as string;
-    const draft = await (await page.request.post(`${e2e.baseUrl}/api/templates/1/versions`, { data: { from: 1 }, headers: { 'X-CSRF-Token': token } })).json();
+    const headers = { 'X-CSRF-Token': token };
+    const draft = await (await page.request.post(`${e2e.baseUrl}/api/templates/1/versions`, { data: { from: 1 }, headers })).json();
     const n = draft.version as number;
+    if (extra.length) {
+      const saved = await page.request.put(`${e2e.baseUrl}/api/templates/1/versions/${n}`, { data: { ...draft, placements: [...draft.placements, ...extra] }, headers });
+      expect(saved.status()).toBe(200);
+    }
     await page.goto(`${e2e.baseUrl}/templates/1/versions/${n}`);
     await page.getByRole('row', { name: /^20 / }).waitFor();
     return n;
@@ -309,7 +314,10 @@ describe('template editor in a real browser', () => {
       const page = await e2e.newPage();
       await page.setViewportSize({ width, height });
       await e2e.signIn(page, 'programmer');
-      await openDraft(page);
+      // Four dowel stops crowded into the plate's far corner, holes (10, 6) to (11, 7): the corner
+      // of a 12 × 8 plate, where codes wider than a pitch meet each other and the plate's edge.
+      const corner = [[10, 6], [11, 6], [10, 7], [11, 7]].map(([col, row]) => ({ id: `Q-${col}-${row}`, component: 'ST-0.5', hole: { col, row }, rotation: 0, stopsInUse: [0] }));
+      await openDraft(page, corner);
       await page.screenshot({ path: `/tmp/editor-e2e-${width}.png`, fullPage: true });
       const wide = await page.evaluate(() => {
         const vw = document.documentElement.clientWidth;
@@ -356,6 +364,20 @@ describe('template editor in a real browser', () => {
       }));
       expect(overlaps).toEqual([]);
       await page.getByTestId('plate-drawing').screenshot({ path: `/tmp/editor-drawing-e2e-${width}.png` });
+
+      // A code left out for want of room shows while the pointer is over its placement.
+      const drawn = await page.locator('svg[data-testid="plate-drawing"] text[data-label]').evaluateAll((els) => els.map((e) => e.getAttribute('data-label')));
+      const hidden = corner.find((q) => !drawn.some((k) => k?.endsWith(`:${q.id}`)));
+      // At phone width the crowded corner has no room for all four codes.
+      if (width === 390) expect(hidden).toBeDefined();
+      if (hidden) {
+        await page.locator(`svg[data-testid="plate-drawing"] g[data-placement="${hidden.id}"][role="img"]`).first().hover({ force: true });
+        const shown = page.locator(`svg[data-testid="plate-drawing"] text[data-label$=":${hidden.id}"]`);
+        await shown.waitFor();
+        const r = (await shown.boundingBox())!;
+        expect(r.x).toBeGreaterThanOrEqual(labels.box.left - 1);
+        expect(r.x + r.width).toBeLessThanOrEqual(labels.box.right + 1);
+      }
       await page.close();
     });
   }
