@@ -172,6 +172,14 @@ describe('template editor in a real browser', () => {
 
     // With it selected and the drawing focused, an arrow key moves it one hole and R turns it.
     await page.getByTestId('plate-drawing').focus();
+    await page.keyboard.press('ArrowLeft');
+    await expect.poll(() => station(page, 'C-SR', 1)).toEqual(before);
+    // One more hole in −X is C-JR's hole (8, 1): refused in words, and it stays.
+    await page.keyboard.press('ArrowLeft');
+    await expect.poll(() => page.getByTestId('drag-status').textContent()).toMatch(/C-SR cannot go on hole \(8, 1\): .*C-JR/);
+    expect(await station(page, 'C-SR', 1)).toEqual(before);
+    await page.keyboard.press('ArrowRight');
+    await expect.poll(() => station(page, 'C-SR', 1)).toEqual(moved);
     await page.keyboard.press('ArrowUp');
     await expect.poll(() => station(page, 'C-SR', 1)).toEqual({ x: moved.x, y: moved.y + pitch });
     await page.keyboard.press('r');

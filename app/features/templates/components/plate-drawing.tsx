@@ -123,7 +123,6 @@ export function PlateDrawing(props: PlateDrawingProps) {
 
   const svgRef = useRef<SVGSVGElement>(null);
   const groupRef = useRef<SVGGElement>(null);
-  const frameRef = useRef<HTMLDivElement>(null);
   const blockRef = useRef(false);
   const zoom = usePlateZoom({ svgRef, groupRef, base, resetKey: plateKey, limits, heavy, disabled: printMode, blockRef });
   const view = printMode ? fit : zoom.view;
@@ -303,7 +302,6 @@ export function PlateDrawing(props: PlateDrawingProps) {
     <div className={`flex flex-col gap-2 ${className}`}>
       {overlay && changes ? <ComparisonLegend changes={changes} olderLabel={overlay.label ?? 'older version'} newerLabel={label ?? 'this version'} printMode={printMode} /> : null}
       <div
-        ref={frameRef}
         className={`relative overflow-hidden rounded border ${printMode ? 'border-black bg-white' : 'touch-none cursor-grab border-slate-300 bg-white'}`}
         style={printMode ? { breakInside: 'avoid' } : { height }}
       >
