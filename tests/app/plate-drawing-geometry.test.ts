@@ -22,6 +22,10 @@ import {
   cullWindow,
   detailFor,
   fitView,
+  groupTransformOf,
+  pixelTransformOf,
+  previewTransform,
+  userToPixels,
   plateBoxToView,
   plateToView,
   scaleExtentFor,
@@ -257,6 +261,43 @@ describe('the view', () => {
     expect(v.w).toBeGreaterThanOrEqual(target.w - 1e-9);
     expect(v.h).toBeCloseTo(target.h, 9);
     expect(transformShowing(base, base)).toEqual({ k: 1, x: 0, y: 0 });
+  });
+
+  it('a zoom in the frame pixels and the same zoom on a group in the svg draw every point in one place', () => {
+    // SVG 2 preserveAspectRatio (meet) puts user point u at p = s·u + o; d3-zoom's transform maps
+    // p to k·p + t, the group's maps u to k·u + g. The two pictures must agree for any point.
+    const base = fitView(plateBox, 1); // 34 × 22
+    const size = { width: 900, height: 500 };
+    const { s, ox, oy } = userToPixels(base, size);
+    expect(s).toBeCloseTo(Math.min(900 / 34, 500 / 22), 12);
+    for (const t of [{ k: 1, x: 0, y: 0 }, { k: 2.5, x: -310, y: 42 }, { k: 0.4, x: 120, y: -7 }]) {
+      const g = groupTransformOf(t, base, size);
+      for (const u of [{ x: -2, y: -20 }, { x: 15, y: -9 }, { x: 31, y: 1 }]) {
+        const viaPixels = { x: t.k * (s * u.x + ox) + t.x, y: t.k * (s * u.y + oy) + t.y };
+        const viaGroup = { x: s * (g.k * u.x + g.x) + ox, y: s * (g.k * u.y + g.y) + oy };
+        expect(viaGroup.x).toBeCloseTo(viaPixels.x, 9);
+        expect(viaGroup.y).toBeCloseTo(viaPixels.y, 9);
+      }
+      const back = pixelTransformOf(g, base, size);
+      expect(back.k).toBe(t.k);
+      expect(back.x).toBeCloseTo(t.x, 9);
+      expect(back.y).toBeCloseTo(t.y, 9);
+    }
+    expect(groupTransformOf({ k: 1, x: 0, y: 0 }, base, size)).toEqual({ k: 1, x: 0, y: 0 });
+  });
+
+  it('a picture painted under one zoom, moved by the preview transform, looks as the live zoom would', () => {
+    // CSS Transforms 1: with transform-origin 0 0, translate(b) scale(a) maps a point q to b + a·q.
+    const drawn = { k: 1.5, x: -40, y: 25 };
+    for (const live of [{ k: 3, x: -200, y: 10 }, { k: 1.5, x: 60, y: -5 }, { k: 0.75, x: 3, y: 4 }]) {
+      const a = previewTransform(drawn, live);
+      for (const p of [{ x: 0, y: 0 }, { x: 320, y: 111 }, { x: -50, y: 900 }]) {
+        const painted = { x: drawn.k * p.x + drawn.x, y: drawn.k * p.y + drawn.y };
+        expect(a.x + a.k * painted.x).toBeCloseTo(live.k * p.x + live.x, 9);
+        expect(a.y + a.k * painted.y).toBeCloseTo(live.k * p.y + live.y, 9);
+      }
+    }
+    expect(previewTransform(drawn, drawn)).toEqual({ k: 1, x: 0, y: 0 });
   });
 
   it('zoom stays between half a pitch and eight fitted views', () => {

@@ -253,6 +253,33 @@ describe('template editor in a real browser', () => {
     await page.close();
   });
 
+  it('on a plate too large to redraw every frame, the wheel still zooms about the pointer and the drawing settles redrawn', async () => {
+    const page = await e2e.newPage();
+    await page.setViewportSize({ width: 1440, height: 900 });
+    await e2e.signIn(page, 'programmer');
+    const headers = { 'X-CSRF-Token': (await (await page.request.get(`${e2e.baseUrl}/api/auth/csrf`)).json()).token as string };
+    // 400 × 300 holes: 120,000 holes, far past what one frame repaints (the drawing moves it as a picture).
+    const plate = await (await page.request.post(`${e2e.baseUrl}/api/plates`, { headers, data: { code: 'GP-BIG-400x300', name: 'Large table', unit: 'in', pitch: 1, columns: 400, rows: 300, holeDiameter: 0.25 } })).json();
+    const template = await (await page.request.post(`${e2e.baseUrl}/api/templates`, { headers, data: { name: 'Large table test', plateId: plate.id } })).json();
+    await page.goto(`${e2e.baseUrl}/templates/${template.id}/versions/1`);
+    const drawing = page.getByTestId('plate-drawing');
+    await drawing.waitFor();
+    const zoomGroup = page.locator('svg[data-testid="plate-drawing"] > g').first();
+    const box = (await drawing.boundingBox())!;
+    const at = { x: box.x + box.width * 0.4, y: box.y + box.height * 0.5 };
+    const under = () => zoomGroup.evaluate((g, p) => new DOMPoint(p.x, p.y).matrixTransform((g as SVGGElement).getScreenCTM()!.inverse()).toJSON() as { x: number; y: number }, at);
+    const was = await under();
+    await page.mouse.move(at.x, at.y);
+    await page.mouse.wheel(0, -300);
+    // When the gesture is over the svg carries no picture transform and the group holds the zoom.
+    await expect.poll(async () => zoomGroup.evaluate((g) => (g as SVGGElement).transform.baseVal.consolidate()?.matrix.a ?? 1)).toBeGreaterThan(1.2);
+    await expect.poll(() => drawing.evaluate((s) => (s as SVGSVGElement).style.transform)).toBe('');
+    const now = await under();
+    const perUnit = await zoomGroup.evaluate((g) => (g as SVGGElement).getScreenCTM()!.a);
+    expect(Math.hypot(now.x - was.x, now.y - was.y) * perUnit).toBeLessThan(1.5);
+    await page.close();
+  });
+
   it('leaving with unsaved edits asks first; staying keeps the edits, and closing the tab asks too', async () => {
     const page = await e2e.newPage();
     await page.setViewportSize({ width: 1440, height: 900 });

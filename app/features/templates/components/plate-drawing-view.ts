@@ -72,6 +72,41 @@ export function transformShowing(base: ViewBox, target: ViewBox): ZoomTransform 
 
 export const zoomTransformAttr = (t: ZoomTransform) => `translate(${t.x} ${t.y}) scale(${t.k})`;
 
+/**
+ * Where the svg puts user point u on the element, in pixels from its top-left: p = s·u + o,
+ * with s from viewScale and the spare space split evenly (xMidYMid meet).
+ */
+export function userToPixels(base: ViewBox, size: { width: number; height: number }): { s: number; ox: number; oy: number } {
+  const s = viewScale(base, size);
+  return { s, ox: (size.width - base.w * s) / 2 - base.x * s, oy: (size.height - base.h * s) / 2 - base.y * s };
+}
+
+/**
+ * d3-zoom on the frame keeps a transform in the frame's pixels, p' = k·p + t; the same picture
+ * as a transform of a group in the svg's user units, u' = k·u + g: from p = s·u + o,
+ * s·u' + o = k·(s·u + o) + t, so g = (k·o + t − o) / s.
+ */
+export function groupTransformOf(pixels: ZoomTransform, base: ViewBox, size: { width: number; height: number }): ZoomTransform {
+  const { s, ox, oy } = userToPixels(base, size);
+  return { k: pixels.k, x: (pixels.k * ox + pixels.x - ox) / s, y: (pixels.k * oy + pixels.y - oy) / s };
+}
+
+/** The inverse of groupTransformOf: t = s·g + o − k·o. */
+export function pixelTransformOf(group: ZoomTransform, base: ViewBox, size: { width: number; height: number }): ZoomTransform {
+  const { s, ox, oy } = userToPixels(base, size);
+  return { k: group.k, x: s * group.x + ox - group.k * ox, y: s * group.y + oy - group.k * oy };
+}
+
+/**
+ * The CSS transform (origin at the element's top-left) that makes a picture painted under pixel
+ * transform `drawn` look as it would under `live`: live = A ∘ drawn with A(p) = a·p + b, so
+ * a = k_live / k_drawn and b = t_live − a·t_drawn (CSS Transforms 1: translate(b) scale(a)).
+ */
+export function previewTransform(drawn: ZoomTransform, live: ZoomTransform): ZoomTransform {
+  const a = live.k / drawn.k;
+  return { k: a, x: live.x - a * drawn.x, y: live.y - a * drawn.y };
+}
+
 /** Smallest and largest view (its longer side), in view units. */
 export interface ZoomLimits {
   min: number;

@@ -121,20 +121,18 @@ export function PlateDrawing(props: PlateDrawingProps) {
   const heavy = !printMode &&
     plate.placements.length + stationScene.stations.length + (older?.placements.length ?? 0) + (olderStations?.stations.length ?? 0) + (plate.columns * plate.rows) / 8 > HEAVY_SCENE;
 
+  const frameRef = useRef<HTMLDivElement>(null);
   const svgRef = useRef<SVGSVGElement>(null);
   const groupRef = useRef<SVGGElement>(null);
-  const blockRef = useRef(false);
-  const zoom = usePlateZoom({ svgRef, groupRef, base, resetKey: plateKey, limits, heavy, disabled: printMode, blockRef });
-  const view = printMode ? fit : zoom.view;
-  const fitNow = () => zoom.show(fit);
-
-  // Pixels per pitch decide the level of detail; the svg's size comes from a ResizeObserver.
+  // Pixels per pitch decide the level of detail; the frame's size comes from a ResizeObserver
+  // (the frame's, not the svg's: a heavy gesture moves the svg with a CSS transform).
   const [size, setSize] = useState({ width: 800, height: 500 });
   useLayoutEffect(() => {
-    const el = svgRef.current;
+    const el = frameRef.current;
     if (!el) return;
     const measure = () => {
-      const { width, height } = el.getBoundingClientRect();
+      const width = el.clientWidth;
+      const height = el.clientHeight;
       if (width > 1 && height > 1) setSize((s) => (s.width === width && s.height === height ? s : { width, height }));
     };
     measure();
@@ -143,6 +141,11 @@ export function PlateDrawing(props: PlateDrawingProps) {
     ro.observe(el);
     return () => ro.disconnect();
   }, []);
+  const blockRef = useRef(false);
+  const zoom = usePlateZoom({ frameRef, svgRef, groupRef, base, size, resetKey: plateKey, limits, heavy, disabled: printMode, blockRef });
+  const view = printMode ? fit : zoom.view;
+  const fitNow = () => zoom.show(fit);
+
   const scale = viewScale(view, size);
   const detail = printMode ? 'full' : detailFor(scale * plate.pitch);
   // View units per screen pixel for the few labels that keep a constant size; in print, a
@@ -302,6 +305,7 @@ export function PlateDrawing(props: PlateDrawingProps) {
     <div className={`flex flex-col gap-2 ${className}`}>
       {overlay && changes ? <ComparisonLegend changes={changes} olderLabel={overlay.label ?? 'older version'} newerLabel={label ?? 'this version'} printMode={printMode} /> : null}
       <div
+        ref={frameRef}
         className={`relative overflow-hidden rounded border ${printMode ? 'border-black bg-white' : 'touch-none cursor-grab border-slate-300 bg-white'}`}
         style={printMode ? { breakInside: 'avoid' } : { height }}
       >
@@ -317,13 +321,14 @@ export function PlateDrawing(props: PlateDrawingProps) {
           // No transitions anywhere: zoom and fit jump, which also honors prefers-reduced-motion.
           // The focus ring is drawn inside the edge because the frame clips what lies outside it.
           className={`block w-full select-none ${printMode ? 'h-auto' : 'h-full touch-none rounded focus-visible:outline-3 focus-visible:-outline-offset-3 focus-visible:outline-accent-600'}`}
-          style={printMode ? { aspectRatio: `${fit.w} / ${fit.h}`, maxHeight: '9in' } : undefined}
+          // A heavy drawing keeps its own compositor layer, so moving it as a picture never re-rasterizes it.
+          style={printMode ? { aspectRatio: `${fit.w} / ${fit.h}`, maxHeight: '9in' } : heavy ? { willChange: 'transform' } : undefined}
           {...(printMode ? {} : {
             onClick, onKeyDown, onPointerDown, onPointerMove, onPointerLeave,
             onPointerUp: dragging.handlers.onPointerUp, onPointerCancel: dragging.handlers.onPointerCancel,
           })}
         >
-          <g ref={groupRef} transform={printMode ? undefined : zoomTransformAttr(zoom.transform)} style={heavy ? { willChange: 'transform' } : undefined}>
+          <g ref={groupRef} transform={printMode ? undefined : zoomTransformAttr(zoom.transform)}>
             <g transform="scale(1 -1)">
               <PlateLayer pitch={plate.pitch} columns={plate.columns} rows={plate.rows} holeRadius={plate.holeRadius}
                 minX={plate.edge.minX} minY={plate.edge.minY} maxX={plate.edge.maxX} maxY={plate.edge.maxY} patternId={`${uid}-holes`} ink={ink} />
