@@ -187,7 +187,7 @@ describe('template editor in a real browser', () => {
     await page.close();
   });
 
-  it('on a phone a placement is dragged with a finger, and the drawing does not pan under it', async () => {
+  it('on a phone a placement is dragged with a finger without panning the drawing; a finger pans, two fingers zoom', async () => {
     const page = await e2e.newPage();
     await page.setViewportSize({ width: 390, height: 844 });
     await e2e.signIn(page, 'programmer');
@@ -223,6 +223,16 @@ describe('template editor in a real browser', () => {
     await cdp.send('Input.dispatchTouchEvent', { type: 'touchEnd', touchPoints: [] });
     await expect.poll(() => zoomGroup.getAttribute('transform')).not.toBe(panned);
     expect(await station(page, 'C-SR', 1)).toEqual({ x: before.x + pitch, y: before.y });
+
+    // Two fingers spread apart zoom in (a pinch, d3-zoom): the group's scale grows.
+    const scaleOf = () => zoomGroup.evaluate((g) => (g as SVGGElement).transform.baseVal.consolidate()?.matrix.a ?? 1);
+    const k0 = await scaleOf();
+    const mid = { x: frame.x + frame.width / 2, y: frame.y + frame.height / 2 };
+    const fingers = (d: number) => [{ x: mid.x - d, y: mid.y, id: 1 }, { x: mid.x + d, y: mid.y, id: 2 }];
+    await cdp.send('Input.dispatchTouchEvent', { type: 'touchStart', touchPoints: fingers(20) });
+    for (let d = 30; d <= 80; d += 10) await cdp.send('Input.dispatchTouchEvent', { type: 'touchMove', touchPoints: fingers(d) });
+    await cdp.send('Input.dispatchTouchEvent', { type: 'touchEnd', touchPoints: [] });
+    await expect.poll(scaleOf).toBeGreaterThan(k0 * 2);
     await cdp.detach();
     await page.close();
   });
