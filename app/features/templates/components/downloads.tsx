@@ -37,17 +37,18 @@ export function Downloads({ templateId, version, dirty }: { templateId: number; 
   if (rules?.setsOffsets) query.set('base', base.replace(/\s+/g, ''));
   if (rules?.registers !== 'none' && first.trim()) query.set('first', first.trim());
 
-  async function download() {
+  async function fetchFile(url: string, name: string) {
     setError(null);
     setBusy(true);
     try {
-      await downloadFile(`${versionFileUrl(templateId, n, 'offsets.nc')}?${query}`, `offsets-${family}.nc`);
+      await downloadFile(url, name);
     } catch (e) {
       setError(e);
     } finally {
       setBusy(false);
     }
   }
+  const download = () => fetchFile(`${versionFileUrl(templateId, n, 'offsets.nc')}?${query}`, `offsets-${family}.nc`);
 
   return (
     <section className="flex flex-col gap-3 rounded border border-slate-300 bg-white p-4" aria-labelledby="downloads-title">
@@ -60,6 +61,9 @@ export function Downloads({ templateId, version, dirty }: { templateId: number; 
         <a className={linkClass} href={versionFileUrl(templateId, n, 'stations.csv')} download><Download aria-hidden className="h-4 w-4" />Stations CSV</a>
         <a className={linkClass} href={versionFileUrl(templateId, n, 'stations.xlsx')} download><Download aria-hidden className="h-4 w-4" />Stations XLSX</a>
         <a className={linkClass} href={versionFileUrl(templateId, n, 'template.json')} download><Download aria-hidden className="h-4 w-4" />template.json</a>
+        {/* Fetched rather than linked: the server refuses the DXF, in words, while a layer name breaks the naming convention. */}
+        <Button type="button" variant="secondary" disabled={busy} onClick={() => void fetchFile(versionFileUrl(templateId, n, 'drawing.dxf'), 'drawing.dxf')}><Download aria-hidden className="h-4 w-4" />Drawing DXF</Button>
+        <a className={linkClass} href={versionFileUrl(templateId, n, 'drawing.svg')} download><Download aria-hidden className="h-4 w-4" />Drawing SVG</a>
       </div>
       <fieldset className="flex flex-wrap items-end gap-3">
         <legend className="mb-1 text-sm font-semibold text-slate-700">G-code offsets for your control</legend>

@@ -18,7 +18,10 @@ function nextId(placements: Placement[], code: string) {
 
 /** Add a placement on a hole; clicking a hole in the drawing fills the hole fields. */
 export function AddPlacement({ layout, catalog, hole, setHole, readOnly }: { layout: LayoutDraftState; catalog: Component[]; hole: Hole; setHole: (h: Hole) => void; readOnly: boolean }) {
-  const [code, setCode] = useState(catalog[0]?.code ?? '');
+  // The catalog may arrive after the form mounts: until a component is chosen (or when the chosen
+  // one is gone), the first of the catalog is the choice.
+  const [chosen, setCode] = useState<string | null>(null);
+  const code = chosen !== null && catalog.some((c) => c.code === chosen) ? chosen : catalog[0]?.code ?? '';
   const [rotation, setRotation] = useState<Rotation>(0);
   if (readOnly) return null;
   const add = () => {
@@ -77,13 +80,13 @@ export function PlacementPanel({ layout, selected, onSelect, readOnly }: { layou
       {p && !readOnly ? (
         <div className="flex flex-col gap-2 border-t border-slate-200 pt-2">
           <p className="font-semibold">{p.id}: {p.component} on hole ({p.hole.col}, {p.hole.row}) at {p.rotation}°</p>
-          <p className="text-sm text-slate-600">Click a hole on the drawing to move its primary dowel there, or use the buttons.</p>
+          <p className="text-sm text-slate-600">Drag it on the drawing to another hole, click a hole to move its primary dowel there, or use the buttons (arrow keys and R on the focused drawing).</p>
           <div className="flex flex-wrap gap-1" role="group" aria-label="Move by one hole">
             <Button variant="secondary" aria-label="Move one hole left (−X)" onClick={() => replace({ ...p, hole: { ...p.hole, col: p.hole.col - 1 } })}><ArrowLeft aria-hidden className="h-4 w-4" />−X</Button>
             <Button variant="secondary" aria-label="Move one hole right (+X)" onClick={() => replace({ ...p, hole: { ...p.hole, col: p.hole.col + 1 } })}><ArrowRight aria-hidden className="h-4 w-4" />+X</Button>
             <Button variant="secondary" aria-label="Move one hole back (+Y)" onClick={() => replace({ ...p, hole: { ...p.hole, row: p.hole.row + 1 } })}><ArrowUp aria-hidden className="h-4 w-4" />+Y</Button>
             <Button variant="secondary" aria-label="Move one hole forward (−Y)" onClick={() => replace({ ...p, hole: { ...p.hole, row: p.hole.row - 1 } })}><ArrowDown aria-hidden className="h-4 w-4" />−Y</Button>
-            <Button variant="secondary" onClick={() => replace({ ...p, rotation: (((p.rotation + 90) % 360) as Rotation) })}><RotateCcw aria-hidden className="h-4 w-4" />Turn 90°</Button>
+            <Button variant="secondary" title="Turn a quarter turn counter-clockwise (key R on the drawing)" onClick={() => layout.rotatePlacement(p.id)}><RotateCcw aria-hidden className="h-4 w-4" />Turn 90° (R)</Button>
             <Button variant="danger" onClick={() => { layout.update({ placements: placements.filter((x) => x.id !== p.id) }); onSelect(null); }}><Trash2 aria-hidden className="h-4 w-4" />Remove</Button>
           </div>
           {component && component.stops.length ? (
@@ -123,7 +126,7 @@ export function SharedOffsetPicker({ layout, readOnly }: { layout: LayoutDraftSt
           </select>
         </label>
         <label className="flex flex-col text-sm font-semibold text-slate-700">Name
-          <input className={`${inputClass} w-28`} value={name} maxLength={40} onChange={(e) => set({ ...so, name: e.target.value })} />
+          <input className={`${inputClass} w-28`} value={name} maxLength={40} onChange={(e) => layout.update({ sharedOffset: { ...so, name: e.target.value } }, 'offset-name')} />
         </label>
       </div>
       {so.kind === 'hole' ? (

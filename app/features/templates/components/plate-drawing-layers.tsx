@@ -3,13 +3,12 @@
 // viewBox, do not re-render 2,000 placements and 16,000 stations.
 //
 // Geometry layers are children of one scale(1, -1) group and draw in plate coordinates (+Y up,
-// ISO 841). Label layers sit outside it, at (x, −y), so text stays upright.
+// ISO 841). Label layers (plate-drawing-labels.tsx) sit outside it, at (x, −y), so text stays upright.
 import { memo, useImperativeHandle, useMemo, useState, type Ref } from 'react';
-import type { Point } from '../../../../shared/schemas/common';
 import type { Hole } from '../../../../shared/schemas/template';
 import { arrowPathData, boxContainsPoint, boxPathData, circlePathData, holeBlocks, num, originSymbolData, type Box } from './plate-drawing-geometry';
 import type { Detail } from './plate-drawing-view';
-import type { DrawnPlacement, DrawnStation, PlacementFault, PlacementMove } from './plate-drawing-scene';
+import type { DrawnPlacement, DrawnStation, PlacementMove } from './plate-drawing-scene';
 
 /** Tailwind classes for each thing drawn. Safety hues appear only where a problem is named in words. */
 export interface Ink {
@@ -139,9 +138,11 @@ export const PlateLayer = memo(function PlateLayer(props: {
   );
 });
 
-export const ComponentsLayer = memo(function ComponentsLayer({ placements, ink, variant }: {
+export const ComponentsLayer = memo(function ComponentsLayer({ placements, ink, variant, draggable = false }: {
   placements: readonly DrawnPlacement[];
   ink: Ink;
+  /** The placements can be dragged to another hole: a move cursor says so. */
+  draggable?: boolean;
   /** 'older' is the comparison version: faint, dashed, beneath, and not clickable. */
   variant: 'current' | 'older';
 }) {
@@ -160,7 +161,7 @@ export const ComponentsLayer = memo(function ComponentsLayer({ placements, ink, 
     <g>
       {placements.map((p) => (
         // Clicks are found by data-placement on one listener, not by 2,000 handlers.
-        <g key={p.key} role="img" data-placement={p.id} transform={p.transform} className="cursor-pointer">
+        <g key={p.key} role="img" data-placement={p.id} transform={p.transform} className={draggable ? 'cursor-move' : 'cursor-pointer'}>
           <title>{p.title}</title>
           <path d={p.shape.fill} fillRule="evenodd" className={ink.component} strokeWidth={1} vectorEffect={NS} />
           {p.shape.lines ? <path d={p.shape.lines} fill="none" className={ink.componentLines} strokeWidth={1} vectorEffect={NS} /> : null}
@@ -253,51 +254,6 @@ export function HoleHover({ handle, pitch, r, ink }: { handle: Ref<HoleHoverHand
   return <circle aria-hidden="true" pointerEvents="none" cx={hole.col * pitch} cy={hole.row * pitch} r={r * 1.8} fill="none" className={ink.hover} strokeWidth={2.5} vectorEffect={NS} />;
 }
 
-// ---------- labels: upright text at (x, −y) ----------
-
-const textProps = (size: number, ink: Ink) => ({
-  fontSize: size,
-  textAnchor: 'middle' as const,
-  dominantBaseline: 'central' as const,
-  // A halo keeps a label legible over holes and outlines.
-  paintOrder: 'stroke' as const,
-  strokeWidth: size * 0.22,
-  strokeLinejoin: 'round' as const,
-  className: `${ink.text} ${ink.halo}`,
-});
-
-function Label({ p, ink, className, weight }: { p: DrawnPlacement; ink: Ink; className?: string; weight?: number }) {
-  const x = p.labelAt.x;
-  const y = -p.labelAt.y;
-  const base = textProps(p.labelSize, ink);
-  return (
-    <text x={num(x)} y={num(y)} {...base} className={`font-mono ${className ?? ink.text} ${ink.halo}`} fontWeight={weight}
-      transform={p.labelVertical ? `rotate(-90 ${num(x)} ${num(y)})` : undefined}>
-      {p.code}
-    </text>
-  );
-}
-
-export const CodeLabels = memo(function CodeLabels({ placements, ink, detail, cull }: {
-  placements: readonly DrawnPlacement[];
-  ink: Ink;
-  detail: Detail;
-  /** Only labels inside this plate box are drawn; null draws them all. */
-  cull: Box | null;
-}) {
-  if (detail === 'sparse') return null;
-  const shown = cull ? placements.filter((p) => boxContainsPoint(cull, p.labelAt)) : placements;
-  return (
-    <g aria-hidden="true" pointerEvents="none">
-      {shown.map((p) => <Label key={p.key} p={p} ink={ink} />)}
-    </g>
-  );
-});
-
-export const SelectedLabel = memo(function SelectedLabel({ placement, ink }: { placement: DrawnPlacement | null; ink: Ink }) {
-  if (!placement) return null;
-  return <g aria-hidden="true" pointerEvents="none"><Label p={placement} ink={ink} className={ink.selectedText} weight={600} /></g>;
-});
 
 /**
  * Station crosses are one path (CrossesLayer); here each station gets its number tag and a
@@ -342,57 +298,3 @@ export const StationTags = memo(function StationTags({ stations, ink, tag, cross
     </g>
   );
 });
-
-/**
- * Words that must be read at any zoom (the datum, the shared offset, problems) are sized in
- * screen pixels: `px` is view units per pixel. They are few, so re-rendering them as the zoom
- * changes costs nothing.
- */
-const LABEL_PX = 13;
-
-export function DatumLabel({ holeRadius, px, ink }: { holeRadius: number; px: number; ink: Ink }) {
-  const size = LABEL_PX * px;
-  return (
-    <text aria-hidden="true" pointerEvents="none" x={num(holeRadius * 1.35 + 3 * px)} y={num(holeRadius * 1.35 + size * 0.6 + 2 * px)}
-      {...textProps(size, ink)} textAnchor="start">
-      datum (0, 0)
-    </text>
-  );
-}
-
-export function OffsetLabels({ origin, arm, name, px, ink }: { origin: Point; arm: number; name: string; px: number; ink: Ink }) {
-  const s = originSymbolData(origin, arm);
-  const size = LABEL_PX * px;
-  const base = textProps(size, ink);
-  return (
-    <g aria-hidden="true" pointerEvents="none" fontWeight={600}>
-      <text x={num(s.xLabel.x + size * 0.4)} y={num(-s.xLabel.y)} {...base}>X</text>
-      <text x={num(s.yLabel.x)} y={num(-s.yLabel.y - size * 0.4)} {...base}>Y</text>
-      <text x={num(origin.x + arm * 0.15)} y={num(-origin.y + size * 1.1)} {...base} textAnchor="start">{name}</text>
-    </g>
-  );
-}
-
-export function FaultLabels({ faults, px, ink }: {
-  faults: ReadonlyArray<{ fault: PlacementFault; placement: DrawnPlacement }>;
-  px: number;
-  ink: Ink;
-}) {
-  if (faults.length === 0) return null;
-  const size = LABEL_PX * px;
-  const base = textProps(size, ink);
-  return (
-    <g fontWeight={600}>
-      {faults.map(({ fault, placement }) => (
-        // Clicking a problem's words selects the placement it is about.
-        <g key={placement.key} role="img" data-placement={placement.id} className="cursor-pointer">
-          <title>{fault.messages.length ? `Problem at placement ${fault.id}: ${fault.messages.join(' ')}` : `Problem at placement ${fault.id}.`}</title>
-          <text x={num(placement.bounds.minX)} y={num(-placement.bounds.maxY - size * 0.7)} {...base}
-            textAnchor="start" className={`${ink.faultText} ${ink.halo}`}>
-            {`problem — ${fault.label}`}
-          </text>
-        </g>
-      ))}
-    </g>
-  );
-}

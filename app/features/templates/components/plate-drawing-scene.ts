@@ -294,6 +294,9 @@ const PROBLEM_WORDS: Record<ProblemCode, string> = {
   'stop-faces-away': 'stop faces into the jaw',
 };
 
+/** The short words for a problem code, as the drawing labels it. */
+export const problemWords = (code: ProblemCode): string => PROBLEM_WORDS[code] ?? code;
+
 export interface PlacementFault {
   id: string;
   /** E.g. "P3: overlaps P2, hole taken". */

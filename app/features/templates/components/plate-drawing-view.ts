@@ -1,5 +1,5 @@
-// The drawing's viewBox and how pointer gestures change it. Pure, so the zoom and pan math is
-// tested without a browser.
+// The drawing's viewBox and how a d3-zoom transform maps onto it. Pure, so the math is tested
+// without a browser; d3-zoom itself turns wheel, drag and pinch into the transform.
 //
 // View coordinates are the root SVG's user space: x to the right, y down the screen. A plate
 // point (x, y) is drawn at (x, −y) because machine +Y points away from the operator, up on
@@ -12,14 +12,6 @@ export interface ViewBox {
   y: number;
   w: number;
   h: number;
-}
-
-/** Where the SVG element sits on the screen, as getBoundingClientRect gives it. */
-export interface Viewport {
-  left: number;
-  top: number;
-  width: number;
-  height: number;
 }
 
 export const plateToView = (p: Point): Point => ({ x: p.x, y: p.y === 0 ? 0 : -p.y });
@@ -49,41 +41,70 @@ export function viewBoxAttr(v: ViewBox): string {
  * Screen pixels per view unit under preserveAspectRatio="xMidYMid meet", the default: the
  * view box is scaled uniformly to fit inside the element (SVG 2, "preserveAspectRatio").
  */
-export function viewScale(view: ViewBox, vp: Pick<Viewport, 'width' | 'height'>): number {
+export function viewScale(view: ViewBox, vp: { width: number; height: number }): number {
   return Math.min(vp.width / view.w, vp.height / view.h);
 }
 
 /**
- * A client (screen) point in view coordinates, under xMidYMid meet: the scaled view box is
- * centered in the element, so the spare space is split evenly on both sides. Computed from the
- * view we hold rather than from getScreenCTM(), which lags a render behind during a gesture.
+ * A zoom as d3-zoom keeps it: user point u = k·v + (x, y), applied to a group inside the svg
+ * whose viewBox is `base` (SVG 1.1, "transform" attribute: translate(x y) scale(k)).
  */
-export function clientToView(view: ViewBox, vp: Viewport, clientX: number, clientY: number): Point {
-  const s = viewScale(view, vp);
-  const offX = (vp.width - view.w * s) / 2;
-  const offY = (vp.height - view.h * s) / 2;
-  return { x: view.x + (clientX - vp.left - offX) / s, y: view.y + (clientY - vp.top - offY) / s };
+export interface ZoomTransform {
+  k: number;
+  x: number;
+  y: number;
 }
 
-/** Where a view point lands on the element, in pixels from its top-left corner (xMidYMid meet). */
-export function viewToElement(view: ViewBox, size: Pick<Viewport, 'width' | 'height'>, p: Point): Point {
-  const s = viewScale(view, size);
-  return { x: (size.width - view.w * s) / 2 + (p.x - view.x) * s, y: (size.height - view.h * s) / 2 + (p.y - view.y) * s };
+/** The view box a zoom shows: the base box mapped back through the transform, v = (u − t) / k. */
+export function viewOfTransform(base: ViewBox, t: ZoomTransform): ViewBox {
+  return { x: (base.x - t.x) / t.k, y: (base.y - t.y) / t.k, w: base.w / t.k, h: base.h / t.k };
 }
 
 /**
- * The CSS transform (origin at the element's top-left) that makes the picture painted for
- * `committed` look like `live`: a uniform scale k and a shift. A drawing too big to repaint every
- * frame is moved this way during a gesture, on the compositor, and repainted once at the end.
- * Both are affine in the view point, so matching the images of the view's two corners fixes it:
- * k = s_live / s_committed and t = e_live(p) − k·e_committed(p) for any p.
+ * The zoom that shows `target` inside `base`, as large as fits and centered (the inverse of
+ * viewOfTransform when the boxes have one shape): k = min of the two ratios, and the target's
+ * center lands on the base's center, t = c_base − k·c_target.
  */
-export function previewTransform(committed: ViewBox, live: ViewBox, size: Pick<Viewport, 'width' | 'height'>): { k: number; tx: number; ty: number } {
-  const k = viewScale(live, size) / viewScale(committed, size);
-  const p = { x: committed.x, y: committed.y };
-  const a = viewToElement(committed, size, p);
-  const b = viewToElement(live, size, p);
-  return { k, tx: b.x - k * a.x, ty: b.y - k * a.y };
+export function transformShowing(base: ViewBox, target: ViewBox): ZoomTransform {
+  const k = Math.min(base.w / target.w, base.h / target.h);
+  return { k, x: base.x + base.w / 2 - k * (target.x + target.w / 2), y: base.y + base.h / 2 - k * (target.y + target.h / 2) };
+}
+
+export const zoomTransformAttr = (t: ZoomTransform) => `translate(${t.x} ${t.y}) scale(${t.k})`;
+
+/**
+ * Where the svg puts user point u on the element, in pixels from its top-left: p = s·u + o,
+ * with s from viewScale and the spare space split evenly (xMidYMid meet).
+ */
+export function userToPixels(base: ViewBox, size: { width: number; height: number }): { s: number; ox: number; oy: number } {
+  const s = viewScale(base, size);
+  return { s, ox: (size.width - base.w * s) / 2 - base.x * s, oy: (size.height - base.h * s) / 2 - base.y * s };
+}
+
+/**
+ * d3-zoom on the frame keeps a transform in the frame's pixels, p' = k·p + t; the same picture
+ * as a transform of a group in the svg's user units, u' = k·u + g: from p = s·u + o,
+ * s·u' + o = k·(s·u + o) + t, so g = (k·o + t − o) / s.
+ */
+export function groupTransformOf(pixels: ZoomTransform, base: ViewBox, size: { width: number; height: number }): ZoomTransform {
+  const { s, ox, oy } = userToPixels(base, size);
+  return { k: pixels.k, x: (pixels.k * ox + pixels.x - ox) / s, y: (pixels.k * oy + pixels.y - oy) / s };
+}
+
+/** The inverse of groupTransformOf: t = s·g + o − k·o. */
+export function pixelTransformOf(group: ZoomTransform, base: ViewBox, size: { width: number; height: number }): ZoomTransform {
+  const { s, ox, oy } = userToPixels(base, size);
+  return { k: group.k, x: s * group.x + ox - group.k * ox, y: s * group.y + oy - group.k * oy };
+}
+
+/**
+ * The CSS transform (origin at the element's top-left) that makes a picture painted under pixel
+ * transform `drawn` look as it would under `live`: live = A ∘ drawn with A(p) = a·p + b, so
+ * a = k_live / k_drawn and b = t_live − a·t_drawn (CSS Transforms 1: translate(b) scale(a)).
+ */
+export function previewTransform(drawn: ZoomTransform, live: ZoomTransform): ZoomTransform {
+  const a = live.k / drawn.k;
+  return { k: a, x: live.x - a * drawn.x, y: live.y - a * drawn.y };
 }
 
 /** Smallest and largest view (its longer side), in view units. */
@@ -98,51 +119,10 @@ export function zoomLimitsFor(fit: ViewBox, pitch: number): ZoomLimits {
   return { min: Math.min(pitch / 2, size), max: size * 8 };
 }
 
-/** The zoom factor k (> 1 zooms in) cut back so the view stays inside the limits. */
-export function limitZoom(view: ViewBox, k: number, limits: ZoomLimits): number {
-  const size = Math.max(view.w, view.h);
-  const next = Math.min(limits.max, Math.max(limits.min, size / k));
-  return size / next;
-}
-
-/**
- * Zoom by k around p (view coordinates): p stays where it is on the screen. Under a uniform
- * scale about p, x' = p − (p − x)/k; with meet alignment the centering offset is unchanged,
- * because the scaled width w·s is.
- */
-export function zoomAt(view: ViewBox, p: Point, k: number, limits: ZoomLimits): ViewBox {
-  const f = limitZoom(view, k, limits);
-  return { x: p.x - (p.x - view.x) / f, y: p.y - (p.y - view.y) / f, w: view.w / f, h: view.h / f };
-}
-
-export function zoomAtCenter(view: ViewBox, k: number, limits: ZoomLimits): ViewBox {
-  return zoomAt(view, { x: view.x + view.w / 2, y: view.y + view.h / 2 }, k, limits);
-}
-
-export function panBy(view: ViewBox, dx: number, dy: number): ViewBox {
-  return { ...view, x: view.x + dx, y: view.y + dy };
-}
-
-/**
- * Two-finger pinch, from the view when the gesture began. `anchor` is the fingers' midpoint
- * then and `now` their midpoint now, both read in the starting view; k is the ratio of finger
- * spreads. The plate point first under the fingers ends up under them again:
- * x' = anchor − (now − x₀)/k (drag and zoom in one step; with now = anchor it is zoomAt).
- */
-export function pinchView(start: ViewBox, anchor: Point, now: Point, k: number, limits: ZoomLimits): ViewBox {
-  const f = limitZoom(start, k, limits);
-  return { x: anchor.x - (now.x - start.x) / f, y: anchor.y - (now.y - start.y) / f, w: start.w / f, h: start.h / f };
-}
-
-/**
- * A wheel event as a zoom factor. Lines and pages are turned into pixels first (WheelEvent
- * deltaMode 1 and 2), and one event is capped so a fast wheel cannot jump to the limits.
- * 100 px of wheel (one notch in most browsers) zooms by e^0.2 ≈ 1.22.
- */
-export function wheelZoomFactor(deltaY: number, deltaMode: number): number {
-  const px = deltaMode === 1 ? deltaY * 16 : deltaMode === 2 ? deltaY * 400 : deltaY;
-  const capped = Math.max(-300, Math.min(300, px));
-  return Math.exp(-capped * 0.002);
+/** The limits as d3-zoom's scale extent [k_min, k_max] over a base view: k = base size / view size. */
+export function scaleExtentFor(base: ViewBox, limits: ZoomLimits): [number, number] {
+  const size = Math.max(base.w, base.h);
+  return [size / limits.max, size / limits.min];
 }
 
 /**

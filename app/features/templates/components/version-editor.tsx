@@ -1,4 +1,6 @@
-import { useState, type ReactNode } from 'react';
+import { useEffect, useState, type ReactNode } from 'react';
+import { Redo2, Undo2 } from 'lucide-react';
+import { useQueryClient } from '@tanstack/react-query';
 import type { Component } from '../../../../shared/schemas/catalog';
 import type { Unit } from '../../../../shared/schemas/common';
 import { blocksSaving, type Hole } from '../../../../shared/schemas/template';
@@ -7,13 +9,14 @@ import { formatLength } from '../../../../shared/units/units';
 import { Button } from '../../../components/ui/button';
 import { ErrorText, Notice } from '../../../components/ui/notice';
 import { ApiError } from '../../../lib/api-client';
-import { useSaveVersion } from '../api';
+import { templateKeys, useSaveVersion } from '../api';
 import { useLayoutDraft } from '../use-layout-draft';
 import { PlateDrawing } from './plate-drawing';
 import { AddPlacement, NumberingPicker, PlacementPanel, SharedOffsetPicker } from './layout-controls';
 import { StationTable } from './station-table';
 import { ProbeCheck } from './probe-check';
 import { Downloads } from './downloads';
+import { UnsavedChangesGuard } from './unsaved-guard';
 
 interface Props {
   templateId: number;
@@ -38,7 +41,26 @@ export function VersionEditor({ templateId, version, catalog, displayUnit, canEd
   const [selected, setSelected] = useState<string | null>(null);
   const [hole, setHole] = useState<Hole>({ col: 0, row: 0 });
   const [showOrder, setShowOrder] = useState(false);
-  const { evaluation } = layout;
+  const { evaluation, undo, redo } = layout;
+  const qc = useQueryClient();
+
+  // Ctrl+Z (Cmd+Z) undoes, Ctrl+Shift+Z and Ctrl+Y redo, anywhere on the page but in a text field,
+  // whose own undo is the one a user expects there.
+  useEffect(() => {
+    if (!editable) return;
+    const onKey = (e: KeyboardEvent) => {
+      if (!(e.ctrlKey || e.metaKey) || e.altKey) return;
+      if (e.target instanceof Element && e.target.closest('input, textarea, select, [contenteditable="true"]')) return;
+      const key = e.key.toLowerCase();
+      if (key === 'z' && !e.shiftKey) undo();
+      else if ((key === 'z' && e.shiftKey) || (key === 'y' && !e.shiftKey)) redo();
+      else return;
+      e.preventDefault();
+    };
+    window.addEventListener('keydown', onKey);
+    return () => window.removeEventListener('keydown', onKey);
+  }, [editable, undo, redo]);
+
   const conflict = save.error instanceof ApiError && save.error.code === 'stale-revision' ? (save.error.details as { current: TemplateVersion }).current : null;
   const onSave = (revision = version.revision) =>
     save.mutate({ revision, placements: layout.draft.placements, sharedOffset: layout.draft.sharedOffset, numbering: layout.draft.numbering, components: version.components });
@@ -50,9 +72,14 @@ export function VersionEditor({ templateId, version, catalog, displayUnit, canEd
   return (
     <div className="flex flex-col gap-4">
       {reviewSlot?.({ dirty: layout.dirty })}
+      {editable ? <UnsavedChangesGuard dirty={layout.dirty} what={`version ${version.version}`} /> : null}
       {editable ? (
         <div className="sticky top-0 z-10 flex flex-wrap items-center gap-3 rounded border border-slate-300 bg-white p-3">
           <Button onClick={() => onSave()} disabled={!layout.dirty || save.isPending || blocking.length > 0}>{save.isPending ? 'Saving…' : 'Save draft'}</Button>
+          <div className="flex gap-2" role="group" aria-label="History">
+            <Button variant="secondary" onClick={undo} disabled={!layout.canUndo} title="Undo the last edit (Ctrl+Z)" aria-keyshortcuts="Control+Z Meta+Z"><Undo2 aria-hidden className="h-4 w-4" />Undo</Button>
+            <Button variant="secondary" onClick={redo} disabled={!layout.canRedo} title="Redo (Ctrl+Shift+Z or Ctrl+Y)" aria-keyshortcuts="Control+Shift+Z Control+Y Meta+Shift+Z"><Redo2 aria-hidden className="h-4 w-4" />Redo</Button>
+          </div>
           <span className={layout.dirty ? 'font-semibold text-warning-700' : 'text-slate-600'}>{layout.dirty ? 'Unsaved changes' : `Saved · revision ${version.revision}`}</span>
           {blocking.length > 0 ? <span className="text-danger-700">Fix the {blocking.length} placement problem{blocking.length > 1 ? 's' : ''} below to save.</span> : null}
         </div>
@@ -65,7 +92,7 @@ export function VersionEditor({ templateId, version, catalog, displayUnit, canEd
         <Notice tone="warning" title="Someone else saved this draft after you opened it">
           <p>Their revision {conflict.revision} has {conflict.placements.length} placement(s) and {conflict.stations.length} station(s); yours has {layout.draft.placements.length} placement(s) and {evaluation.stations.length} station(s). Nothing of yours was saved.</p>
           <div className="mt-2 flex flex-wrap gap-2">
-            <Button variant="secondary" onClick={() => window.location.reload()}>Discard mine and load theirs</Button>
+            <Button variant="secondary" onClick={() => void qc.invalidateQueries({ queryKey: templateKeys.version(templateId, version.version) })}>Discard mine and load theirs</Button>
             <Button variant="danger" onClick={() => onSave(conflict.revision)}>Save mine over theirs</Button>
           </div>
         </Notice>
@@ -93,12 +120,13 @@ export function VersionEditor({ templateId, version, catalog, displayUnit, canEd
               onSelectPlacement={setSelected}
               onHoleClick={(h) => {
                 // With a placement selected, a hole click moves its primary dowel there; otherwise it picks the hole for a new one.
-                if (editable && selected) layout.update({ placements: layout.draft.placements.map((p) => (p.id === selected ? { ...p, hole: h } : p)) });
+                if (editable && selected) layout.movePlacement(selected, h);
                 else setHole(h);
               }}
+              {...(editable ? { onMovePlacement: layout.movePlacement, checkMove: layout.refusal, onRotatePlacement: layout.rotatePlacement } : {})}
               showOrder={showOrder}
               problems={evaluation.problems}
-              height="34rem"
+              height="min(34rem, max(18rem, 75vw))"
             />
           </div>
           <label className="flex min-h-10 items-center gap-2"><input type="checkbox" className="h-5 w-5" checked={showOrder} onChange={(e) => setShowOrder(e.target.checked)} />Show machining order</label>
