@@ -3,6 +3,7 @@ import { ClipboardList } from 'lucide-react';
 import type { JobDetail } from '../../../../shared/schemas/job';
 import type { LoadList } from '../../../../shared/schemas/load-list';
 import { formatLength } from '../../../../shared/units/units';
+import { shiftInWords } from '../../../../shared/clamps/shift-words';
 import { STOCK_CHECK_ADVICE } from '../../../../shared/clamps/reason-text';
 import { Button } from '../../../components/ui/button';
 import { ErrorText, Notice } from '../../../components/ui/notice';
@@ -50,6 +51,7 @@ export function LoadListPanel({ job, canEdit }: { job: JobDetail; canEdit: boole
           <p className="text-lg" data-testid="load-list-setting">
             <span className="font-semibold">Set {r.jawPlacement}</span> to <span className="num font-semibold">{formatLength(r.targetOpening, job.unit)}</span> ± <span className="num">{formatLength(r.room, job.unit)}</span> (setting {r.setting + 1})
           </p>
+          <p className="text-slate-800" data-testid="load-list-shift-words">To set it: {shiftInWords(r.shift, job.unit)}.</p>
           <ul aria-label={`Stations on ${r.jawPlacement}`} className="grid grid-cols-1 gap-2 sm:grid-cols-2">
             {r.stations.map((s) => (
               <li key={s.station} className="flex items-center justify-between gap-3">

@@ -2,6 +2,7 @@ import { forwardRef, useMemo, useState } from 'react';
 import { Ban, ListOrdered, Truck } from 'lucide-react';
 import { STOCK_CHECK_ADVICE, UNPLACEABLE_TEXT } from '../../../../shared/clamps/reason-text';
 import { formatLength } from '../../../../shared/units/units';
+import { shiftInWords } from '../../../../shared/clamps/shift-words';
 import { Notice } from '../../../components/ui/notice';
 import { TextField } from '../../../components/ui/field';
 import { supplierFlags, type CheckRun, type SupplierFlags } from '../check-run';
@@ -82,6 +83,7 @@ export const StockCheckResults = forwardRef<HTMLHeadingElement, {
                   target opening <span className="num font-semibold">{formatLength(s.targetOpening ?? request.nominalOpening + s.shift, unit)}</span>{s.room === undefined ? '' : <> ± <span className="num">{formatLength(s.room, unit)}</span></>} · {plural(s.bars.length)}
                   {s.shift === 0 ? ' · the nominal setting' : ''}
                 </p>
+                <p className="text-base text-slate-800" data-testid="setting-words">To set it: {shiftInWords(s.shift, unit)}.</p>
               </li>
             ))}
           </ol>
