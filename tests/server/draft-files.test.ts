@@ -5,7 +5,7 @@ import DxfParser from 'dxf-parser';
 import { parseString as parseDxfIndependent } from 'dxf';
 import { parse as parseSvg, type INode } from 'svgson';
 import JSZip from 'jszip';
-import { makeTestApp, type Agent, type TestApp } from './test-app';
+import { makeTestApp, type Agent, type TestApp, bodyBytes } from './test-app';
 import { runRs274, type Canon } from '../shared/rs274';
 import { generatePartProgram } from '../bench/generate-program';
 
@@ -43,12 +43,7 @@ const expectMark = (text: string | undefined, state: string, contentHash = hash)
   expect(text).toContain(contentHash);
 };
 
-const raw = (r: import('supertest').Test) => r.buffer(true).parse((res, cb) => {
-  const chunks: Buffer[] = [];
-  res.on('data', (c: Buffer) => chunks.push(c));
-  res.on('end', () => cb(null, Buffer.concat(chunks)));
-});
-const text = async (r: import('supertest').Test) => ((await raw(r).expect(200)).body as Buffer).toString('utf8');
+const text = async (r: import('supertest').Test) => ((await bodyBytes(r).expect(200)).body as Buffer).toString('utf8');
 
 /** rs274's canonical commands less the comments, the part that moves or sets the machine. */
 const working = (canon: Canon[]) => canon.filter((c) => c.kind !== 'COMMENT').map((c) => `${c.kind}(${c.text})`);
@@ -97,7 +92,7 @@ describe('spreadsheets from a draft', () => {
   it('XLSX: exceljs reads a banner row above the header, frozen with it, and the mark first on the About sheet', async () => {
     const read = async (url: string) => {
       const wb = new ExcelJS.Workbook();
-      await wb.xlsx.load((await raw(operator.get(url)).expect(200)).body as Parameters<typeof wb.xlsx.load>[0]);
+      await wb.xlsx.load((await bodyBytes(operator.get(url)).expect(200)).body as Parameters<typeof wb.xlsx.load>[0]);
       return wb;
     };
     const draft = await read(`${DRAFT}/stations.xlsx`);
@@ -176,7 +171,7 @@ describe('a job whose version was retired after it was made', () => {
     expect(a.errors).toEqual([]);
     expectMark(comments(a.canon)[0], 'retired', v1.contentHash);
     expect(working(a.canon)).toEqual(working(b.canon));
-    const zip = await JSZip.loadAsync((await raw(operator.get(`/api/jobs/${job.id}/package.zip`)).expect(200)).body as Buffer);
+    const zip = await JSZip.loadAsync((await bodyBytes(operator.get(`/api/jobs/${job.id}/package.zip`)).expect(200)).body as Buffer);
     const offsets = Object.keys(zip.files).find((n) => /^offsets-.*\.nc$/.test(n))!;
     expectMark((await zip.file(offsets)!.async('string')).split('\n').find((l) => l.startsWith('(')), 'retired', v1.contentHash);
     expectMark((await zip.file('stations.csv')!.async('string')).split('\r\n')[0], 'retired', v1.contentHash);

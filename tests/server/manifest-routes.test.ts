@@ -1,7 +1,7 @@
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import ExcelJS from 'exceljs';
 import { ManifestAnswerSchema } from '../../shared/schemas/manifest';
-import { makeTestApp, tableCounts, type Agent, type TestApp } from './test-app';
+import { makeTestApp, tableCounts, type Agent, type TestApp, bodyBytes } from './test-app';
 
 let t: TestApp;
 let lead: Agent;
@@ -9,12 +9,11 @@ let lead: Agent;
 beforeEach(async () => { t = await makeTestApp(); lead = await t.agent('lead'); });
 afterEach(async () => { await t.close(); });
 
-const binary = (r: import('supertest').Test) => r.buffer(true).parse((res, cb) => { const c: Buffer[] = []; res.on('data', (d: Buffer) => c.push(d)); res.on('end', () => cb(null, Buffer.concat(c))); });
 const upload = (url: string, body: Buffer, name = 'manifest.xlsx') => lead.http.post(url).set('X-CSRF-Token', lead.token).attach('file', body, name);
 
 describe('manifest routes', () => {
   it('round trip: exporting the catalog and previewing the file unchanged reports every row as "same"', async () => {
-    const file = (await binary(lead.get('/api/manifest.xlsx')).expect(200)).body as Buffer;
+    const file = (await bodyBytes(lead.get('/api/manifest.xlsx')).expect(200)).body as Buffer;
     const preview = await upload('/api/manifest/preview', file).expect(200);
     expect(preview.body.errors).toEqual([]);
     const rows = preview.body.changes.filter((c: { sheet: string }) => c.sheet === 'Components');
@@ -23,7 +22,7 @@ describe('manifest routes', () => {
   });
 
   it('previews a changed and an added row (read back and edited with exceljs, a second writer) and commits them in one transaction', async () => {
-    const file = (await binary(lead.get('/api/manifest.xlsx')).expect(200)).body as Buffer;
+    const file = (await bodyBytes(lead.get('/api/manifest.xlsx')).expect(200)).body as Buffer;
     const wb = new ExcelJS.Workbook();
     await wb.xlsx.load(file as never);
     const ws = wb.getWorksheet('Components')!;
@@ -52,7 +51,7 @@ describe('manifest routes', () => {
   });
 
   it('refuses a manifest with errors at their cells and writes nothing', async () => {
-    const file = (await binary(lead.get('/api/manifest.xlsx')).expect(200)).body as Buffer;
+    const file = (await bodyBytes(lead.get('/api/manifest.xlsx')).expect(200)).body as Buffer;
     const wb = new ExcelJS.Workbook();
     await wb.xlsx.load(file as never);
     const ws = wb.getWorksheet('Components')!;
@@ -72,7 +71,7 @@ describe('manifest routes', () => {
   });
 
   it('adds a Stations sheet for a template version', async () => {
-    const file = (await binary(lead.get('/api/templates/1/versions/1/manifest.xlsx')).expect(200)).body as Buffer;
+    const file = (await bodyBytes(lead.get('/api/templates/1/versions/1/manifest.xlsx')).expect(200)).body as Buffer;
     const wb = new ExcelJS.Workbook();
     await wb.xlsx.load(file as never);
     expect(wb.worksheets.map((w) => w.name)).toEqual(expect.arrayContaining(['Components', 'Layers', 'Stations']));

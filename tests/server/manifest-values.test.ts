@@ -1,19 +1,18 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import ExcelJS from 'exceljs';
 import { ManifestAnswerSchema } from '../../shared/schemas/manifest';
-import { makeTestApp, type Agent, type TestApp } from './test-app';
+import { makeTestApp, type Agent, type TestApp, bodyBytes } from './test-app';
 
 let t: TestApp;
 let lead: Agent;
 beforeAll(async () => { t = await makeTestApp(); lead = await t.agent('lead'); });
 afterAll(async () => { await t.close(); });
 
-const binary = (r: import('supertest').Test) => r.buffer(true).parse((res, cb) => { const c: Buffer[] = []; res.on('data', (d: Buffer) => c.push(d)); res.on('end', () => cb(null, Buffer.concat(c))); });
 const upload = (url: string, body: Buffer) => lead.http.post(url).set('X-CSRF-Token', lead.token).attach('file', body, 'manifest.xlsx');
 
 describe('manifest preview: old → new for every changed field', () => {
   it('says each changed cell as the workbook held it before and as it holds it now (edited with exceljs, a second writer)', async () => {
-    const file = (await binary(lead.get('/api/manifest.xlsx')).expect(200)).body as Buffer;
+    const file = (await bodyBytes(lead.get('/api/manifest.xlsx')).expect(200)).body as Buffer;
     const wb = new ExcelJS.Workbook();
     await wb.xlsx.load(file as never);
     const ws = wb.getWorksheet('Components')!;

@@ -6,7 +6,7 @@ import { hotReads } from '../../server/db/hot-reads';
 import { catalogRepo } from '../../server/db/catalog-repo';
 import { openDb, targetOf, type Db } from '../../server/db/knex';
 import { DEMO_PASSWORD } from '../../server/db/seed-demo';
-import { makeTestApp, type Agent, type TestApp } from './test-app';
+import { makeTestApp, type Agent, type TestApp, bodyBytes } from './test-app';
 
 let t: TestApp;
 let programmer: Agent;
@@ -18,17 +18,11 @@ beforeAll(async () => {
 });
 afterAll(async () => { await t.close(); });
 
-/** The body's bytes as sent, whatever its type. */
-const bytesOf = (r: request.Test) => r.buffer(true).parse((res, cb) => {
-  const chunks: Buffer[] = [];
-  res.on('data', (c: Buffer) => chunks.push(c));
-  res.on('end', () => cb(null, Buffer.concat(chunks)));
-});
 /** The expected tag, computed here from the bytes received: SHA-1 (FIPS 180-4) in base64url (RFC 4648, 5), quoted as an entity-tag (RFC 9110, 8.8.3). */
 const sha1Tag = (b: Buffer) => `"${createHash('sha1').update(b).digest('base64url')}"`;
 
 async function revalidates(agent: Agent, url: string): Promise<{ etag: string; body: unknown }> {
-  const first = await bytesOf(agent.get(url)).expect(200);
+  const first = await bodyBytes(agent.get(url)).expect(200);
   const etag = first.headers.etag as string;
   // RFC 9110, 8.8.1: a strong validator has no W/ prefix; RFC 9111, 5.2.2.4 and 5.2.2.7: private, no-cache.
   expect(etag).toBe(sha1Tag(first.body as Buffer));
@@ -52,7 +46,7 @@ describe('conditional GETs on catalog and version reads', () => {
     const full = (await operator.get(`/api/components/${item.id}`).expect(200)).body;
     const { id: _id, usedBy: _u, createdAt: _c, updatedAt: _up, ...fields } = full;
     await lead.put(`/api/components/${item.id}`, { ...fields, name: `${item.name} (re-measured)` }).expect(200);
-    const after = await bytesOf(operator.get(url).set('If-None-Match', before.etag)).expect(200);
+    const after = await bodyBytes(operator.get(url).set('If-None-Match', before.etag)).expect(200);
     expect(after.headers.etag).not.toBe(before.etag);
     const renamed = JSON.parse((after.body as Buffer).toString('utf8')).items.find((c: { id: number }) => c.id === item.id);
     expect(renamed.name).toBe(`${item.name} (re-measured)`);
@@ -69,10 +63,10 @@ describe('conditional GETs on catalog and version reads', () => {
     // so every station's X (measured from that origin) is one pitch less (hand arithmetic).
     expect(draft.sharedOffset).toMatchObject({ kind: 'hole', hole: { col: 1, row: 1 } });
     await programmer.put(`/api/templates/1/versions/${n}`, { placements: draft.placements, sharedOffset: { ...draft.sharedOffset, hole: { col: 2, row: 1 } }, numbering: draft.numbering, revision: draft.revision }).expect(200);
-    const v2 = await bytesOf(operator.get(`/api/templates/1/versions/${n}`).set('If-None-Match', version.etag)).expect(200);
+    const v2 = await bodyBytes(operator.get(`/api/templates/1/versions/${n}`).set('If-None-Match', version.etag)).expect(200);
     expect(v2.headers.etag).not.toBe(version.etag);
     expect(v2.headers.etag).toBe(sha1Tag(v2.body as Buffer));
-    const s2 = await bytesOf(operator.get(`/api/templates/1/versions/${n}/stations`).set('If-None-Match', stations.etag)).expect(200);
+    const s2 = await bodyBytes(operator.get(`/api/templates/1/versions/${n}/stations`).set('If-None-Match', stations.etag)).expect(200);
     expect(s2.headers.etag).not.toBe(stations.etag);
     expect(s2.headers.etag).toBe(sha1Tag(s2.body as Buffer));
     const before = (stations.body as { stations: { number: number; x: number }[] }).stations;

@@ -2,7 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { parse as parseCsv } from 'csv-parse/sync';
 import JSZip from 'jszip';
 import { parseLine } from 'gcode-parser';
-import { makeTestApp, tableCounts, withOwnApp, type Agent, type TestApp } from './test-app';
+import { makeTestApp, tableCounts, withOwnApp, type Agent, type TestApp, bodyBytes } from './test-app';
 
 let t: TestApp;
 let programmer: Agent;
@@ -15,11 +15,6 @@ beforeAll(async () => {
 afterAll(async () => { await t.close(); });
 
 const binary = (res: { body: unknown }) => res.body as Buffer;
-const asBuffer = (r: import('supertest').Test) => r.buffer(true).parse((res, cb) => {
-  const chunks: Buffer[] = [];
-  res.on('data', (c: Buffer) => chunks.push(c));
-  res.on('end', () => cb(null, Buffer.concat(chunks)));
-});
 
 /** A fresh draft on the inch demo plate (2.000 in pitch, 12 × 8 holes). */
 async function newDraft(name: string) {
@@ -176,7 +171,7 @@ describe('station files', () => {
   });
 
   it('writes XLSX whose cells hold numbers, read back with jszip as raw Office Open XML', async () => {
-    const res = await asBuffer(operator.get('/api/templates/1/versions/1/stations.xlsx')).expect(200);
+    const res = await bodyBytes(operator.get('/api/templates/1/versions/1/stations.xlsx')).expect(200);
     const zip = await JSZip.loadAsync(binary(res));
     const sheet = await zip.file('xl/worksheets/sheet1.xml')!.async('string');
     const shared = await zip.file('xl/sharedStrings.xml')!.async('string');

@@ -177,3 +177,10 @@ export async function withOwnApp<T>(fn: (t: TestApp) => Promise<T>): Promise<T> 
     await t.close();
   }
 }
+
+/** A supertest request whose body is collected as raw bytes, whatever its content type (files: XLSX, ZIP, DXF, G-code). */
+export const bodyBytes = (r: import('supertest').Test) => r.buffer(true).parse((res, cb) => {
+  const chunks: Buffer[] = [];
+  res.on('data', (c: Buffer) => chunks.push(c));
+  res.on('end', () => cb(null, Buffer.concat(chunks)));
+});
