@@ -16,6 +16,7 @@ import { usersService } from './services/users';
 import { catalogService } from './services/catalog';
 import { apiNotFound, errorHandler } from './middleware/errors';
 import { uploadLimit } from './middleware/upload-limit';
+import { leanSessionReads } from './middleware/lean-session';
 import { mount, type RouteDef } from './routes/route-table';
 import { authRoutes } from './routes/auth';
 import { userRoutes } from './routes/users';
@@ -91,6 +92,8 @@ export type GridsetApp = express.Express & {
   locals: { routes: RouteDef[]; whenIdle: () => Promise<void>; close: () => Promise<void> };
 };
 
+const SESSION_COOKIE = 'gridset.sid';
+
 /** Builds the whole app from its dependencies; never listens (server/index.ts does). */
 export function createApp(deps: AppDeps): GridsetApp {
   const { db } = deps;
@@ -127,16 +130,15 @@ export function createApp(deps: AppDeps): GridsetApp {
   // hot reads skip the JSON parser's checks.
   const json = express.json({ limit: '10mb' });
   api.use((req, res, next) => (req.method === 'GET' || req.method === 'HEAD' ? next() : json(req, res, next)));
-  api.use(
-    session({
-      name: 'gridset.sid',
-      secret: deps.sessionSecret,
-      resave: false,
-      saveUninitialized: false,
-      store: new SessionStore(db),
-      cookie: { httpOnly: true, sameSite: 'lax', secure: 'auto', maxAge: 12 * 60 * 60 * 1000 },
-    }),
-  );
+  const sessionStore = new SessionStore(db);
+  const sessions = session({
+    name: SESSION_COOKIE,
+    secret: deps.sessionSecret,
+    resave: false,
+    saveUninitialized: false,
+    store: sessionStore,
+    cookie: { httpOnly: true, sameSite: 'lax', secure: 'auto', maxAge: 12 * 60 * 60 * 1000 },
+  });
 
   // One passport instance per app: the default export is shared by every app in a process.
   const passport = new Passport();
@@ -157,7 +159,9 @@ export function createApp(deps: AppDeps): GridsetApp {
     }
     userRows.findById(id).then((u) => done(null, u && u.active ? u : false), done);
   });
-  api.use(passport.session());
+  const passportSession = passport.session();
+  const sessionThenUser: express.RequestHandler = (req, res, next) => sessions(req, res, (err?: unknown) => (err ? next(err) : passportSession(req, res, next)));
+  api.use(leanSessionReads({ store: sessionStore, cookieName: SESSION_COOKIE, secrets: [deps.sessionSecret], full: sessionThenUser }));
 
   const { generateToken, csrfSynchronisedProtection } = csrfSync({
     getTokenFromRequest: (req) => req.headers['x-csrf-token'] as string | undefined,

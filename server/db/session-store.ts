@@ -20,6 +20,9 @@ const catalogStamps = new WeakMap<object, number>();
  */
 export const sessionCatalogStamp = (req: object): number | undefined => catalogStamps.get(req);
 
+/** Keeps the catalog stamp read with a session for this request (see sessionCatalogStamp). */
+export const keepSessionCatalogStamp = (req: object, stamp: number): void => void catalogStamps.set(req, stamp);
+
 /**
  * The user row read together with this request's session (the same statement, this request), or
  * undefined when none was read for `id`; null when the session names a user that no longer exists.
@@ -67,6 +70,19 @@ export class SessionStore extends ConnectSessionKnexStore {
     }
     callback?.(null, session);
     return session;
+  }
+
+  /**
+   * For a read that may skip express-session (middleware/lean-session.ts): the user `sid` is signed
+   * in as, with the catalog stamp read in the same statement, when the session is unexpired, its
+   * user exists, and this process touched its expiry less than a minute ago (a session due a touch
+   * goes the whole way, so its expiry moves exactly as before). Undefined otherwise.
+   */
+  async signedInRead(sid: string): Promise<{ user: StoredUserRow; catalogStamp: number } | undefined> {
+    const last = this.lastTouch.get(sid);
+    if (last === undefined || Date.now() - last >= TOUCH_EVERY_MS) return undefined;
+    const found = await this.hot.sessionAndUser(sid, new Date());
+    return found?.user ? { user: found.user, catalogStamp: found.catalogStamp } : undefined;
   }
 
   override createSession(req: Request, session: SessionData): Session & SessionData {
