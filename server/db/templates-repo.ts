@@ -33,7 +33,7 @@ export function templatesRepo(db: Db) {
     nameTaken: async (name: string, trx: Db = db) => !!(await trx('templates').whereRaw('lower(name) = lower(?)', [name]).first()),
     versions: (templateId: number) => db<VersionRow>('template_versions').where({ template_id: templateId }).orderBy('number'),
     /** The content hash of a version (one prepared read, hot-reads); undefined when there is no such version. */
-    contentHash: (templateId: number, number: number): Promise<string | undefined> => hotReads(db).versionHash(templateId, number),
+    contentHash: (templateId: number, number: number): Promise<{ hash: string; state: VersionState } | undefined> => hotReads(db).versionHash(templateId, number),
     async version(templateId: number, number: number, trx: Db = db): Promise<StoredVersion | undefined> {
       const row = await trx<VersionRow>('template_versions').where({ template_id: templateId, number }).first();
       return row && { row, content: JSON.parse(row.content) as TemplateContent };

@@ -1,3 +1,4 @@
+import { LRUCache } from 'lru-cache';
 import { createHash } from 'node:crypto';
 import { ComponentInputSchema, PlateInputSchema, type Plate, type Component, type PlateFields } from '../../shared/schemas/catalog';
 import type { User } from '../../shared/schemas/auth';
@@ -38,22 +39,20 @@ const EVALUATION_CACHE_SIZE = 200;
 export function templatesService(deps: { db: Db; templates: TemplatesRepo; catalog: CatalogRepo; naming: NamingService; audit: AuditRepo }) {
   const { db, templates, catalog, naming, audit } = deps;
   const reviewSteps = reviewsRepo(db);
-  const evaluations = new Map<string, TemplateEvaluation>();
+  const evaluations = new LRUCache<string, TemplateEvaluation>({ max: EVALUATION_CACHE_SIZE });
   // A version's station table as JSON text, by content hash: unit, shared offset and stations are all
   // functions of the stored layout, so a read that finds the hash unchanged sends the same bytes.
-  const stationTables = new Map<string, JsonBody>();
+  const stationTables = new LRUCache<string, JsonBody>({ max: EVALUATION_CACHE_SIZE });
+  // Released and retired versions never change (shared/review/lifecycle.ts) and no version is ever
+  // deleted, so once a read finds one settled its hash is known for good: its station table needs no
+  // read at all. A draft's or one in review's hash is read each time (a save may have changed it).
+  const settledHashes = new LRUCache<string, string>({ max: 10_000 });
   function evaluateStored(v: StoredVersion): TemplateEvaluation {
     const key = v.row.content_hash;
     const hit = evaluations.get(key);
-    if (hit) {
-      // Map keeps insertion order: re-inserting makes this the most recently used.
-      evaluations.delete(key);
-      evaluations.set(key, hit);
-      return hit;
-    }
+    if (hit) return hit;
     const evaluation = evaluateTemplate(v.content);
     evaluations.set(key, evaluation);
-    if (evaluations.size > EVALUATION_CACHE_SIZE) evaluations.delete(evaluations.keys().next().value!);
     return evaluation;
   }
 
@@ -214,14 +213,16 @@ export function templatesService(deps: { db: Db; templates: TemplatesRepo; catal
      * content hash, and the table built once per hash (re-read in full only when the hash is new).
      */
     async stationTable(templateId: number, number: number): Promise<JsonBody> {
-      const hash = await templates.contentHash(templateId, number);
-      if (hash === undefined) throw notFound(`Version ${number} of template ${templateId}`);
-      const hit = stationTables.get(hash);
-      if (hit !== undefined) {
-        stationTables.delete(hash);
-        stationTables.set(hash, hit);
-        return hit;
+      const key = `${templateId}/${number}`;
+      let hash = settledHashes.get(key);
+      if (hash === undefined) {
+        const stored = await templates.contentHash(templateId, number);
+        if (stored === undefined) throw notFound(`Version ${number} of template ${templateId}`);
+        hash = stored.hash;
+        if (stored.state === 'released' || stored.state === 'retired') settledHashes.set(key, hash);
       }
+      const hit = stationTables.get(hash);
+      if (hit !== undefined) return hit;
       const v = present(templateId, await requireVersion(templateId, number));
       const body = jsonBody(JSON.stringify({
         unit: v.unit, sharedOffset: v.sharedOffset,
@@ -229,7 +230,6 @@ export function templatesService(deps: { db: Db; templates: TemplatesRepo; catal
       }));
       // Keyed by the hash of what was read (a save in between only means the next read misses).
       stationTables.set(v.contentHash, body);
-      if (stationTables.size > EVALUATION_CACHE_SIZE) stationTables.delete(stationTables.keys().next().value!);
       return body;
     },
     async saveDraft(user: User, templateId: number, number: number, body: SaveVersionInput): Promise<TemplateVersion> {

@@ -201,8 +201,8 @@ describe('hot reads (prepared statements) answer what the query builder answers'
 
   it('a version hash and the catalog stamp as stored', async () => {
     const hot = hotReads(t.db);
-    const v = (await t.db('template_versions').where({ template_id: 1, number: 1 }).first()) as { content_hash: string };
-    expect(await hot.versionHash(1, 1)).toBe(v.content_hash);
+    const v = (await t.db('template_versions').where({ template_id: 1, number: 1 }).first()) as { content_hash: string; state: string };
+    expect(await hot.versionHash(1, 1)).toEqual({ hash: v.content_hash, state: v.state });
     expect(await hot.versionHash(1, 999)).toBeUndefined();
     const stamp = await hot.stamp('catalog');
     const row = (await t.db('read_stamps').where({ name: 'catalog' }).first()) as { version: number | string } | undefined;

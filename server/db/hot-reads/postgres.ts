@@ -1,6 +1,7 @@
 import type { Knex } from 'knex';
 import type { ClientBase, QueryConfig, QueryResultRow } from 'pg';
 import { toNumber } from '../dialect';
+import type { VersionState } from '../../../shared/schemas/template-api';
 import type { ComponentPageQuery, HotReads, StoredComponentRow, StoredUserRow } from './types';
 
 const USER_COLUMNS = 'u.id, u.email, u.name, u.role, u.password_hash, u.active, u.display_unit, u.created_at';
@@ -25,7 +26,7 @@ export const POSTGRES_SQL = {
       order by c.code collate "C" limit $3::bigint offset $4::bigint
     ) p on true
     order by p.code collate "C"`,
-  versionHash: 'select content_hash from template_versions where template_id = $1 and number = $2',
+  versionHash: 'select content_hash, state from template_versions where template_id = $1 and number = $2',
   stamp: 'select version from read_stamps where name = $1',
 } as const;
 
@@ -60,7 +61,8 @@ export function postgresHotReads(db: Knex): HotReads {
       return toNumber((await rows<{ version: string }>(statement('stamp', [name])))[0]?.version);
     },
     async versionHash(templateId, number) {
-      return (await rows<{ content_hash: string }>(statement('versionHash', [templateId, number])))[0]?.content_hash;
+      const row = (await rows<{ content_hash: string; state: VersionState }>(statement('versionHash', [templateId, number])))[0];
+      return row && { hash: row.content_hash, state: row.state };
     },
   };
 }

@@ -1,6 +1,7 @@
 import BetterSqlite3 from 'better-sqlite3';
 import type { Knex } from 'knex';
 import { toNumber } from '../dialect';
+import type { VersionState } from '../../../shared/schemas/template-api';
 import type { ComponentPageQuery, HotReads, StoredComponentRow, StoredUserRow } from './types';
 
 const USER_COLUMNS = 'u.id, u.email, u.name, u.role, u.password_hash, u.active, u.display_unit, u.created_at';
@@ -19,7 +20,7 @@ export const SQLITE_SQL = {
     left join (select component_id, count(distinct version_id) as n from template_version_components group by component_id) u on u.component_id = c.id
     where (@kind is null or c.kind = @kind) and (@pattern is null or c.code like @pattern escape '\\' or c.name like @pattern escape '\\' or c.layer like @pattern escape '\\')
     order by c.code limit @limit offset @offset`,
-  versionHash: 'select content_hash from template_versions where template_id = ? and number = ?',
+  versionHash: 'select content_hash, state from template_versions where template_id = ? and number = ?',
   stamp: 'select version from read_stamps where name = ?',
 } as const;
 
@@ -109,6 +110,9 @@ export function sqliteHotReads(db: Knex): HotReads {
       return { rows, total: toNumber(total) };
     }),
     stamp: (name) => withStatements((s) => toNumber((s.stamp.get(name) as { version: number } | undefined)?.version)),
-    versionHash: (templateId, number) => withStatements((s) => (s.versionHash.get(templateId, number) as { content_hash: string } | undefined)?.content_hash),
+    versionHash: (templateId, number) => withStatements((s) => {
+      const row = s.versionHash.get(templateId, number) as { content_hash: string; state: VersionState } | undefined;
+      return row && { hash: row.content_hash, state: row.state };
+    }),
   };
 }

@@ -1,3 +1,4 @@
+import type { VersionState } from '../../../shared/schemas/template-api';
 /** A users row as stored (SQLite gives active as 1/0, PostgreSQL as a boolean). */
 export interface StoredUserRow {
   id: number;
@@ -35,6 +36,6 @@ export interface HotReads {
   componentPage(q: ComponentPageQuery): Promise<{ rows: StoredComponentRow[]; total: number }>;
   /** A read stamp's counter (read-stamps.ts); 0 before the first write. */
   stamp(name: string): Promise<number>;
-  /** The content hash of a template version, or undefined when there is no such version. */
-  versionHash(templateId: number, number: number): Promise<string | undefined>;
+  /** The content hash and state of a template version, or undefined when there is no such version. */
+  versionHash(templateId: number, number: number): Promise<{ hash: string; state: VersionState } | undefined>;
 }
