@@ -76,7 +76,7 @@ export async function run() {
       const statuses = [...new Set(done.map((d) => d.status))].join(', ') || 'none';
       console.log(`${label}: ${done.length} imports of ${(text.length / 1024 / 1024).toFixed(1)} MB finished during the run (${ok} answered 200; statuses ${statuses}), median ${done.length ? median(done.map((d) => d.seconds)).toFixed(1) : '-'} s each`);
     }
-    const line = (r: LoadResult) => `p50 ${r.p50} ms, p99 ${r.p99} ms, slowest ${r.max} ms${r.unanswered ? `, ${r.unanswered} requests unanswered` : ''}`;
+    const line = (r: LoadResult) => `p50 ${r.p50} ms, p99 ${r.p99} ms, p99.9 ${r.p999} ms, slowest ${r.max} ms${r.unanswered ? `, ${r.unanswered} requests unanswered` : ''}`;
     console.log(`GET /api/components?limit=50 with no import: ${line(pooled.quiet)}`);
     console.log(`GET /api/components?limit=50 during the imports, worker pool: ${line(pooled.busy)} (target p99 < 100 ms)`);
     console.log(`GET /api/components?limit=50 during the imports, read in the request: ${line(inline.busy)}`);

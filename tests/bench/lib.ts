@@ -9,7 +9,7 @@ import { createApp, type AppDeps } from '../../server/app';
 import { openDb, migrate, type Db } from '../../server/db/knex';
 import { seedDemoDataIfEmpty, DEMO_PASSWORD } from '../../server/db/seed-demo';
 
-export interface LoadResult { label: string; rps: number; p50: number; p99: number; max: number; bytesPerReq: number; unanswered: number }
+export interface LoadResult { label: string; rps: number; p50: number; p99: number; p999: number; max: number; bytesPerReq: number; unanswered: number }
 
 /**
  * autocannon at a fixed number of connections; latencies in ms. Any error or non-2xx answer throws,
@@ -18,7 +18,7 @@ export interface LoadResult { label: string; rps: number; p50: number; p99: numb
 export async function load(label: string, url: string, headers: Record<string, string> = {}, seconds = 5, connections = 10, unansweredAllowed = false): Promise<LoadResult> {
   const r = await autocannon({ url, connections, duration: seconds, headers });
   if (r.non2xx > 0 || (r.errors > 0 && !unansweredAllowed)) throw new Error(`${label}: ${r.non2xx} non-2xx answers and ${r.errors} errors`);
-  return { label, rps: r.requests.average, p50: r.latency.p50, p99: r.latency.p99, max: r.latency.max, bytesPerReq: r.throughput.average / Math.max(1, r.requests.average), unanswered: r.errors };
+  return { label, rps: r.requests.average, p50: r.latency.p50, p99: r.latency.p99, p999: r.latency.p99_9, max: r.latency.max, bytesPerReq: r.throughput.average / Math.max(1, r.requests.average), unanswered: r.errors };
 }
 
 export function listen(app: Express): Promise<{ server: Server; base: string }> {
