@@ -76,3 +76,22 @@ export async function apiStatus(page: Page, baseUrl: string, method: 'post' | 'p
   const res = await page.request.fetch(`${baseUrl}${url}`, { method: method.toUpperCase(), data, headers: { 'X-CSRF-Token': token } });
   return res.status();
 }
+
+/**
+ * Every element that reaches past the right edge of the screen (or the page scrolling sideways),
+ * named by tag, id and first classes: empty when a page fits a phone. Elements inside a scroller
+ * count too, since their content is cut off there.
+ */
+export async function elementsWiderThanScreen(page: Page): Promise<string[]> {
+  return page.evaluate(() => {
+    const w = document.documentElement.clientWidth;
+    const out: string[] = [];
+    if (document.documentElement.scrollWidth > w) out.push(`page scrolls sideways: ${document.documentElement.scrollWidth} > ${w}`);
+    for (const el of Array.from(document.body.querySelectorAll('*'))) {
+      const r = el.getBoundingClientRect();
+      if (r.width === 0 && r.height === 0) continue;
+      if (r.width > w + 0.5 || r.right > w + 0.5) out.push(`${el.tagName.toLowerCase()}${el.id ? `#${el.id}` : ''}.${(el.getAttribute('class') ?? '').split(' ').slice(0, 3).join('.')} ${Math.round(r.left)}…${Math.round(r.right)}`);
+    }
+    return out;
+  });
+}

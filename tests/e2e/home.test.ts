@@ -1,7 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
 import ExcelJS from 'exceljs';
-import { startE2E, type E2E } from './browser';
+import { elementsWiderThanScreen, startE2E, type E2E } from './browser';
 
 let e2e: E2E;
 beforeAll(async () => { e2e = await startE2E(); });
@@ -16,19 +16,6 @@ async function call(page: Page, method: 'GET' | 'POST' | 'PUT', url: string, dat
 }
 
 /** Elements whose box is wider than the viewport or reaches past its right edge (the page would scroll sideways). */
-async function tooWide(page: Page): Promise<string[]> {
-  return page.evaluate(() => {
-    const w = document.documentElement.clientWidth;
-    const out: string[] = [];
-    if (document.documentElement.scrollWidth > w) out.push(`page scrolls sideways: ${document.documentElement.scrollWidth} > ${w}`);
-    for (const el of Array.from(document.body.querySelectorAll('*'))) {
-      const r = el.getBoundingClientRect();
-      if (r.width === 0 && r.height === 0) continue;
-      if (r.width > w + 0.5 || r.right > w + 0.5) out.push(`${el.tagName.toLowerCase()}${el.id ? `#${el.id}` : ''}.${(el.getAttribute('class') ?? '').split(' ').slice(0, 3).join('.')} ${Math.round(r.left)}…${Math.round(r.right)}`);
-    }
-    return out;
-  });
-}
 
 // Rail set B of the demo template moved one grid hole in +X: every one of its stations' X grows by the
 // plate pitch (grid hole (i, j) sits at (i·pitch, j·pitch), PRODUCT.md) and nothing else changes.
@@ -98,7 +85,7 @@ describe('home, comparison and sign-off in a real browser', () => {
       await e2e.signIn(page, role);
       await page.goto(`${e2e.baseUrl}${url}`, { waitUntil: 'networkidle' });
       await page.getByRole('heading', { level: 1 }).waitFor();
-      expect(await tooWide(page), `${role} ${url}`).toEqual([]);
+      expect(await elementsWiderThanScreen(page), `${role} ${url}`).toEqual([]);
     }
     await page.close();
   });

@@ -41,6 +41,9 @@ interface DataTableProps<Row extends RowData> {
   getRowId?: (row: Row) => string;
 }
 
+/** A column's header as the label of its value in a phone-width card: the header text, or the column's id when the header is drawn. */
+const labelOf = (header: unknown, id: string): string => (typeof header === 'string' ? header : id);
+
 export function DataTable<Row extends RowData>({ columns, data, filter = '', caption, empty = 'Nothing here yet.', getRowId }: DataTableProps<Row>) {
   const [sorting, setSorting] = useState<SortingState>([]);
   const table = useTable({
@@ -55,18 +58,20 @@ export function DataTable<Row extends RowData>({ columns, data, filter = '', cap
   const rows = table.getRowModel().rows;
   return (
     // relative: the visually hidden caption (absolutely placed) stays inside the scroller instead of widening the page.
+    // Below the md breakpoint each row is a card of label–value lines, so nothing is cut off or scrolled
+    // sideways on a phone; the header row stays as a wrap of sort buttons.
     <div className="relative overflow-x-auto rounded border border-slate-300 bg-white">
-      <table className="w-full border-collapse text-[15px]">
+      <table className="w-full border-collapse text-[15px] max-md:block">
         <caption className="sr-only">{caption}</caption>
-        <thead className="bg-slate-100">
+        <thead className="bg-slate-100 max-md:block">
           {table.getHeaderGroups().map((group) => (
-            <tr key={group.id}>
+            <tr key={group.id} className="max-md:flex max-md:flex-wrap max-md:gap-x-1">
               {group.headers.map((header) => {
                 const sorted = header.column.getIsSorted();
                 const numeric = header.column.columnDef.meta?.numeric;
                 return (
                   <th key={header.id} scope="col" aria-sort={sorted === 'asc' ? 'ascending' : sorted === 'desc' ? 'descending' : undefined}
-                    className={`border-b border-slate-300 px-3 py-2 font-semibold text-slate-700 ${numeric ? 'text-right' : 'text-left'}`}>
+                    className={`border-b border-slate-300 px-3 py-2 font-semibold text-slate-700 max-md:border-0 max-md:py-1 ${numeric ? 'text-right' : 'text-left'}`}>
                     {header.isPlaceholder ? null : header.column.getCanSort() ? (
                       <button type="button" onClick={header.column.getToggleSortingHandler()} className="inline-flex min-h-8 items-center gap-1 hover:text-accent-700">
                         <table.FlexRender header={header} />
@@ -81,15 +86,16 @@ export function DataTable<Row extends RowData>({ columns, data, filter = '', cap
             </tr>
           ))}
         </thead>
-        <tbody>
+        <tbody className="max-md:block">
           {rows.length === 0 ? (
-            <tr><td colSpan={columns.length} className="px-3 py-6 text-center text-slate-600">{empty}</td></tr>
+            <tr className="max-md:block"><td colSpan={columns.length} className="px-3 py-6 text-center text-slate-600 max-md:block">{empty}</td></tr>
           ) : (
             rows.map((row) => (
-              <tr key={row.id} className="border-b border-slate-200 last:border-0 hover:bg-slate-50">
+              <tr key={row.id} className="border-b border-slate-200 last:border-0 hover:bg-slate-50 max-md:block max-md:py-2">
                 {row.getAllCells().map((cell) => (
-                  <td key={cell.id} className={`px-3 py-2 ${cell.column.columnDef.meta?.numeric ? 'num' : ''}`}>
-                    <table.FlexRender cell={cell} />
+                  <td key={cell.id} className={`px-3 py-2 max-md:flex max-md:items-center max-md:justify-between max-md:gap-3 max-md:py-1 ${cell.column.columnDef.meta?.numeric ? 'num' : ''}`}>
+                    <span aria-hidden className="shrink-0 font-sans text-sm font-semibold text-slate-600 md:hidden">{labelOf(cell.column.columnDef.header, cell.column.id)}</span>
+                    <span className="min-w-0 break-words max-md:text-right"><table.FlexRender cell={cell} /></span>
                   </td>
                 ))}
               </tr>
