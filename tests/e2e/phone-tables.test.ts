@@ -9,7 +9,7 @@ let e2e: E2E;
 beforeAll(async () => { e2e = await startE2E(); }, 60_000);
 afterAll(async () => { await e2e.close(); });
 
-describe('tables on a phone', () => {
+describe('lists and header on a phone', () => {
   it('users, components, plates, templates and the audit log fit a 390 px screen, each row readable with its labels', async () => {
     const page = await e2e.newPage();
     await page.setViewportSize({ width: 390, height: 844 });
@@ -36,6 +36,31 @@ describe('tables on a phone', () => {
     expect(box.x + box.width).toBeLessThanOrEqual(390);
     // WCAG 2.2, 2.5.8 Target Size (Minimum): at least 24 × 24 CSS px; Gridset keeps 44 px (DESIGN.md).
     expect(box.height).toBeGreaterThanOrEqual(24);
+    await page.close();
+  });
+
+  it('the header is one row on a phone; the menu opens the sections and closes when one is followed', async () => {
+    const page = await e2e.newPage();
+    await page.setViewportSize({ width: 390, height: 844 });
+    await e2e.signIn(page, 'operator');
+    await page.goto(`${e2e.baseUrl}/`, { waitUntil: 'networkidle' });
+    const menu = page.getByRole('button', { name: 'Menu' });
+    const nav = page.getByRole('navigation', { name: 'Main' });
+    expect(await nav.isVisible()).toBe(false);
+    // The page's own heading starts in the top fifth of the screen (the header is one row of 44 px
+    // targets; with the whole menu open on every page it started at about 350 px).
+    const h1 = (await page.getByRole('heading', { level: 1 }).boundingBox())!;
+    expect(h1.y).toBeLessThan(844 / 5);
+    await menu.click();
+    expect(await menu.getAttribute('aria-expanded')).toBe('true');
+    await nav.getByRole('link', { name: 'Jobs' }).click();
+    await page.waitForURL(`${e2e.baseUrl}/jobs`);
+    expect(await nav.isVisible()).toBe(false);
+    expect(await menu.getAttribute('aria-expanded')).toBe('false');
+    // Sign out is in the menu too.
+    await menu.click();
+    await page.getByRole('button', { name: 'Sign out' }).click();
+    await page.waitForURL(/\/sign-in/);
     await page.close();
   });
 
