@@ -59,7 +59,8 @@ export function DataTable<Row extends RowData>({ columns, data, filter = '', cap
   return (
     // relative: the visually hidden caption (absolutely placed) stays inside the scroller instead of widening the page.
     // Below the md breakpoint each row is a card of label–value lines, so nothing is cut off or scrolled
-    // sideways on a phone; the header row stays as a wrap of sort buttons.
+    // sideways on a phone: numbers two to a line, text a line each; the header row stays as a wrap of
+    // sort buttons.
     <div className="relative overflow-x-auto rounded border border-slate-300 bg-white">
       <table className="w-full border-collapse text-[15px] max-md:block">
         <caption className="sr-only">{caption}</caption>
@@ -91,9 +92,9 @@ export function DataTable<Row extends RowData>({ columns, data, filter = '', cap
             <tr className="max-md:block"><td colSpan={columns.length} className="px-3 py-6 text-center text-slate-600 max-md:block">{empty}</td></tr>
           ) : (
             rows.map((row) => (
-              <tr key={row.id} className="border-b border-slate-200 last:border-0 hover:bg-slate-50 max-md:block max-md:py-2">
+              <tr key={row.id} className="border-b border-slate-200 last:border-0 hover:bg-slate-50 max-md:grid max-md:grid-cols-2 max-md:gap-x-4 max-md:px-3 max-md:py-2">
                 {row.getAllCells().map((cell) => (
-                  <td key={cell.id} className={`px-3 py-2 max-md:flex max-md:items-center max-md:justify-between max-md:gap-3 max-md:py-1 ${cell.column.columnDef.meta?.numeric ? 'num' : ''}`}>
+                  <td key={cell.id} className={`px-3 py-2 max-md:flex max-md:items-center max-md:justify-between max-md:gap-3 max-md:px-0 max-md:py-1 ${cell.column.columnDef.meta?.numeric ? 'num' : 'max-md:col-span-2'}`}>
                     <span aria-hidden className="shrink-0 font-sans text-sm font-semibold text-slate-600 md:hidden">{labelOf(cell.column.columnDef.header, cell.column.id)}</span>
                     <span className="min-w-0 break-words max-md:text-right"><table.FlexRender cell={cell} /></span>
                   </td>
