@@ -115,7 +115,7 @@ export function BarTable({ rows, onRowsChange, unit, problems, onCellEdit }: {
           <tbody className="block sm:table-row-group">
             {shown.map((row, index) => (
               <tr key={row.key} data-testid="bar-row" className="grid grid-cols-2 gap-x-2 gap-y-1 border-t border-slate-200 p-2 first:border-t-0 sm:table-row sm:p-0 sm:first:border-t">
-                <td className="num order-1 self-center px-2 text-slate-600 max-sm:text-left">
+                <td className="num order-1 self-center px-2 text-slate-600 max-sm:text-left max-sm:font-semibold">
                   <span className="sm:hidden">Row </span>{index + 1}
                 </td>
                 {BAR_FIELDS.map((f, c) => {
