@@ -161,3 +161,40 @@ describe.each(VIEWPORTS)('bar entry for a job at $width × $height ($name)', ({ 
     await page.close();
   });
 });
+
+describe('two screens on one job', () => {
+  it('the second screen is told its save came too late (409), keeps nothing unseen, and loads what the first saved', async () => {
+    const id = await newJob('Two screens');
+    const desk = await e2e.newPage();
+    await e2e.signIn(desk, 'operator');
+    const phone = await e2e.newPage();
+    await phone.setViewportSize({ width: 390, height: 844 });
+    // Both open the job before either types: neither has seen a draft.
+    await openJob(desk, id);
+    await openJob(phone, id);
+
+    await desk.getByLabel('Row 1 width', { exact: true }).fill('1.0040');
+    await desk.locator('[data-testid="draft-status"][data-state="saved"]').waitFor();
+
+    const refused = phone.waitForResponse((res) => res.url().endsWith(`/api/jobs/${id}/bars-draft`) && res.request().method() === 'PUT');
+    await phone.getByLabel('Row 1 width', { exact: true }).fill('0.9960');
+    expect((await refused).status()).toBe(409);
+    await phone.locator('[data-testid="draft-status"][data-state="failed"]').waitFor();
+    expect(await phone.getByTestId('draft-status').textContent()).toMatch(/^Not saved — Another screen saved these bars after this one loaded them/);
+    // The server still holds the desk's bars.
+    const held = await (await desk.request.get(`${e2e.baseUrl}/api/jobs/${id}`)).json();
+    expect(held.barsDraft.rows[0].width).toBe('1.0040');
+
+    await phone.getByRole('button', { name: 'Load the bars the server holds' }).click();
+    await phone.locator('[data-testid="draft-status"][data-state="saved"]').waitFor();
+    expect(await phone.getByLabel('Row 1 width', { exact: true }).inputValue()).toBe('1.0040');
+    // From the revision it loaded, the phone's next change is kept.
+    const kept = phone.waitForResponse((res) => res.url().endsWith(`/api/jobs/${id}/bars-draft`) && res.request().method() === 'PUT');
+    await phone.getByLabel('Row 1 thickness', { exact: true }).fill('0.5010');
+    expect((await kept).status()).toBe(200);
+    const after = await (await desk.request.get(`${e2e.baseUrl}/api/jobs/${id}`)).json();
+    expect(after.barsDraft.rows[0]).toMatchObject({ width: '1.0040', thickness: '0.5010' });
+    await desk.close();
+    await phone.close();
+  });
+});
