@@ -198,3 +198,28 @@ describe('two screens on one job', () => {
     await phone.close();
   });
 });
+
+describe('a save that does not reach the server', () => {
+  it('says "Not saved" with the reason, keeps the bars on screen and sends them again', async () => {
+    const id = await newJob('Lost connection');
+    const page = await e2e.newPage();
+    await e2e.signIn(page, 'operator');
+    await openJob(page, id);
+    // The connection drops for the first save (playwright-core's request routing aborts it as a failed network request).
+    let dropped = 0;
+    await page.route(`**/api/jobs/${id}/bars-draft`, async (route) => {
+      if (dropped++ === 0) await route.abort('internetdisconnected');
+      else await route.continue();
+    });
+    await page.getByLabel('Row 1 width', { exact: true }).fill('1.0020');
+    await page.locator('[data-testid="draft-status"][data-state="failed"]').waitFor();
+    expect(await page.getByTestId('draft-status').textContent()).toBe('Not saved — the server cannot be reached; the bars stay on this screen and are sent again in a few seconds');
+    expect(await page.getByLabel('Row 1 width', { exact: true }).inputValue()).toBe('1.0020');
+    // Sent again by itself, unchanged.
+    await page.locator('[data-testid="draft-status"][data-state="saved"]').waitFor({ timeout: 30_000 });
+    const job = await (await page.request.get(`${e2e.baseUrl}/api/jobs/${id}`)).json();
+    expect(job.barsDraft.rows[0].width).toBe('1.0020');
+    expect(dropped).toBe(2);
+    await page.close();
+  });
+});

@@ -9,6 +9,8 @@ import { firstBarRows, makeBarRow, type BarRow } from '../bar-rows';
 
 /** Quiet time after the last keystroke before the table is saved: long enough not to send every digit. */
 export const DRAFT_DEBOUNCE_MS = 1200;
+/** After a save the server did not answer (no connection, or a fault of its own), the next try. */
+const RETRY_MS = 10_000;
 
 export const draftRowsOf = (rows: readonly BarRow[]): BarDraftRow[] => rows.map((r) => ({ ...r.cells, autoId: r.autoId }));
 
@@ -21,9 +23,9 @@ export type DraftState =
   | { kind: 'none' }
   | { kind: 'saving' }
   | { kind: 'saved'; at: string; by: string | null }
-  | { kind: 'failed'; reason: string; stale: boolean };
+  | { kind: 'failed'; reason: string; stale: boolean; retry: boolean };
 
-const NETWORK = 'the server cannot be reached; the bars stay on this screen and are saved with the next change';
+const NETWORK = 'the server cannot be reached; the bars stay on this screen and are sent again in a few seconds';
 
 /**
  * Keeps a job's bar table on the server while it is typed: a save DRAFT_DEBOUNCE_MS after the last
@@ -36,7 +38,7 @@ export function useBarsDraft(jobId: number, initial: BarsDraft | null, rows: rea
   const text = JSON.stringify(draftRowsOf(rows));
   const [savedText, setSavedText] = useState(text);
   const [saved, setSaved] = useState<{ at: string; by: string | null } | null>(initial ? { at: initial.updatedAt, by: initial.by } : null);
-  const [failure, setFailure] = useState<{ reason: string; stale: boolean } | null>(null);
+  const [failure, setFailure] = useState<{ reason: string; stale: boolean; retry: boolean } | null>(null);
   const revision = useRef(initial?.revision ?? 0);
   const lastSent = useRef(text);
   const latest = useRef(text);
@@ -55,12 +57,14 @@ export function useBarsDraft(jobId: number, initial: BarsDraft | null, rows: rea
         setSaved({ at: draft.updatedAt, by: draft.by });
         setFailure(null);
       } catch (err) {
-        // Sent again with the next change, unless the server holds something newer.
-        lastSent.current = '';
         const stale = err instanceof ApiError && err.status === 409;
         if (stale) stopped.current = true;
-        const reason = err instanceof ApiError && err.status !== 0 ? err.message.replace(/\.$/, '') : NETWORK;
-        setFailure({ reason, stale });
+        const answered = err instanceof ApiError && err.status !== 0;
+        const retry = !answered || err.status >= 500;
+        // Unanswered: the same table is sent again (RETRY_MS). Refused: only a changed table is sent.
+        if (retry) lastSent.current = '';
+        const reason = answered ? err.message.replace(/\.$/, '') : NETWORK;
+        setFailure({ reason, stale, retry });
       }
     });
     return chain.current;
@@ -75,7 +79,7 @@ export function useBarsDraft(jobId: number, initial: BarsDraft | null, rows: rea
 
   useEffect(() => {
     if (!dirty || blocked) return;
-    const timer = setTimeout(() => void enqueue(text), DRAFT_DEBOUNCE_MS);
+    const timer = setTimeout(() => void enqueue(text), failure?.retry ? RETRY_MS : DRAFT_DEBOUNCE_MS);
     // A phone locked or a tab switched away: save now, it may never come back.
     const hidden = () => { if (document.visibilityState === 'hidden') void enqueue(text, true); };
     const leaving = () => void enqueue(text, true);
@@ -86,7 +90,7 @@ export function useBarsDraft(jobId: number, initial: BarsDraft | null, rows: rea
       document.removeEventListener('visibilitychange', hidden);
       window.removeEventListener('pagehide', leaving);
     };
-  }, [text, dirty, blocked, enqueue]);
+  }, [text, dirty, blocked, failure, enqueue]);
 
   // Leaving the screen inside the app with changes not yet sent: send them.
   useEffect(() => () => { if (latest.current !== lastSent.current) void enqueue(latest.current); }, [enqueue]);
@@ -101,7 +105,10 @@ export function useBarsDraft(jobId: number, initial: BarsDraft | null, rows: rea
       await chain.current;
     },
     /** The check was refused: saves go on as before. */
-    resume: () => { stopped.current = false; },
+    resume: () => {
+      stopped.current = false;
+      void enqueue(latest.current);
+    },
     /** Start again from what the server holds (after a 409): its rows, its revision. */
     adopt: (draft: BarsDraft | null, rowsNow: readonly BarRow[]) => {
       const body = JSON.stringify(draftRowsOf(rowsNow));
