@@ -223,3 +223,31 @@ describe('a save that does not reach the server', () => {
     await page.close();
   });
 });
+
+describe('the stock check without a job, on a phone', () => {
+  it('after a check nothing is wider than 390 px: the bar-by-bar table stacks and the chart fits its box', async () => {
+    const page = await e2e.newPage();
+    await page.setViewportSize({ width: 390, height: 844 });
+    await e2e.signIn(page, 'operator');
+    await page.goto(`${e2e.baseUrl}/stock-check`);
+    const option = page.getByLabel('Jaw rail').locator('option', { hasText: 'JR-1.000 —' });
+    await page.getByLabel('Jaw rail').selectOption((await option.getAttribute('value'))!);
+    await page.getByLabel('Carrier thickness').fill('0.25');
+    await page.getByLabel('Tool clearance').fill('0.03');
+    await page.getByLabel('Minimum bite').fill('0.06');
+    await page.getByLabel('Nominal stock width').fill('1');
+    // A long id and a far over-size bar are what widen a table or a chart.
+    await pasteInto(page, 'Row 1 id', 'B1\t1.000\t0.5\t0.02\nB2\t1.045\t0.5\t0.02\nB3\t1.2\t0.5\t0.02\nLONG-BAR-ID-1234567890\t0.95\t0.5\t0.02\n');
+    await page.getByRole('button', { name: 'Check the bars' }).click();
+    await page.getByRole('list', { name: 'Sorting list' }).waitFor();
+    const o = await overflow(page);
+    expect(o.wide).toEqual([]);
+    expect(o.scrollWidth).toBeLessThanOrEqual(o.innerWidth);
+    const results = page.getByRole('table', { name: 'Stock check, bar by bar' });
+    expect(await results.evaluate((el) => getComputedStyle(el).display)).toBe('block');
+    // Every bar is still there, each line labelled by its column.
+    expect(await results.locator('tbody tr').count()).toBe(4);
+    expect(await results.locator('tbody tr').first().textContent()).toContain('Verdict at shift 0');
+    await page.close();
+  });
+});

@@ -39,9 +39,11 @@ interface DataTableProps<Row extends RowData> {
   caption: string;
   empty?: string;
   getRowId?: (row: Row) => string;
+  /** Below 640 px wide each row becomes a card of label–value lines instead of a table that scrolls sideways. */
+  stackOnPhone?: boolean;
 }
 
-export function DataTable<Row extends RowData>({ columns, data, filter = '', caption, empty = 'Nothing here yet.', getRowId }: DataTableProps<Row>) {
+export function DataTable<Row extends RowData>({ columns, data, filter = '', caption, empty = 'Nothing here yet.', getRowId, stackOnPhone = false }: DataTableProps<Row>) {
   const [sorting, setSorting] = useState<SortingState>([]);
   const table = useTable({
     features: gridsetTableFeatures,
@@ -53,12 +55,16 @@ export function DataTable<Row extends RowData>({ columns, data, filter = '', cap
     globalFilterFn: 'includesString',
   });
   const rows = table.getRowModel().rows;
+  // Stacked: the same table element, laid out as blocks on a phone (the header row hidden, each cell labelled).
+  const st = stackOnPhone
+    ? { table: 'block sm:table', thead: 'hidden sm:table-header-group', tbody: 'block sm:table-row-group', tr: 'block p-2 sm:table-row sm:p-0', td: 'grid grid-cols-[8rem_minmax(0,1fr)] gap-x-3 py-1 sm:table-cell sm:px-3 sm:py-2', label: 'font-sans font-semibold text-left text-slate-700 sm:hidden' }
+    : { table: '', thead: '', tbody: '', tr: '', td: 'px-3 py-2', label: '' };
   return (
     // relative: the visually hidden caption (absolutely placed) stays inside the scroller instead of widening the page.
     <div className="relative overflow-x-auto rounded border border-slate-300 bg-white">
-      <table className="w-full border-collapse text-[15px]">
+      <table className={`w-full border-collapse text-[15px] ${st.table}`}>
         <caption className="sr-only">{caption}</caption>
-        <thead className="bg-slate-100">
+        <thead className={`bg-slate-100 ${st.thead}`}>
           {table.getHeaderGroups().map((group) => (
             <tr key={group.id}>
               {group.headers.map((header) => {
@@ -81,17 +87,25 @@ export function DataTable<Row extends RowData>({ columns, data, filter = '', cap
             </tr>
           ))}
         </thead>
-        <tbody>
+        <tbody className={st.tbody}>
           {rows.length === 0 ? (
             <tr><td colSpan={columns.length} className="px-3 py-6 text-center text-slate-600">{empty}</td></tr>
           ) : (
             rows.map((row) => (
-              <tr key={row.id} className="border-b border-slate-200 last:border-0 hover:bg-slate-50">
-                {row.getAllCells().map((cell) => (
-                  <td key={cell.id} className={`px-3 py-2 ${cell.column.columnDef.meta?.numeric ? 'num' : ''}`}>
-                    <table.FlexRender cell={cell} />
-                  </td>
-                ))}
+              <tr key={row.id} className={`border-b border-slate-200 last:border-0 hover:bg-slate-50 ${st.tr}`}>
+                {row.getAllCells().map((cell) => {
+                  const header = cell.column.columnDef.header;
+                  return (
+                    <td key={cell.id} className={`${st.td} ${cell.column.columnDef.meta?.numeric ? 'num' : ''}`}>
+                      {stackOnPhone ? (
+                        <>
+                          {typeof header === 'string' ? <span aria-hidden className={st.label}>{header}</span> : null}
+                          <span className="min-w-0"><table.FlexRender cell={cell} /></span>
+                        </>
+                      ) : <table.FlexRender cell={cell} />}
+                    </td>
+                  );
+                })}
               </tr>
             ))
           )}
