@@ -39,6 +39,7 @@ import { manifestService } from './services/manifest';
 import { jobsRepo } from './db/jobs-repo';
 import { jobsService } from './services/jobs';
 import { loadListService } from './services/load-list';
+import { barsDraftService } from './services/bars-draft';
 import { auditRepo } from './db/audit-repo';
 import { reviewsService } from './services/reviews';
 import { namingRepo } from './db/naming-repo';
@@ -191,7 +192,7 @@ export function createApp(deps: AppDeps): GridsetApp {
     ...reviewRoutes(reviews),
     ...homeRoutes(homeService({ templates, templatesRows: templatesRepo(db), jobs: jobsRepo(db), reviews: reviewsRepo(db), audit })),
     ...auditRoutes(audit),
-    ...jobRoutes(jobs, loadListService({ db, jobs, audit }), programs),
+    ...jobRoutes(jobs, loadListService({ db, jobs, audit }), programs, barsDraftService({ db, jobs, audit })),
     ...manifestRoutes({ manifest: manifestService({ db, catalog: catalogRepo(db), naming, audit, workers }), templates, dataDir: deps.dataDir, uploadLimitBytes: deps.uploadLimitBytes ?? 20 * 1024 * 1024 }),
     ...dxfRoutes({ dataDir: deps.dataDir, files, uploadLimitBytes: deps.uploadLimitBytes ?? 20 * 1024 * 1024, catalog, jobs, outlines: outlineImportService({ workers, naming, catalog, jobs, files, dataDir: deps.dataDir }) }),
     ...originalFileRoutes(originalFilesService({ files, catalog, jobs })),

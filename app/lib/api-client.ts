@@ -32,7 +32,8 @@ type Method = 'GET' | 'POST' | 'PUT' | 'PATCH' | 'DELETE';
 export async function apiRequest<S extends z.ZodType | undefined = undefined>(
   method: Method,
   url: string,
-  opts: { body?: unknown; schema?: S; form?: FormData; onUploadProgress?: (fraction: number) => void } = {},
+  /** keepalive: the request outlives the page (a save sent as the page is hidden or reloaded; bodies under 64 KiB, Fetch standard). */
+  opts: { body?: unknown; schema?: S; form?: FormData; onUploadProgress?: (fraction: number) => void; keepalive?: boolean } = {},
 ): Promise<S extends z.ZodType ? z.output<S> : unknown> {
   const headers: Record<string, string> = { Accept: 'application/json' };
   if (method !== 'GET') headers['X-CSRF-Token'] = await getCsrfToken();
@@ -42,7 +43,7 @@ export async function apiRequest<S extends z.ZodType | undefined = undefined>(
     headers['Content-Type'] = 'application/json';
     body = JSON.stringify(opts.body);
   }
-  const res = await fetch(url, { method, headers, body, credentials: 'same-origin' });
+  const res = await fetch(url, { method, headers, body, credentials: 'same-origin', ...(opts.keepalive ? { keepalive: true } : {}) });
   return readAnswer(res.status, await res.text(), opts.schema);
 }
 

@@ -4,6 +4,8 @@ import { JobInputSchema, JobStockCheckInputSchema } from '../../shared/schemas/j
 import { currentUser } from '../middleware/auth';
 import type { JobsService } from '../services/jobs';
 import type { LoadListService } from '../services/load-list';
+import type { BarsDraftService } from '../services/bars-draft';
+import { BarsDraftInputSchema } from '../../shared/schemas/bars-draft';
 import { LoadListInputSchema } from '../../shared/schemas/load-list';
 import type { PartProgramsService } from '../services/part-programs';
 import { jobPackage } from '../services/job-package';
@@ -14,7 +16,7 @@ import type { RouteDef } from './route-table';
 
 const safe = (s: string) => s.replace(/[^A-Za-z0-9._-]+/g, '-').replace(/^-|-$/g, '') || 'job';
 
-export function jobRoutes(jobs: JobsService, loadLists: LoadListService, programs: PartProgramsService): RouteDef[] {
+export function jobRoutes(jobs: JobsService, loadLists: LoadListService, programs: PartProgramsService, drafts: BarsDraftService): RouteDef[] {
   const id = (p: unknown) => parseOr400(IdParamSchema, p, 'address').id;
   return [
     { method: 'get', path: '/jobs', access: 'signed-in', handler: async (_req, res) => {
@@ -42,6 +44,11 @@ export function jobRoutes(jobs: JobsService, loadLists: LoadListService, program
     { method: 'post', path: '/jobs/:id/stock-check', access: CAN.recordBars, handler: async (req, res) => {
       const jobId = id(req.params);
       res.json(await jobs.stockCheck(currentUser(req), jobId, parseOr400(JobStockCheckInputSchema, req.body, 'stock check')));
+    } },
+    // The bars being typed, kept until a stock check uses them: the same roles as the check.
+    { method: 'put', path: '/jobs/:id/bars-draft', access: CAN.recordBars, handler: async (req, res) => {
+      const jobId = id(req.params);
+      res.json(await drafts.put(currentUser(req), jobId, parseOr400(BarsDraftInputSchema, req.body, 'bars draft')));
     } },
     { method: 'get', path: '/jobs/:id/setup-sheet.html', access: 'signed-in', handler: async (req, res) => {
       const job = await jobs.detail(id(req.params));

@@ -17,12 +17,14 @@ import type { AuditRepo } from '../db/audit-repo';
 import { badRequest, notFound } from '../middleware/errors';
 import type { TemplatesService } from './templates';
 import { partProgramsRepo } from '../db/part-programs-repo';
+import { barDraftsRepo, draftOf } from '../db/bar-drafts-repo';
 import type { PartProgramInfo } from '../../shared/schemas/part-program';
 import { minimumSafeZ } from '../../shared/gcode/safe-z';
 
 export function jobsService(deps: { db: Db; jobs: JobsRepo; templates: TemplatesService; audit: AuditRepo }) {
   const { db, jobs, templates, audit } = deps;
   const programs = partProgramsRepo(db);
+  const drafts = barDraftsRepo(db);
 
   async function releasedVersion(templateId: number, number: number): Promise<TemplateVersion> {
     const v = await templates.version(templateId, number);
@@ -95,6 +97,7 @@ export function jobsService(deps: { db: Db; jobs: JobsRepo; templates: Templates
       partFile: r.part_file ? JSON.parse(r.part_file) : null,
       stationList: v.stations, pairings: v.pairings, stockChecks, problems, railsUsed: usedRails.map((x) => x.jawPlacement),
       partProgram: await partProgram(r, v),
+      barsDraft: draftOf(await drafts.get(id)),
     };
   }
 
@@ -169,6 +172,8 @@ export function jobsService(deps: { db: Db; jobs: JobsRepo; templates: Templates
       const request = { unit: v.unit, nominalOpening: first.nominalOpening, clamp: toCheck[0]!.clamp, ...job, bars: input.bars, appliesTo: first.appliesTo, rails: results, railsNotChecked };
       await db.transaction(async (trx) => {
         await jobs.addStockCheck(trx, { jobId: id, jawPlacement: first.jawPlacement, request, result: first.result, userId: user.id });
+        // The bars typed for this check are in it now: the draft goes with the same commit.
+        await drafts.clear(trx, id, user.id);
         await audit.record({ userId: user.id, action: 'job.stock-check', objectType: 'job', objectId: id, summary: `Checked ${input.bars.length} bars against ${results.map((x) => `${x.jawPlacement} (${x.jawComponent}): ${x.result.settings.length} rail setting(s), ${x.result.unplaceable.length} unusable`).join('; ')}${railsNotChecked.length ? `; not checked: ${railsNotChecked.join(', ')}` : ''}`, after: { rails: results.map((x) => ({ rail: x.jawPlacement, settings: x.result.settings.length, unplaceable: x.result.unplaceable.length })) } }, trx);
       });
       return { ...first.result, jawPlacement: first.jawPlacement, nominalOpening: first.nominalOpening, unit: v.unit, appliesTo: first.appliesTo, rails: results, railsNotChecked };

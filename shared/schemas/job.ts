@@ -5,6 +5,7 @@ import { PairingSchema, StationSchema } from './template';
 import { MeasuredBarSchema, StockCheckRequestSchema, StockCheckResponseSchema } from './stock-check';
 import { VersionStateSchema } from './template-api';
 import { PartProgramInfoSchema } from './part-program';
+import { BarsDraftSchema } from './bars-draft';
 
 const text = (label: string, max: number) => plainText(label, max).trim().min(1, `${label} is required.`);
 
@@ -101,6 +102,8 @@ export const JobDetailSchema = JobSummarySchema.extend({
   railsUsed: z.array(z.string()),
   /** The single-part program, when one was uploaded. */
   partProgram: PartProgramInfoSchema.nullable().default(null),
+  /** Measured bars typed and not yet checked (PUT /api/jobs/:id/bars-draft); null when none. */
+  barsDraft: BarsDraftSchema.nullable().default(null),
 });
 export type JobDetail = z.infer<typeof JobDetailSchema>;
 

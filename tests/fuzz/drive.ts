@@ -141,6 +141,9 @@ export async function buildCases(t: TestApp, a: Agent, perRoute: number, seed: n
     [['a hash never inspected', { sha256: 'f'.repeat(64), name: 'a.dxf' }], ['a path for a hash', { sha256: '../../gridset.sqlite', name: 'a.dxf' }]]);
   jsonRoute('POST /api/jobs/:id/stock-check', 'post', () => `/api/jobs/${job.id}/stock-check`, () => ({ bars }));
   jsonRoute('POST /api/stock-check', 'post', () => '/api/stock-check', () => stockBody);
+  // Text cells as the bar table holds them; revision 0 succeeds once, then 409s (a refusal that must write nothing too).
+  jsonRoute('PUT /api/jobs/:id/bars-draft', 'put', () => `/api/jobs/${job.id}/bars-draft`,
+    () => ({ revision: 0, rows: bars.map((b) => ({ id: b.id, width: String(b.width), thickness: String(b.thickness), cornerRadius: String(b.cornerRadius), autoId: false })) }));
   jsonRoute('POST /api/naming/check', 'post', () => '/api/naming/check', () => ({ target: 'layer', name: 'FX-CR-8' }));
   jsonRoute('PUT /api/naming/convention', 'put', () => '/api/naming/convention', () => ({ layer: convention.layer, component: convention.component }));
   jsonRoute('PUT /api/settings', 'put', () => '/api/settings', () => settings);

@@ -70,6 +70,10 @@ const CASES: Case[] = [
     action: 'job.stock-check', tables: ['job_stock_checks'], prepare: newJob,
     call: (id) => as('operator').post(`/api/jobs/${id}/stock-check`, { jawPlacement: 'A-JR', bars: [{ id: 'B1', width: 1, thickness: 0.5, cornerRadius: 0.02 }] }),
   },
+  {
+    action: 'job.bars-draft', tables: ['job_bar_drafts'], prepare: newJob,
+    call: (id) => as('operator').put(`/api/jobs/${id}/bars-draft`, { revision: 0, rows: [{ id: 'B1', width: '1.002', thickness: '0.5', cornerRadius: '0.02' }] }),
+  },
 ];
 
 const snapshot = async (tables: string[]) => JSON.stringify(await Promise.all(tables.map((name) => allRows(ctx.t.db, name))));

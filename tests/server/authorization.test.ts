@@ -74,6 +74,7 @@ const EXPECTED: Record<string, typeof PUBLIC | typeof SIGNED_IN | Action> = {
   'GET /jobs/:id': SIGNED_IN,
   'PUT /jobs/:id': 'editJobs',
   'POST /jobs/:id/stock-check': 'recordBars',
+  'PUT /jobs/:id/bars-draft': 'recordBars',
   'GET /jobs/:id/load-list': SIGNED_IN,
   'GET /admin/backup': 'backups',
   'PUT /jobs/:id/load-list': 'editLoadLists',

@@ -41,11 +41,11 @@ export const TextField = forwardRef<HTMLInputElement, InputProps>(function TextF
 });
 
 type SelectProps = SelectHTMLAttributes<HTMLSelectElement> & { label: string; error?: string; hint?: ReactNode; options: readonly { value: string; label: string }[] };
-export const SelectField = forwardRef<HTMLSelectElement, SelectProps>(function SelectField({ label, error, hint, options, ...rest }, ref) {
+export const SelectField = forwardRef<HTMLSelectElement, SelectProps>(function SelectField({ label, error, hint, options, className = '', ...rest }, ref) {
   return (
     <FieldShell label={label} error={error} hint={hint}>
       {(id, describedBy) => (
-        <select ref={ref} id={id} aria-invalid={!!error} aria-describedby={describedBy} className={inputClass} {...rest}>
+        <select ref={ref} id={id} aria-invalid={!!error} aria-describedby={describedBy} className={`${inputClass} ${className}`} {...rest}>
           {options.map((o) => (
             <option key={o.value} value={o.value}>{o.label}</option>
           ))}

@@ -1,7 +1,8 @@
 import { z } from 'zod';
 import { useMutation } from '@tanstack/react-query';
 import { StockCheckRequestSchema, StockCheckResponseSchema, type StockCheckRequestInput } from '../../../shared/schemas/stock-check';
-import { api, uploadWithProgress } from '../../lib/api-client';
+import { BarsDraftInputSchema, BarsDraftSchema, type BarsDraftInput } from '../../../shared/schemas/bars-draft';
+import { api, apiRequest, uploadWithProgress } from '../../lib/api-client';
 
 export const stockCheckKeys = {
   all: ['stock-check'] as const,
@@ -26,4 +27,17 @@ export function readBarsFile(file: File) {
   const form = new FormData();
   form.append('file', file);
   return uploadWithProgress('/api/stock-check/bars-file', form, () => {}, { schema: z.object({ text: z.string(), sheet: z.string().nullable() }) });
+}
+
+/** Largest body sent with keepalive (the Fetch standard caps keepalive bodies at 64 KiB in flight). */
+const KEEPALIVE_MAX_BYTES = 60_000;
+
+/**
+ * Keeps the bar table of a job on the server (PUT /api/jobs/:id/bars-draft) at the revision last
+ * read; 409 when another screen saved since. `leaving`: sent as the page is hidden or reloaded.
+ */
+export function putBarsDraft(jobId: number, input: BarsDraftInput, leaving = false) {
+  const body = BarsDraftInputSchema.parse(input);
+  const keepalive = leaving && JSON.stringify(body).length < KEEPALIVE_MAX_BYTES;
+  return apiRequest('PUT', `/api/jobs/${jobId}/bars-draft`, { body, schema: BarsDraftSchema, keepalive });
 }

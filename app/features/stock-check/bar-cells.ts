@@ -157,3 +157,29 @@ export const looksNumeric = (cell: string) => {
   const u = WITH_UNIT.exec(cell);
   return u !== null && parseDecimal(u[1]!) !== null;
 };
+
+/**
+ * The server's issues on the bars put where the operator typed them: `bars.3.width` is the table
+ * row that bar 4 came from (`rowOf`, from readBarTable).
+ */
+export function barIssueProblems(issues: readonly { path: string; message: string }[], rowOf: readonly number[]): TableProblem[] {
+  const out: TableProblem[] = [];
+  for (const issue of issues) {
+    const m = /^bars\.(\d+)\.(\w+)$/.exec(issue.path);
+    const field = m?.[2] as BarField | undefined;
+    if (m && field && (BAR_FIELDS as readonly string[]).includes(field)) {
+      const index = rowOf[Number(m[1])] ?? 0;
+      out.push({ index, field, message: `row ${index + 1}, ${BAR_FIELD_LABEL[field]}: ${issue.message}` });
+    }
+  }
+  return out;
+}
+
+/** The table read for a check: as readBarTable, and a table with no bar in it is a problem too. */
+export function barsToCheck(rows: readonly { cells: BarCells; autoId?: boolean }[], unit: Unit | null): TableReading {
+  const table = readBarTable(rows, unit);
+  if (table.ok && table.bars.length === 0) {
+    return { ok: false, problems: [{ index: 0, field: 'width', message: 'No bars yet: type each bar in the table, or paste rows from a spreadsheet.' }] };
+  }
+  return table;
+}

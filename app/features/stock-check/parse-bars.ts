@@ -87,10 +87,19 @@ const EXPECTED = 'id, width, thickness, corner radius';
  * columns are ignored and reported); without one they must be the four, in that order.
  * A first row is a header when none of its cells is a number.
  */
-export function parseBarsPaste(text: string, unit: Unit | null): PasteReading {
+/**
+ * The one reading of pasted or uploaded text into rows of cells, for the paste box and for a paste
+ * into a cell of the bar table: line breaks of any system (CRLF, CR, LF), the separator detected,
+ * papaparse's quoting, a final line break dropped.
+ */
+export function readPastedGrid(text: string): { records: string[][]; separator: Separator; unclosedQuoteRow: number | null } {
   const normalized = text.replace(/\r\n?/g, '\n');
   const separator = detectSeparator(normalized.split('\n'));
-  const { records, unclosedQuoteRow } = pasteRecords(normalized, separator);
+  return { ...pasteRecords(normalized, separator), separator };
+}
+
+export function parseBarsPaste(text: string, unit: Unit | null): PasteReading {
+  const { records, unclosedQuoteRow, separator } = readPastedGrid(text);
   if (unclosedQuoteRow !== null) {
     return { ok: false, problems: [{ row: unclosedQuoteRow, column: null, field: null, message: `row ${unclosedQuoteRow}: a quote (") opens a cell that never closes — close it or remove it` }] };
   }

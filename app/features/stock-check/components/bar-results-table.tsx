@@ -42,7 +42,7 @@ const baseColumns = [
     id: 'verdict',
     header: 'Verdict at shift 0',
     cell: (c) => (
-      <span className="flex min-w-[13rem] flex-col items-start gap-1">
+      <span className="flex sm:min-w-[13rem] flex-col items-start gap-1">
         {verdictsOf(c.row.original.reasons).map((v) => <VerdictBadge key={v} verdict={v} />)}
       </span>
     ),
@@ -62,7 +62,7 @@ const baseColumns = [
     cell: (c) => {
       const r = c.row.original;
       return r.setting === null ? (
-        <span className="inline-flex min-w-[9rem] items-center gap-1.5 font-semibold text-slate-900"><Ban aria-hidden className="h-4 w-4 shrink-0" />cannot be used on this rail</span>
+        <span className="inline-flex sm:min-w-[9rem] items-center gap-1.5 font-semibold text-slate-900"><Ban aria-hidden className="h-4 w-4 shrink-0" />cannot be used on this rail</span>
       ) : (
         <span className="whitespace-nowrap"><span className="font-semibold">Setting {r.setting}</span> <span className="font-mono">{formatSettingShift(r.settingShift!, r.unit)}</span></span>
       );
@@ -78,7 +78,7 @@ const supplierColumn = col.accessor((r) => supplierWord(r.supplier), {
       const s = c.row.original.supplier;
       const title = s ? [s.width?.message, s.thickness?.message].filter(Boolean).join(' ') : undefined;
       return word === 'outside tolerance' ? (
-        <span title={title} className="inline-flex min-w-[8rem] items-center gap-1.5 font-semibold text-slate-900"><Truck aria-hidden className="h-4 w-4 shrink-0" />outside — supplier matter</span>
+        <span title={title} className="inline-flex sm:min-w-[8rem] items-center gap-1.5 font-semibold text-slate-900"><Truck aria-hidden className="h-4 w-4 shrink-0" />outside — supplier matter</span>
       ) : (
         <span title={title} className="whitespace-nowrap text-slate-700">{word}</span>
       );

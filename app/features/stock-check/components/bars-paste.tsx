@@ -67,7 +67,7 @@ export function BarsPaste({ unit, tableIds, onApply }: {
   return (
     <div className="flex flex-col gap-2">
       <label className="flex flex-col gap-1 text-sm font-semibold text-slate-700">Or read a CSV or XLSX file of bars
-        <input type="file" accept=".csv,.xlsx,text/csv,application/vnd.openxmlformats-officedocument.spreadsheetml.sheet" className="min-h-10 font-normal" onChange={(e) => void onFile(e.target.files?.[0])} />
+        <input type="file" accept=".csv,.xlsx,text/csv,application/vnd.openxmlformats-officedocument.spreadsheetml.sheet" className="min-h-10 font-normal max-sm:min-h-11" onChange={(e) => void onFile(e.target.files?.[0])} />
       </label>
       {fileNote ? <p role="status" className="text-sm text-slate-800">{fileNote}</p> : null}
       <label htmlFor={id} className="text-sm font-semibold text-slate-700">Paste from a spreadsheet</label>
@@ -99,10 +99,10 @@ export function BarsPaste({ unit, tableIds, onApply }: {
       ) : null}
       {done ? <p role="status" className="text-slate-800">{done}</p> : null}
       <div className="flex flex-wrap gap-2">
-        <Button variant="secondary" onClick={() => apply('replace')} disabled={text.trim() === ''}>
+        <Button variant="secondary" onClick={() => apply('replace')} disabled={text.trim() === ''} className="max-sm:min-h-11">
           <ClipboardPaste aria-hidden className="h-5 w-5" /> Replace the table with these rows
         </Button>
-        <Button variant="ghost" onClick={() => apply('append')} disabled={text.trim() === ''}>Add them below</Button>
+        <Button variant="ghost" onClick={() => apply('append')} disabled={text.trim() === ''} className="max-sm:min-h-11">Add them below</Button>
       </div>
     </div>
   );

@@ -24,7 +24,7 @@ export function LengthField({ form, field, unit, hint }: { form: SetupForm; fiel
       inputMode="decimal"
       autoComplete="off"
       spellCheck={false}
-      className="num"
+      className="num max-sm:min-h-11"
       error={formMessage(field, form.formState.errors[field]?.message)}
       {...form.register(field)}
     />
@@ -79,6 +79,7 @@ export function SetupFields({ form, rails, rail, onRailChange }: {
       <SelectField
         label="Jaw rail"
         options={options}
+        className="max-sm:min-h-11"
         error={e.railId?.message}
         hint={rail ? `Unit: ${rail.unit === 'in' ? 'inches' : 'millimetres'} (${rail.unit}), the rail's — every number on this screen uses it.` : 'Rails in the catalog that carry a clamp model; the rail sets the unit.'}
         {...form.register('railId', { onChange: (ev: { target: { value: string } }) => onRailChange(ev.target.value) })}

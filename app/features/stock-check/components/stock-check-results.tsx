@@ -169,7 +169,7 @@ export function BarByBar({ run, stale }: { run: CheckRun; stale: boolean }) {
           <h2 id="bars-result-title" className="text-lg font-semibold">Bar by bar <span className="font-normal text-slate-600">— {plural(rows.length)} on {run.rail.code}</span></h2>
           <p className="text-slate-700">Verdicts are at the nominal setting (shift 0); a bar that goes on a setting is accepted on it. Advice only: check every clamp by hand before cycle start.</p>
         </div>
-        <div className="w-64"><TextField label="Find a bar" value={filter} onChange={(e) => setFilter(e.target.value)} /></div>
+        <div className="w-full sm:w-64"><TextField label="Find a bar" value={filter} onChange={(e) => setFilter(e.target.value)} className="max-sm:min-h-11" /></div>
       </div>
       {stale ? <Notice tone="caution" title="The inputs changed after this check">This table is for the inputs as they were: run the check again.</Notice> : null}
       <BarResultsTable rows={rows} filter={filter} supplierChecked={supplier.checked} />

@@ -12,17 +12,17 @@ import { ApiError } from '../../../lib/api-client';
 import { useStockCheck } from '../api';
 import type { CheckRun } from '../check-run';
 import { parseDecimal } from '../../../../shared/units/decimal';
-import { BAR_FIELDS, BAR_FIELD_LABEL, readBarTable, type BarField, type TableProblem } from '../bar-cells';
+import { barIssueProblems, barsToCheck, type BarField, type TableProblem } from '../bar-cells';
 import type { PastedRow } from '../parse-bars';
 import { SetupFormSchema, convertSetupText, defaultSetupText, type SetupFormText, type SetupFormValues, type SetupLengthField } from '../setup-form';
 import { BarTable, barCellId, firstBarRows, tableIdRows, withPastedRows, type BarRow } from './bar-table';
 import { BarsPaste } from './bars-paste';
+import { BarProblems } from './bar-problems';
 import { LengthField, SetupFields } from './setup-fields';
 import { BarByBar, StockCheckResults } from './stock-check-results';
 
 type Rail = Component & { clamp: ClampModel };
 const hasClamp = (c: Component): c is Rail => c.clamp !== null;
-const SHOWN_PROBLEMS = 12;
 
 
 function convertRows(rows: BarRow[], from: Unit, to: Unit): BarRow[] {
@@ -81,15 +81,10 @@ export function StockCheckScreen({ components }: { components: readonly Componen
 
   /** Read the table; on a problem, list it and put the cursor in the first bad cell. */
   const readBars = (forUnit: Unit | null, focus: boolean) => {
-    const table = readBarTable(rows, forUnit);
+    const table = barsToCheck(rows, forUnit);
     if (!table.ok) {
       setBarProblems(table.problems);
       if (focus) focusBarCell(table.problems[0]!.index, table.problems[0]!.field);
-      return null;
-    }
-    if (table.bars.length === 0) {
-      setBarProblems([{ index: 0, field: 'width', message: 'No bars yet: type each bar in the table, or paste rows from a spreadsheet.' }]);
-      if (focus) focusBarCell(0, 'width');
       return null;
     }
     setBarProblems([]);
@@ -121,15 +116,9 @@ export function StockCheckScreen({ components }: { components: readonly Componen
       onSuccess: (response) => setRun({ key, rail: { code: chosen.code, name: chosen.name, unit: chosen.unit, clamp: chosen.clamp }, request, response, stock: { width: setup.stockWidth, thickness: setup.stockThickness } }),
       onError: (err) => {
         if (!(err instanceof ApiError)) return;
-        // Put the server's issues where the operator typed: bars.3.width is the table row of bar 4.
-        const rowIssues: TableProblem[] = [];
+        const rowIssues = barIssueProblems(err.issues, table.rowOf);
         for (const issue of err.issues) {
-          const m = /^bars\.(\d+)\.(\w+)$/.exec(issue.path);
-          const field = m?.[2] as BarField | undefined;
-          if (m && field && (BAR_FIELDS as readonly string[]).includes(field)) {
-            const index = table.rowOf[Number(m[1])] ?? 0;
-            rowIssues.push({ index, field, message: `row ${index + 1}, ${BAR_FIELD_LABEL[field]}: ${issue.message}` });
-          } else if (['nominalOpening', 'carrier', 'clearance', 'minBite', 'settingAccuracy'].includes(issue.path)) {
+          if (['nominalOpening', 'carrier', 'clearance', 'minBite', 'settingAccuracy'].includes(issue.path)) {
             form.setError(issue.path as SetupLengthField, { type: 'server', message: issue.message });
           }
         }
@@ -166,15 +155,7 @@ export function StockCheckScreen({ components }: { components: readonly Componen
             <BarsPaste unit={unit} tableIds={tableIds} onApply={applyPaste} />
             <BarTable rows={rows} onRowsChange={setRows} unit={unit} problems={barProblems}
               onCellEdit={(index, field) => setBarProblems((ps) => (ps.some((p) => p.index === index && p.field === field) ? ps.filter((p) => !(p.index === index && p.field === field)) : ps))} />
-            {barProblems.length > 0 ? (
-              <div role="alert" className="rounded border-l-4 border-danger-700 bg-danger-50 p-3 text-danger-700">
-                <p className="font-semibold">{barProblems.length === 1 ? 'One cell needs fixing' : `${barProblems.length} cells need fixing`} before the check can run:</p>
-                <ul className="mt-1 list-disc pl-5 text-slate-900">
-                  {barProblems.slice(0, SHOWN_PROBLEMS).map((p, i) => <li key={i}>{p.message}</li>)}
-                </ul>
-                {barProblems.length > SHOWN_PROBLEMS ? <p className="mt-1 text-slate-900">…and {barProblems.length - SHOWN_PROBLEMS} more.</p> : null}
-              </div>
-            ) : null}
+            <BarProblems problems={barProblems} />
             <fieldset className="flex flex-col gap-2">
               <legend className="font-semibold">Nominal stock <span className="font-normal text-slate-600">— optional, for the supplier tolerance flag</span></legend>
               <div className="grid grid-cols-1 gap-4 sm:grid-cols-2">

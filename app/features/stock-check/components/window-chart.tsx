@@ -23,6 +23,9 @@ interface LaneLayout { lane: Lane; top: number; height: number; bandH: number; m
 // Sizes in CSS px; the SVG is drawn at the width of its box, so text stays at its size on any screen.
 const FONT = 14;
 const LEFT = 168;
+/** On a phone the lane titles get just their longest line ("Cannot be used"), leaving the rest to the scale. */
+const NARROW_LEFT = 144;
+const NARROW_BOX = 480;
 const RIGHT = 24;
 const TOP = 40;
 /** Room above a lane's band for two rows of labels. */
@@ -92,14 +95,19 @@ export function WindowChart({ input }: { input: ChartInput }) {
 
   // Never wider than its box (a 390 px phone leaves about 340 px): the lanes and ticks thin out instead.
   const width = Math.max(300, boxWidth);
-  const plotL = LEFT;
+  const plotL = width < NARROW_BOX ? NARROW_LEFT : LEFT;
   const plotR = width - RIGHT;
   const windows = lanes.flatMap((l) => (l.band ? [l.band] : []));
   // With nothing placeable, the nominal window stays on the scale so the marks have something to read against.
   if (windows.length === 0) windows.push([nominalOpening - clamp.acceptBelow, nominalOpening + clamp.acceptAbove]);
   const domain = chartDomain(windows, nominalOpening, input.bars.map((b) => b.width));
   const x = linearScale(domain, [plotL, plotR]);
-  const tickValues = ticks(domain[0], domain[1], Math.max(4, Math.floor((plotR - plotL) / 90)));
+  // As many ticks as their labels leave room for, and none whose label would run into its neighbour's.
+  const tickText = (t: number) => formatNumber(t, unit);
+  const tickRoom = labelWidth(tickText(domain[1]), FONT) + 16;
+  const candidates = ticks(domain[0], domain[1], Math.max(2, Math.floor((plotR - plotL) / tickRoom)));
+  const fits = placeLabels(candidates.map((t) => ({ x: x(t), width: labelWidth(tickText(t), FONT) })), 1, [0, width], 10);
+  const tickValues = candidates.filter((t, i) => fits[i] !== null && fits[i]!.x === x(t));
   const nominalX = x(nominalOpening);
 
   // Lanes grow to hold their stacked marks, so bars of the same width stay visible side by side.
@@ -145,7 +153,7 @@ export function WindowChart({ input }: { input: ChartInput }) {
           {tickValues.map((t) => (
             <g key={`t${t}`}>
               <line x1={x(t)} x2={x(t)} y1={plotBottom} y2={plotBottom + 6} className="stroke-slate-500" />
-              <text x={x(t)} y={plotBottom + 22} textAnchor="middle" className="fill-slate-800 font-mono">{formatNumber(t, unit)}</text>
+              <text x={x(t)} y={plotBottom + 22} textAnchor="middle" className="fill-slate-800 font-mono">{tickText(t)}</text>
             </g>
           ))}
           <text x={(plotL + plotR) / 2} y={height - 10} textAnchor="middle" className="fill-slate-900 font-semibold">Measured bar width ({unit})</text>
