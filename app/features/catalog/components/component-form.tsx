@@ -106,6 +106,11 @@ interface PointListProps {
   onAdd: () => void; onRemove: (i: number) => void;
 }
 
+/** A value's column name shown above its box on a phone, where the header row is hidden (the box keeps its own aria-label). */
+function PointLabel({ text }: { text: string }) {
+  return <span aria-hidden className="block text-sm text-slate-700 md:hidden">{text}</span>;
+}
+
 function PointList({ title, hint, unit, rows, minRows = 0, readOnly, prefix, extra, register, errorOf, rootError, onAdd, onRemove }: PointListProps) {
   return (
     <section className="flex flex-col gap-2">
@@ -116,31 +121,33 @@ function PointList({ title, hint, unit, rows, minRows = 0, readOnly, prefix, ext
       <p className="text-sm text-slate-600">{hint}</p>
       {rootError ? <p role="alert" className="text-sm text-danger-700">{rootError}</p> : null}
       {rows > 0 ? (
-        <table className="w-fit border-collapse">
-          <thead>
+        // On a phone each point is a card: its number and remove button on top, then its values two to a line, each with its label.
+        <table className="w-fit border-collapse max-md:block max-md:w-full">
+          <thead className="max-md:sr-only">
             <tr className="text-left text-sm text-slate-700">
               <th className="px-2">#</th><th className="px-2">X ({unit})</th><th className="px-2">Y ({unit})</th>
               {extra.map((x) => <th key={x.key} className="px-2">{x.label}</th>)}<th />
             </tr>
           </thead>
-          <tbody>
+          <tbody className="max-md:block">
             {Array.from({ length: rows }, (_, i) => {
               const err = errorOf(i);
               const messages = [err?.x?.message, err?.y?.message, ...extra.map((x) => err?.[x.key]?.message), err?.message].filter(Boolean);
               return (
-                <tr key={i}>
-                  <td className="px-2 text-slate-600">{i + 1}</td>
-                  <td className="px-1"><input aria-label={`${title} ${i + 1} X`} type="number" step="any" className={`${inputClass} num w-32`} {...register(`${prefix}.${i}.x` as never, num)} /></td>
-                  <td className="px-1"><input aria-label={`${title} ${i + 1} Y`} type="number" step="any" className={`${inputClass} num w-32`} {...register(`${prefix}.${i}.y` as never, num)} /></td>
+                <tr key={i} className="max-md:grid max-md:grid-cols-2 max-md:gap-x-3 max-md:gap-y-1 max-md:border-b max-md:border-slate-200 max-md:py-2">
+                  <td className="px-2 text-slate-600 max-md:order-[-1] max-md:self-center max-md:px-0 max-md:font-semibold">{i + 1}</td>
+                  <td className="px-1 max-md:px-0"><PointLabel text={`X (${unit})`} /><input aria-label={`${title} ${i + 1} X`} type="number" step="any" className={`${inputClass} num w-32 max-md:w-full`} {...register(`${prefix}.${i}.x` as never, num)} /></td>
+                  <td className="px-1 max-md:px-0"><PointLabel text={`Y (${unit})`} /><input aria-label={`${title} ${i + 1} Y`} type="number" step="any" className={`${inputClass} num w-32 max-md:w-full`} {...register(`${prefix}.${i}.y` as never, num)} /></td>
                   {extra.map((x) => (
-                    <td key={x.key} className="px-1">
-                      <input aria-label={`${title} ${i + 1} ${x.label}`} type="number" step="any" className={`${inputClass} num w-28`} {...register(`${prefix}.${i}.${x.key}` as never, x.required ? num : optionalNum)} />
+                    <td key={x.key} className="px-1 max-md:px-0">
+                      <PointLabel text={x.label} />
+                      <input aria-label={`${title} ${i + 1} ${x.label}`} type="number" step="any" className={`${inputClass} num w-28 max-md:w-full`} {...register(`${prefix}.${i}.${x.key}` as never, x.required ? num : optionalNum)} />
                     </td>
                   ))}
-                  <td className="px-1">
+                  <td className="px-1 max-md:order-[-1] max-md:justify-self-end max-md:px-0">
                     {!readOnly && rows > minRows ? <Button variant="ghost" aria-label={`Remove ${title.toLowerCase()} ${i + 1}`} onClick={() => onRemove(i)}><Trash2 aria-hidden className="h-4 w-4" /></Button> : null}
                   </td>
-                  {messages.length ? <td className="px-2 text-sm text-danger-700" role="alert">{String(messages[0])}</td> : null}
+                  {messages.length ? <td className="px-2 text-sm text-danger-700 max-md:col-span-2 max-md:px-0" role="alert">{String(messages[0])}</td> : null}
                 </tr>
               );
             })}
