@@ -39,6 +39,19 @@ describe('lists and header on a phone', () => {
     await page.close();
   });
 
+  it('a component\'s dowels, stops and faces fit a phone with no number clipped inside its box', async () => {
+    const page = await e2e.newPage();
+    await page.setViewportSize({ width: 390, height: 844 });
+    await e2e.signIn(page, 'lead');
+    await page.goto(`${e2e.baseUrl}/catalog/components/1`, { waitUntil: 'networkidle' });
+    await page.getByLabel('Stop positions 1 X').waitFor();
+    expect(await elementsWiderThanScreen(page)).toEqual([]);
+    // An input whose text is wider than its box shows only part of the number (scrollWidth > clientWidth).
+    const clipped = await page.evaluate(() => Array.from(document.querySelectorAll('main input:not([type=file])')).filter((el) => el.scrollWidth > el.clientWidth + 1).map((el) => el.getAttribute('aria-label') ?? (el as HTMLInputElement).name));
+    expect(clipped).toEqual([]);
+    await page.close();
+  });
+
   it('the header is one row on a phone; the menu opens the sections and closes when one is followed', async () => {
     const page = await e2e.newPage();
     await page.setViewportSize({ width: 390, height: 844 });
