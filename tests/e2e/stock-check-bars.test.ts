@@ -247,7 +247,9 @@ describe('the stock check without a job, on a phone', () => {
     expect(await results.evaluate((el) => getComputedStyle(el).display)).toBe('block');
     // Every bar is still there, each line labelled by its column.
     expect(await results.locator('tbody tr').count()).toBe(4);
-    expect(await results.locator('tbody tr').first().textContent()).toContain('Verdict at shift 0');
+    // The labels are CSS generated content from each cell's data-label (not part of its text).
+    const labels = await results.locator('tbody tr').first().locator('td').evaluateAll((tds) => tds.map((td) => getComputedStyle(td, '::before').content));
+    expect(labels.some((l) => l.startsWith('"Verdict at shift 0"'))).toBe(true);
     await page.close();
   });
 });

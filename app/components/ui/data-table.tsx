@@ -94,9 +94,12 @@ export function DataTable<Row extends RowData>({ columns, data, filter = '', cap
             rows.map((row) => (
               <tr key={row.id} className="border-b border-slate-200 last:border-0 hover:bg-slate-50 max-md:grid max-md:grid-cols-2 max-md:gap-x-4 max-md:px-3 max-md:py-2">
                 {row.getAllCells().map((cell) => (
-                  <td key={cell.id} className={`px-3 py-2 max-md:flex max-md:items-center max-md:justify-between max-md:gap-3 max-md:px-0 max-md:py-1 ${cell.column.columnDef.meta?.numeric ? 'num' : 'max-md:col-span-2'}`}>
-                    <span aria-hidden className="shrink-0 font-sans text-sm font-semibold text-slate-600 md:hidden">{labelOf(cell.column.columnDef.header, cell.column.id)}</span>
-                    <span className="min-w-0 break-words max-md:text-right"><table.FlexRender cell={cell} /></span>
+                  // The label is drawn by CSS from data-label with empty alternative text (CSS Generated Content
+                  // Level 3, "content" alt text), so the cell's text (read aloud, copied, or read
+                  // by a script) stays only its value; a screen reader still has the header row.
+                  <td key={cell.id} data-label={labelOf(cell.column.columnDef.header, cell.column.id)}
+                    className={`px-3 py-2 max-md:flex max-md:items-center max-md:justify-between max-md:gap-3 max-md:px-0 max-md:py-1 max-md:before:shrink-0 max-md:before:font-sans max-md:before:text-sm max-md:before:font-semibold max-md:before:text-slate-600 max-md:before:content-[attr(data-label)_/_""] ${cell.column.columnDef.meta?.numeric ? 'num' : 'max-md:col-span-2'}`}>
+                    <span className="min-w-0 break-words max-md:whitespace-normal max-md:text-right"><table.FlexRender cell={cell} /></span>
                   </td>
                 ))}
               </tr>

@@ -3,9 +3,10 @@ import { Redo2, Undo2 } from 'lucide-react';
 import { useQueryClient } from '@tanstack/react-query';
 import type { Component } from '../../../../shared/schemas/catalog';
 import type { Unit } from '../../../../shared/schemas/common';
-import { blocksSaving, type Hole } from '../../../../shared/schemas/template';
+import { blocksSaving, type Hole, type Pairing } from '../../../../shared/schemas/template';
 import type { TemplateVersion } from '../../../../shared/schemas/template-api';
 import { formatLength } from '../../../../shared/units/units';
+import { columnHelperFor, DataTable } from '../../../components/ui/data-table';
 import { Button } from '../../../components/ui/button';
 import { ErrorText, Notice } from '../../../components/ui/notice';
 import { ApiError } from '../../../lib/api-client';
@@ -34,6 +35,15 @@ interface Props {
  * edit at once (the shared engine runs in the browser); the draft is saved explicitly with
  * "Save draft", and a save that lost a race shows both versions instead of overwriting.
  */
+const pairingCol = columnHelperFor<Pairing>();
+const pairingColumns = (unit: Unit) => [
+  pairingCol.accessor((p) => `${p.fixedPlacement} (${p.fixedComponent})`, { id: 'fixed', header: 'Fixed jaw' }),
+  pairingCol.accessor((p) => `${p.jawPlacement} (${p.jawComponent})`, { id: 'jaw', header: 'Jaw rail' }),
+  pairingCol.accessor((p) => `(${p.jawHole.col}, ${p.jawHole.row})`, { id: 'hole', header: 'On hole', meta: { numeric: true } }),
+  pairingCol.accessor('width', { header: 'Width held', meta: { numeric: true }, cell: (c) => formatLength(c.getValue(), unit) }),
+  pairingCol.accessor((p) => p.stations.length, { id: 'stations', header: 'Stations', meta: { numeric: true } }),
+];
+
 export function VersionEditor({ templateId, version, catalog, displayUnit, canEdit, probeTolerance, reviewSlot }: Props) {
   const editable = canEdit && version.state === 'draft';
   const layout = useLayoutDraft(version, catalog);
@@ -145,22 +155,7 @@ export function VersionEditor({ templateId, version, catalog, displayUnit, canEd
       {evaluation.pairings.length ? (
         <section aria-labelledby="pairings-title" className="flex flex-col gap-2">
           <h2 id="pairings-title" className="text-lg font-semibold">Widths held</h2>
-          <div className="max-w-full overflow-x-auto">
-          <table className="w-fit border-collapse rounded border border-slate-300 bg-white text-[15px]">
-            <thead className="bg-slate-100"><tr>{['Fixed jaw', 'Jaw rail', 'On hole', 'Width held', 'Stations'].map((h) => <th key={h} className="px-3 py-2 text-left">{h}</th>)}</tr></thead>
-            <tbody>
-              {evaluation.pairings.map((p, i) => (
-                <tr key={i} className="border-t border-slate-200">
-                  <td className="px-3 py-2 font-mono">{p.fixedPlacement} ({p.fixedComponent})</td>
-                  <td className="px-3 py-2 font-mono">{p.jawPlacement} ({p.jawComponent})</td>
-                  <td className="num px-3 py-2">({p.jawHole.col}, {p.jawHole.row})</td>
-                  <td className="num px-3 py-2">{formatLength(p.width, version.unit)}</td>
-                  <td className="num px-3 py-2">{p.stations.length}</td>
-                </tr>
-              ))}
-            </tbody>
-          </table>
-          </div>
+          <DataTable caption="Widths held: each jaw rail and the fixed jaw it faces" columns={pairingColumns(version.unit)} data={evaluation.pairings} />
         </section>
       ) : null}
       <div className="grid grid-cols-1 gap-4 lg:grid-cols-2">
