@@ -4,7 +4,7 @@ import { JobInputSchema, JobStockCheckInputSchema } from '../../shared/schemas/j
 import { currentUser } from '../middleware/auth';
 import type { JobsService } from '../services/jobs';
 import type { LoadListService } from '../services/load-list';
-import { LoadListInputSchema } from '../../shared/schemas/load-list';
+import { LoadListInputSchema, LoadListTicksInputSchema } from '../../shared/schemas/load-list';
 import type { PartProgramsService } from '../services/part-programs';
 import { jobPackage } from '../services/job-package';
 import { jobDrawingSvg } from '../services/job-drawing';
@@ -37,6 +37,11 @@ export function jobRoutes(jobs: JobsService, loadLists: LoadListService, program
     { method: 'put', path: '/jobs/:id/load-list', access: CAN.editLoadLists, handler: async (req, res) => {
       const jobId = id(req.params);
       res.json(await loadLists.put(currentUser(req), jobId, parseOr400(LoadListInputSchema, req.body, 'load list')));
+    } },
+    // At the machine: each station of the list ticked loaded, then clamped; kept until the list changes.
+    { method: 'put', path: '/jobs/:id/load-list/ticks', access: CAN.editLoadLists, handler: async (req, res) => {
+      const jobId = id(req.params);
+      res.json(await loadLists.tick(currentUser(req), jobId, parseOr400(LoadListTicksInputSchema, req.body, 'tick list')));
     } },
     // The operator records measured bars at the machine.
     { method: 'post', path: '/jobs/:id/stock-check', access: CAN.recordBars, handler: async (req, res) => {
