@@ -44,6 +44,8 @@ export function LoadListPanel({ job, canEdit }: { job: JobDetail; canEdit: boole
   const dirty = JSON.stringify(rails) !== JSON.stringify(data.rails);
   const taken = new Set(rails.flatMap((r) => r.stations.map((s) => s.bar)).filter((b): b is string => !!b));
   const ticks = new Map(data.ticks.stations.map((t) => [t.station, t]));
+  // The tap shows at once while the server keeps it (TanStack Query, "Optimistic updates via the UI").
+  if (tick.isPending && tick.variables) for (const t of tick.variables.stations) ticks.set(t.station, t);
   const withBar = data.rails.flatMap((r) => r.stations).filter((s) => s.bar);
   const loaded = withBar.filter((s) => ticks.get(s.station)?.loaded).length;
   const clamped = withBar.filter((s) => ticks.get(s.station)?.clamped).length;
@@ -76,17 +78,23 @@ export function LoadListPanel({ job, canEdit }: { job: JobDetail; canEdit: boole
                 <span className="font-semibold">Set {r.jawPlacement}</span> to <span className="num font-semibold">{words.target}</span> ± <span className="num">{words.room}</span> (setting {r.setting + 1})
               </p>
               <p className="text-slate-800" data-testid="load-list-shift-words">To set it: {words.shift}; {words.roomWords}.</p>
-              <ul aria-label={`Stations on ${r.jawPlacement}`} className="grid grid-cols-1 gap-2 md:grid-cols-2">
+              {/* One line per station, also on a phone: station, bar, then the two ticks under their column names. */}
+              <div aria-hidden className="flex items-end gap-2 px-2 text-sm font-semibold text-slate-700">
+                <span className="w-20 shrink-0">Station</span><span className="min-w-0 flex-1">Bar</span>
+                <span className="w-16 text-center">Loaded</span><span className="w-16 text-center">Clamped</span>
+              </div>
+              <ul aria-label={`Stations on ${r.jawPlacement}`} className="flex flex-col gap-1">
                 {r.stations.map((s) => {
                   const t = ticks.get(s.station) ?? NO_TICK;
                   const kept = data.rails[i]?.stations.find((x) => x.station === s.station)?.bar ?? null;
                   return (
-                    <li key={s.station} data-testid="load-list-station" data-station={s.station} className="flex flex-wrap items-center gap-x-3 gap-y-2 rounded border border-slate-200 p-2">
-                      <label htmlFor={`load-${r.jawPlacement}-${s.station}`} className="w-24 font-semibold">Station {s.station}</label>
+                    <li key={s.station} data-testid="load-list-station" data-station={s.station} data-bar={kept ?? ''}
+                      className={`flex items-center gap-2 rounded px-2 py-0.5 ${t.clamped ? 'bg-accent-50' : ''}`}>
+                      <label htmlFor={`load-${r.jawPlacement}-${s.station}`} className="w-20 shrink-0 font-semibold">Station {s.station}</label>
                       <select
                         id={`load-${r.jawPlacement}-${s.station}`}
                         data-testid="load-list-bar"
-                        className={`${inputClass} min-h-11 w-36`}
+                        className={`${inputClass} min-h-11 min-w-0 flex-1 px-2 font-mono`}
                         disabled={!canEdit}
                         value={s.bar ?? ''}
                         onChange={(e) => setBar(i, s.station, e.target.value || null)}
@@ -95,13 +103,13 @@ export function LoadListPanel({ job, canEdit }: { job: JobDetail; canEdit: boole
                         {barsOf(r.jawPlacement, r.setting).filter((b) => b === s.bar || !taken.has(b)).map((b) => <option key={b} value={b}>{b}</option>)}
                       </select>
                       {kept ? (
-                        <span className="flex gap-2">
-                          <TickBox label="Loaded" station={s.station} checked={t.loaded} disabled={!canTick}
+                        <>
+                          <TickBox label="loaded" station={s.station} checked={t.loaded} disabled={!canTick}
                             onChange={(on) => send({ station: s.station, loaded: on, clamped: on && t.clamped })} />
-                          <TickBox label="Clamped" station={s.station} checked={t.clamped} disabled={!canTick || !t.loaded}
+                          <TickBox label="clamped" station={s.station} checked={t.clamped} disabled={!canTick || !t.loaded}
                             onChange={(on) => send({ station: s.station, loaded: t.loaded, clamped: on })} />
-                        </span>
-                      ) : <span className="text-slate-700">left empty this cycle</span>}
+                        </>
+                      ) : <span className="w-34 shrink-0 text-center text-sm text-slate-700">empty: skip</span>}
                     </li>
                   );
                 })}
@@ -128,14 +136,12 @@ export function LoadListPanel({ job, canEdit }: { job: JobDetail; canEdit: boole
   );
 }
 
-/** One tick of a station: a checkbox inside a label at least 44 px each way (WCAG 2.5.5 target size). */
-function TickBox({ label, station, checked, disabled, onChange }: { label: string; station: number; checked: boolean; disabled: boolean; onChange: (on: boolean) => void }) {
+/** One tick of a station: a checkbox inside a label 64 × 44 px (WCAG 2.5.5 target size, at least 44 px). */
+function TickBox({ label, station, checked, disabled, onChange }: { label: 'loaded' | 'clamped'; station: number; checked: boolean; disabled: boolean; onChange: (on: boolean) => void }) {
   return (
-    <label className={`inline-flex min-h-11 min-w-11 cursor-pointer items-center gap-2 rounded border px-3 font-semibold ${checked ? 'border-accent-700 bg-accent-50 text-slate-900' : 'border-slate-400 bg-white text-slate-800'} ${disabled ? 'cursor-not-allowed opacity-70' : ''}`}>
+    <label data-testid={`tick-${label}`} className={`inline-flex min-h-11 w-16 shrink-0 items-center justify-center rounded border ${checked ? 'border-accent-700 bg-accent-50' : 'border-slate-400 bg-white'} ${disabled ? 'cursor-not-allowed opacity-60' : 'cursor-pointer'}`}>
       <input type="checkbox" className="h-6 w-6 accent-accent-700" checked={checked} disabled={disabled}
-        aria-label={`Station ${station} ${label.toLowerCase()}`} data-testid={`tick-${label.toLowerCase()}`}
-        onChange={(e) => onChange(e.target.checked)} />
-      {label}
+        aria-label={`Station ${station} ${label}`} onChange={(e) => onChange(e.target.checked)} />
     </label>
   );
 }
