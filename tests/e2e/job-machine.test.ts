@@ -6,19 +6,14 @@
 // navigation (CSS Media Queries Level 4, the `print` media type, emulated by the browser).
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
-import { elementsWiderThanScreen, startE2E, type E2E } from './browser';
+import { apiJson, elementsWiderThanScreen, startE2E, type E2E } from './browser';
 
 let e2e: E2E;
 beforeAll(async () => { e2e = await startE2E(); }, 60_000);
 afterAll(async () => { await e2e?.close(); });
 
 /** A JSON call with the page's own session and CSRF token; the answer's body. */
-async function call(page: Page, method: 'GET' | 'POST' | 'PUT', url: string, data?: object) {
-  const token = (await (await page.request.get(`${e2e.baseUrl}/api/auth/csrf`)).json()).token as string;
-  const res = await page.request.fetch(`${e2e.baseUrl}${url}`, { method, data, headers: { 'X-CSRF-Token': token } });
-  expect(res.ok(), `${method} ${url}: ${await res.text()}`).toBe(true);
-  return res.json();
-}
+const call = (page: Page, method: 'GET' | 'POST' | 'PUT', url: string, data?: object) => apiJson(page, e2e.baseUrl, method, url, data);
 
 type Setting = { bars: string[] };
 type CheckAnswer = { rails: { jawPlacement: string; result: { settings: Setting[] } }[] };

@@ -25,6 +25,7 @@ export function LoadListPanel({ job, canEdit }: { job: JobDetail; canEdit: boole
   const save = useSaveLoadList(job.id);
   const tick = useTickLoadList(job.id);
   const [rails, setRails] = useState<Rails | null>(null);
+  const [pendingTick, setPendingTick] = useState<LoadListTick | null>(null);
   // A fresh load list from the server replaces the edited rails (React docs, "Adjusting some state
   // when a prop changes": set during render, not in an effect). Ticks alone leave an edit in place.
   const [shown, setShown] = useState<typeof list.data>(undefined);
@@ -44,13 +45,17 @@ export function LoadListPanel({ job, canEdit }: { job: JobDetail; canEdit: boole
   const dirty = JSON.stringify(rails) !== JSON.stringify(data.rails);
   const taken = new Set(rails.flatMap((r) => r.stations.map((s) => s.bar)).filter((b): b is string => !!b));
   const ticks = new Map(data.ticks.stations.map((t) => [t.station, t]));
-  // The tap shows at once while the server keeps it (TanStack Query, "Optimistic updates via the UI").
-  if (tick.isPending && tick.variables) for (const t of tick.variables.stations) ticks.set(t.station, t);
+  // The tap shows at once while the server keeps it (TanStack Query, "Optimistic updates via the UI"),
+  // set in the same event so the checkbox never springs back for a moment.
+  if (pendingTick) ticks.set(pendingTick.station, pendingTick);
   const withBar = data.rails.flatMap((r) => r.stations).filter((s) => s.bar);
   const loaded = withBar.filter((s) => ticks.get(s.station)?.loaded).length;
   const clamped = withBar.filter((s) => ticks.get(s.station)?.clamped).length;
-  const canTick = canEdit && !dirty && !tick.isPending;
-  const send = (t: LoadListTick) => tick.mutate({ revision: data.ticks.revision, stockCheckId: data.stockCheckId, listRevision: data.revision, stations: [t] });
+  const canTick = canEdit && !dirty && !tick.isPending && !pendingTick;
+  const send = (t: LoadListTick) => {
+    setPendingTick(t);
+    tick.mutate({ revision: data.ticks.revision, stockCheckId: data.stockCheckId, listRevision: data.revision, stations: [t] }, { onSettled: () => setPendingTick(null) });
+  };
 
   return (
     <section id="load-list" aria-labelledby="load-list-title" className="print-load-list flex scroll-mt-4 flex-col gap-3 rounded border border-slate-300 bg-white p-4 print:border-0 print:p-0">
