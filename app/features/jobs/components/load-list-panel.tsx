@@ -58,7 +58,7 @@ export function LoadListPanel({ job, canEdit }: { job: JobDetail; canEdit: boole
   };
 
   return (
-    <section id="load-list" aria-labelledby="load-list-title" className="print-load-list flex scroll-mt-4 flex-col gap-3 rounded border border-slate-300 bg-white p-4 print:border-0 print:p-0">
+    <section id="load-list" aria-labelledby="load-list-title" className="print-load-list flex scroll-mt-4 flex-col gap-3 rounded border border-slate-300 bg-white p-4 max-md:p-3 print:border-0 print:p-0">
       <LoadListPrint job={job} list={data} />
       <div className="flex flex-wrap items-center justify-between gap-2 print:hidden">
         <h2 id="load-list-title" className="flex items-center gap-2 text-lg font-semibold"><ClipboardList aria-hidden className="h-5 w-5" />Load list for this cycle</h2>
@@ -75,53 +75,56 @@ export function LoadListPanel({ job, canEdit }: { job: JobDetail; canEdit: boole
         </p>
         <p className="text-sm text-slate-700">Ticks are kept with the job for everyone to see, and start again empty when this list changes: a new stock check or a kept edit clears them.</p>
         {dirty && canEdit ? <p className="text-sm font-semibold text-slate-800">Keep or undo your change of bars before ticking stations.</p> : null}
-        {rails.map((r, i) => {
-          const words = railSettingWords(r, job.unit);
-          return (
-            <div key={r.jawPlacement} className="flex flex-col gap-2 border-t border-slate-200 pt-2">
-              <p className="text-lg" data-testid="load-list-setting">
-                <span className="font-semibold">Set {r.jawPlacement}</span> to <span className="num font-semibold">{words.target}</span> ± <span className="num">{words.room}</span> (setting {r.setting + 1})
-              </p>
-              <p className="text-slate-800" data-testid="load-list-shift-words">To set it: {words.shift}; {words.roomWords}.</p>
-              {/* One line per station, also on a phone: station, bar, then the two ticks under their column names. */}
-              <div aria-hidden className="flex items-end gap-2 px-2 text-sm font-semibold text-slate-700">
-                <span className="w-20 shrink-0">Station</span><span className="min-w-0 flex-1">Bar</span>
-                <span className="w-16 text-center">Loaded</span><span className="w-16 text-center">Clamped</span>
+        {/* At desk width the rails sit side by side, so a station's line stays short. */}
+        <div className="grid grid-cols-1 gap-x-8 gap-y-3 lg:grid-cols-2">
+          {rails.map((r, i) => {
+            const words = railSettingWords(r, job.unit);
+            return (
+              <div key={r.jawPlacement} className="flex flex-col gap-2 border-t border-slate-200 pt-2">
+                <p className="text-lg" data-testid="load-list-setting">
+                  <span className="font-semibold">Set {r.jawPlacement}</span> to <span className="num font-semibold">{words.target}</span> ± <span className="num">{words.room}</span> (setting {r.setting + 1})
+                </p>
+                <p className="text-slate-800" data-testid="load-list-shift-words">To set it: {words.shift}; {words.roomWords}.</p>
+                {/* One line per station, also on a phone: station, bar, then the two ticks under their column names. */}
+                <div aria-hidden className="flex items-end gap-2 px-2 text-sm font-semibold text-slate-700">
+                  <span className="w-14 shrink-0">Station</span><span className="min-w-0 flex-1">Bar</span>
+                  <span className="w-14 text-center">Loaded</span><span className="w-14 text-center">Clamped</span>
+                </div>
+                <ul aria-label={`Stations on ${r.jawPlacement}`} className="flex flex-col gap-1">
+                  {r.stations.map((s) => {
+                    const t = ticks.get(s.station) ?? NO_TICK;
+                    const kept = data.rails[i]?.stations.find((x) => x.station === s.station)?.bar ?? null;
+                    return (
+                      <li key={s.station} data-testid="load-list-station" data-station={s.station} data-bar={kept ?? ''}
+                        className={`flex items-center gap-2 rounded px-2 py-0.5 ${t.clamped ? 'bg-accent-50' : ''}`}>
+                        <label htmlFor={`load-${r.jawPlacement}-${s.station}`} className="num w-14 shrink-0 text-left text-lg font-semibold"><span className="sr-only">Station </span>{s.station}</label>
+                        <select
+                          id={`load-${r.jawPlacement}-${s.station}`}
+                          data-testid="load-list-bar"
+                          className={`${inputClass} min-h-11 min-w-0 flex-1 px-2 font-mono`}
+                          disabled={!canEdit}
+                          value={s.bar ?? ''}
+                          onChange={(e) => setBar(i, s.station, e.target.value || null)}
+                        >
+                          <option value="">empty</option>
+                          {barsOf(r.jawPlacement, r.setting).filter((b) => b === s.bar || !taken.has(b)).map((b) => <option key={b} value={b}>{b}</option>)}
+                        </select>
+                        {kept ? (
+                          <>
+                            <TickBox label="loaded" station={s.station} checked={t.loaded} disabled={!canTick}
+                              onChange={(on) => send({ station: s.station, loaded: on, clamped: on && t.clamped })} />
+                            <TickBox label="clamped" station={s.station} checked={t.clamped} disabled={!canTick || !t.loaded}
+                              onChange={(on) => send({ station: s.station, loaded: t.loaded, clamped: on })} />
+                          </>
+                        ) : <span className="w-30 shrink-0 text-center text-sm text-slate-700">empty: skip</span>}
+                      </li>
+                    );
+                  })}
+                </ul>
               </div>
-              <ul aria-label={`Stations on ${r.jawPlacement}`} className="flex flex-col gap-1">
-                {r.stations.map((s) => {
-                  const t = ticks.get(s.station) ?? NO_TICK;
-                  const kept = data.rails[i]?.stations.find((x) => x.station === s.station)?.bar ?? null;
-                  return (
-                    <li key={s.station} data-testid="load-list-station" data-station={s.station} data-bar={kept ?? ''}
-                      className={`flex items-center gap-2 rounded px-2 py-0.5 ${t.clamped ? 'bg-accent-50' : ''}`}>
-                      <label htmlFor={`load-${r.jawPlacement}-${s.station}`} className="w-20 shrink-0 font-semibold">Station {s.station}</label>
-                      <select
-                        id={`load-${r.jawPlacement}-${s.station}`}
-                        data-testid="load-list-bar"
-                        className={`${inputClass} min-h-11 min-w-0 flex-1 px-2 font-mono`}
-                        disabled={!canEdit}
-                        value={s.bar ?? ''}
-                        onChange={(e) => setBar(i, s.station, e.target.value || null)}
-                      >
-                        <option value="">empty</option>
-                        {barsOf(r.jawPlacement, r.setting).filter((b) => b === s.bar || !taken.has(b)).map((b) => <option key={b} value={b}>{b}</option>)}
-                      </select>
-                      {kept ? (
-                        <>
-                          <TickBox label="loaded" station={s.station} checked={t.loaded} disabled={!canTick}
-                            onChange={(on) => send({ station: s.station, loaded: on, clamped: on && t.clamped })} />
-                          <TickBox label="clamped" station={s.station} checked={t.clamped} disabled={!canTick || !t.loaded}
-                            onChange={(on) => send({ station: s.station, loaded: t.loaded, clamped: on })} />
-                        </>
-                      ) : <span className="w-34 shrink-0 text-center text-sm text-slate-700">empty: skip</span>}
-                    </li>
-                  );
-                })}
-              </ul>
-            </div>
-          );
-        })}
+            );
+          })}
+        </div>
         <ErrorText error={tick.error} />
         {canEdit ? (
           <div className="flex flex-wrap items-center gap-3">
@@ -141,10 +144,10 @@ export function LoadListPanel({ job, canEdit }: { job: JobDetail; canEdit: boole
   );
 }
 
-/** One tick of a station: a checkbox inside a label 64 × 44 px (WCAG 2.5.5 target size, at least 44 px). */
+/** One tick of a station: a checkbox inside a label 56 × 44 px (WCAG 2.5.5 target size, at least 44 px). */
 function TickBox({ label, station, checked, disabled, onChange }: { label: 'loaded' | 'clamped'; station: number; checked: boolean; disabled: boolean; onChange: (on: boolean) => void }) {
   return (
-    <label data-testid={`tick-${label}`} className={`inline-flex min-h-11 w-16 shrink-0 items-center justify-center rounded border ${checked ? 'border-accent-700 bg-accent-50' : 'border-slate-400 bg-white'} ${disabled ? 'cursor-not-allowed opacity-60' : 'cursor-pointer'}`}>
+    <label data-testid={`tick-${label}`} className={`inline-flex min-h-11 w-14 shrink-0 items-center justify-center rounded border ${checked ? 'border-accent-700 bg-accent-50' : 'border-slate-400 bg-white'} ${disabled ? 'cursor-not-allowed opacity-60' : 'cursor-pointer'}`}>
       <input type="checkbox" className="h-6 w-6 accent-accent-700" checked={checked} disabled={disabled}
         aria-label={`Station ${station} ${label}`} onChange={(e) => onChange(e.target.checked)} />
     </label>

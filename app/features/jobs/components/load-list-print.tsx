@@ -35,7 +35,7 @@ export function LoadListPrint({ job, list }: { job: JobDetail; list: LoadList })
           <section key={r.jawPlacement} className="mt-3 break-inside-avoid">
             <h2 className="text-lg font-semibold">Jaw rail {r.jawPlacement}: set the opening to <span className="font-mono">{words.target}</span> ± <span className="font-mono">{words.room}</span> (setting {r.setting + 1})</h2>
             <p>To set it: {words.shift}; {words.roomWords}.</p>
-            <table className="mt-1 w-full border-collapse">
+            <table className="mt-1 w-full table-fixed border-collapse">
               <thead><tr><th className={cell}>Station</th><th className={cell}>Bar</th><th className={cell}>Loaded</th><th className={cell}>Clamped</th></tr></thead>
               <tbody>
                 {r.stations.map((s) => (
