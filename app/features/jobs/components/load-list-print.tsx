@@ -1,8 +1,13 @@
 import type { JobDetail } from '../../../../shared/schemas/job';
 import type { LoadList } from '../../../../shared/schemas/load-list';
-import { STOCK_CHECK_ADVICE } from '../../../../shared/clamps/reason-text';
 import { formatServerTime } from '../../../lib/server-time';
 import { railSettingWords } from '../job-format';
+
+/** The paper's advice line: what the list is worked out from, and who checks the clamps (DESIGN.md, safety wording). */
+const LOAD_LIST_ADVICE =
+  'A load list is advice, worked out from the measured bars, the clamp model and the job entered. ' +
+  'The operator checks every clamp before cycle start, follows the machine builder’s instructions, ' +
+  'and defers to local codes and licensed practice.';
 
 const cell = 'border border-black px-2 py-1 text-left';
 const box = <span aria-hidden className="inline-block h-4 w-4 border border-black align-middle" />;
@@ -27,7 +32,7 @@ export function LoadListPrint({ job, list }: { job: JobDetail; list: LoadList })
         {' · '}Printed {new Date().toLocaleDateString(undefined, { year: 'numeric', month: 'short', day: 'numeric' })}
       </p>
       <p className="mt-2 border border-black p-2 font-semibold" data-testid="load-list-print-advice">
-        A load list is advice. The operator checks every clamp before cycle start and follows the machine builder’s instructions. {STOCK_CHECK_ADVICE}
+        {LOAD_LIST_ADVICE}
       </p>
       {list.rails.map((r) => {
         const words = railSettingWords(r, job.unit);
