@@ -68,7 +68,7 @@ export function JobRoute() {
       subtitle={
         <span className="flex flex-wrap items-center gap-x-2">
           <span>Part <span className="font-mono font-semibold text-slate-900">{j.partNumber}</span>{j.partRevision ? <> rev <span className="font-mono font-semibold text-slate-900">{j.partRevision}</span></> : null}</span>
-          <span aria-hidden>·</span>
+          <span aria-hidden className="max-md:hidden">·</span>
           <span>on <Link className="text-accent-700 underline" to={`/templates/${j.templateId}/versions/${j.version}`}>{j.templateName} v{j.version}</Link> ({j.versionState}, pinned)</span>
           <span aria-hidden className="max-md:hidden">·</span>
           <span className="max-md:hidden">content hash <span className="font-mono" title={j.contentHash}>{j.contentHash.slice(0, 16)}</span></span>

@@ -7,7 +7,7 @@ import { jobFileUrl } from '../api';
 import { formatHoursMinutes, formatMinutes } from '../job-format';
 import { compareUrl } from './jobs-table';
 
-const linkClass = 'inline-flex min-h-10 items-center gap-2 rounded border border-slate-400 bg-white px-3 font-semibold text-slate-900 hover:bg-slate-100';
+const linkClass = 'inline-flex min-h-10 items-center gap-2 rounded border border-slate-400 bg-white px-3 font-semibold text-slate-900 hover:bg-slate-100 max-md:min-h-11 max-md:px-2 max-md:text-sm';
 
 /** Unattended runtime of one load: stations the job uses × cycle + load (common practice, shared/stations/runtime.ts). */
 export function RuntimeCard({ job }: { job: JobDetail }) {
