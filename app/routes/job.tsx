@@ -18,7 +18,8 @@ import { useJob, useJobStockCheck, useUpdateJob } from '../features/jobs/api';
 import { formatServerTime } from '../lib/server-time';
 import { checkedBeforeEdit, jobCheckRun, jobRails, railClamp, railOfCheck, type JobCheckRun, type JobRail } from '../features/jobs/job-rails';
 import { JobDrawing } from '../features/jobs/components/job-drawing';
-import { JobFiles, JobSetupFacts, NewerReleaseNotice, RuntimeCard } from '../features/jobs/components/job-facts';
+import { JobFactsLine, JobFiles, JobSetupFacts, NewerReleaseNotice, RuntimeCard } from '../features/jobs/components/job-facts';
+import { FoldingSection, JumpList } from '../features/jobs/components/job-sections';
 import { JobForm } from '../features/jobs/components/job-form';
 import { JobProblems } from '../features/jobs/components/job-problems';
 import { LoadListPanel } from '../features/jobs/components/load-list-panel';
@@ -33,6 +34,15 @@ import { BAR_FIELDS, BAR_FIELD_LABEL, readBarTable, type BarField, type TablePro
 import type { PastedRow } from '../features/stock-check/parse-bars';
 
 const NO_TEMPLATES: TemplateSummary[] = [];
+
+/** The job page's sections in page order, for the jump list at its top (the load list once there is a check). */
+const jumpTargets = (checked: boolean) => [
+  ...(checked ? [{ id: 'load-list', label: 'Load list' }] : []),
+  { id: 'stock-check', label: 'Stock check' },
+  { id: 'drawing', label: 'Drawing' },
+  { id: 'job-facts', label: 'Stock and runtime' },
+  { id: 'part-program', label: 'Part program' },
+];
 const SHOWN_PROBLEMS = 12;
 
 /**
@@ -58,21 +68,27 @@ export function JobRoute() {
       subtitle={
         <span className="flex flex-wrap items-center gap-x-2">
           <span>Part <span className="font-mono font-semibold text-slate-900">{j.partNumber}</span>{j.partRevision ? <> rev <span className="font-mono font-semibold text-slate-900">{j.partRevision}</span></> : null}</span>
-          <span aria-hidden>·</span>
+          <span aria-hidden className="max-md:hidden">·</span>
           <span>on <Link className="text-accent-700 underline" to={`/templates/${j.templateId}/versions/${j.version}`}>{j.templateName} v{j.version}</Link> ({j.versionState}, pinned)</span>
-          <span aria-hidden>·</span>
-          <span>content hash <span className="font-mono" title={j.contentHash}>{j.contentHash.slice(0, 16)}</span></span>
+          <span aria-hidden className="max-md:hidden">·</span>
+          <span className="max-md:hidden">content hash <span className="font-mono" title={j.contentHash}>{j.contentHash.slice(0, 16)}</span></span>
         </span>
       }
       actions={<JobFiles job={j} stationsCsvUrl={versionFileUrl(j.templateId, j.version, 'stations.csv')} />}
     >
       <NewerReleaseNotice job={j} canEdit={canEdit} />
+      <JobFactsLine job={j} />
+      <JumpList targets={jumpTargets(j.stockChecks.length > 0)} />
       <JobProblems job={j} />
       {version.error ? <ErrorText error={version.error} /> : null}
 
-      <div className="grid grid-cols-1 items-start gap-6 lg:grid-cols-[minmax(0,1fr)_22rem]">
+      {/* What to do next first (DESIGN.md, At the machine): the load list, then the bars, then the drawing. */}
+      <LoadListPanel job={j} canEdit={may(me.data?.role, 'editLoadLists')} />
+      {v ? <StockCheckSection job={j} version={v} canRecord={may(me.data?.role, 'recordBars')} /> : <p className="text-slate-700">Loading the template version…</p>}
+
+      <div id="drawing" className="grid scroll-mt-4 grid-cols-1 items-start gap-6 border-t border-slate-300 pt-4 lg:grid-cols-[minmax(0,1fr)_22rem]">
         <JobDrawing job={j} plateCode={v?.plate.code ?? ''} offsetName={v?.sharedOffset.name ?? 'shared offset'} />
-        <div className="flex flex-col gap-4">
+        <div id="job-facts" className="flex scroll-mt-4 flex-col gap-4">
           <RuntimeCard job={j} />
           <JobSetupFacts job={j} />
           {canEdit && !editing ? (
@@ -83,10 +99,7 @@ export function JobRoute() {
 
       {canEdit && editing ? <EditJob job={j} onDone={() => setEditing(false)} /> : null}
       {canEdit ? <PartOutlineUpload job={j} /> : null}
-      <PartProgramPanel job={j} canEdit={canEdit} />
-
-      {v ? <StockCheckSection job={j} version={v} canRecord={may(me.data?.role, 'recordBars')} /> : <p className="text-slate-700">Loading the template version…</p>}
-      <LoadListPanel job={j} canEdit={may(me.data?.role, 'editLoadLists')} />
+      <div id="part-program" className="scroll-mt-4"><PartProgramPanel job={j} canEdit={canEdit} /></div>
     </Page>
   );
 }
@@ -147,7 +160,7 @@ function StockCheckSection({ job, version, canRecord }: { job: JobDetail; versio
   }, [latest, focusCheck]);
 
   return (
-    <section aria-labelledby="stock-check-title" className="flex flex-col gap-4 border-t border-slate-300 pt-4">
+    <section id="stock-check" aria-labelledby="stock-check-title" className="flex scroll-mt-4 flex-col gap-4 border-t border-slate-300 pt-4">
       <div>
         <h2 id="stock-check-title" className="text-xl font-semibold">Stock check: which bars go on which rail setting</h2>
         <p className="text-slate-700">Measure the bars and check them against the clamp window of every jaw rail this job uses, with this job’s carrier, clearance and minimum bite; choose a rail below to see its sorting.</p>
@@ -170,7 +183,11 @@ function StockCheckSection({ job, version, canRecord }: { job: JobDetail; versio
               )}
             </section>
           </div>
-          {latest && run ? <BarByBar run={run} stale={checkedBeforeEdit(job, latest)} /> : null}
+          {latest && run ? (
+            <FoldingSection id="bar-by-bar" title="Every bar of the latest check" foldOnPhone>
+              <BarByBar run={run} stale={checkedBeforeEdit(job, latest)} />
+            </FoldingSection>
+          ) : null}
         </>
       ) : rails.length > 0 && job.railsUsed.length === 0 ? (
         <Notice tone="info" title="No jaw rail holds this job's stock width">Change the stock width or pin a version with stations for it; the job's problems say which width would fit.</Notice>

@@ -13,6 +13,7 @@ import * as sessions from '../../migrations/20261205120000_sessions';
 import * as placementCount from '../../migrations/20261205120100_placement_count';
 import * as readStamps from '../../migrations/20261206100000_read_stamps';
 import * as jobBarDrafts from '../../migrations/20261208100000_job_bar_drafts';
+import * as loadListTicks from '../../migrations/20261208400000_load_list_ticks';
 
 // Migrations are imported statically so the same list runs under tsx, vitest and the bench
 // scripts; knex's directory loader cannot import .ts files by itself.
@@ -31,6 +32,7 @@ const MIGRATIONS: Record<string, Knex.Migration> = {
   '20261205120100_placement_count': placementCount,
   '20261206100000_read_stamps': readStamps,
   '20261208100000_job_bar_drafts': jobBarDrafts,
+  '20261208400000_load_list_ticks': loadListTicks,
 };
 
 export const migrationSource: Knex.MigrationSource<string> = {

@@ -6,7 +6,7 @@ import type { JobsService } from '../services/jobs';
 import type { LoadListService } from '../services/load-list';
 import type { BarsDraftService } from '../services/bars-draft';
 import { BarsDraftInputSchema } from '../../shared/schemas/bars-draft';
-import { LoadListInputSchema } from '../../shared/schemas/load-list';
+import { LoadListInputSchema, LoadListTicksInputSchema } from '../../shared/schemas/load-list';
 import type { PartProgramsService } from '../services/part-programs';
 import { jobPackage } from '../services/job-package';
 import { jobDrawingSvg } from '../services/job-drawing';
@@ -39,6 +39,11 @@ export function jobRoutes(jobs: JobsService, loadLists: LoadListService, program
     { method: 'put', path: '/jobs/:id/load-list', access: CAN.editLoadLists, handler: async (req, res) => {
       const jobId = id(req.params);
       res.json(await loadLists.put(currentUser(req), jobId, parseOr400(LoadListInputSchema, req.body, 'load list')));
+    } },
+    // At the machine: each station of the list ticked loaded, then clamped; kept until the list changes.
+    { method: 'put', path: '/jobs/:id/load-list/ticks', access: CAN.editLoadLists, handler: async (req, res) => {
+      const jobId = id(req.params);
+      res.json(await loadLists.tick(currentUser(req), jobId, parseOr400(LoadListTicksInputSchema, req.body, 'tick list')));
     } },
     // The operator records measured bars at the machine.
     { method: 'post', path: '/jobs/:id/stock-check', access: CAN.recordBars, handler: async (req, res) => {

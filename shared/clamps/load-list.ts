@@ -1,5 +1,5 @@
 import type { RailCheck } from '../schemas/job';
-import type { LoadList, LoadListInput } from '../schemas/load-list';
+import type { LoadList, LoadListInput, LoadListTick } from '../schemas/load-list';
 
 /**
  * The load list: for one cycle, one setting per jaw rail and one fitting bar per station on that
@@ -91,4 +91,30 @@ export function checkLoadList(input: LoadListInput, rails: readonly LoadRail[], 
     out.push({ ...r, stations: rail.stations.map((n) => r.stations.find((s) => s.station === n) ?? { station: n, bar: null }), targetOpening: setting.targetOpening, room: setting.room, shift: setting.shift });
   }
   return { ok: true, list: { rails: out, emptyStations: emptyOf(rails, out) } };
+}
+
+export type TicksApplied = { ok: true; ticks: LoadListTick[]; changed: LoadListTick[] } | { ok: false; message: string };
+
+/**
+ * The operator's ticks laid over the ones kept: each station named must hold a bar in this list, be
+ * named once, and be loaded before it is clamped (common practice: a clamp is tightened on a bar
+ * that is in place). Answers every station with a tick, ascending, and the ticks that changed.
+ */
+export function applyTicks(list: Pick<LoadList, 'rails'>, kept: readonly LoadListTick[], input: readonly LoadListTick[]): TicksApplied {
+  const barAt = new Map(list.rails.flatMap((r) => r.stations.map((s) => [s.station, s.bar] as const)));
+  const next = new Map(kept.filter((t) => barAt.get(t.station)).map((t) => [t.station, t]));
+  const seen = new Set<number>();
+  const changed: LoadListTick[] = [];
+  for (const t of input) {
+    if (seen.has(t.station)) return { ok: false, message: `Station ${t.station} is ticked twice; send it once.` };
+    seen.add(t.station);
+    if (!barAt.has(t.station)) return { ok: false, message: `Station ${t.station} is not in this load list; tick only its stations (${[...barAt.keys()].sort((a, b) => a - b).join(', ') || 'none'}).` };
+    if (!barAt.get(t.station)) return { ok: false, message: `Station ${t.station} is left empty this cycle; tick only stations with a bar.` };
+    if (t.clamped && !t.loaded) return { ok: false, message: `Station ${t.station} is ticked clamped but not loaded; tick it loaded first.` };
+    const before = next.get(t.station);
+    if ((before?.loaded ?? false) !== t.loaded || (before?.clamped ?? false) !== t.clamped) changed.push(t);
+    if (t.loaded || t.clamped) next.set(t.station, { station: t.station, loaded: t.loaded, clamped: t.clamped });
+    else next.delete(t.station);
+  }
+  return { ok: true, ticks: [...next.values()].sort((a, b) => a.station - b.station), changed };
 }

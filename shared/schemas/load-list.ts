@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { ROW_ID_MAX, TOO_LARGE_ID } from './common';
+import { LIMITS } from './limits';
 
 /** The load list of a job's cycle (shared/clamps/load-list.ts): one setting per jaw rail, one bar per station. */
 export const LoadListStationSchema = z.object({
@@ -22,6 +23,40 @@ export const LoadListInputSchema = z.object({
 });
 export type LoadListInput = z.infer<typeof LoadListInputSchema>;
 
+/** One station's ticks at the machine: the bar is in the station, and the clamp is tightened on it. */
+const STATION_NUMBER = 'A station number is a whole number from 1 up, as the load list shows it.';
+export const LoadListTickSchema = z.object({
+  station: z.number({ message: STATION_NUMBER }).int(STATION_NUMBER).min(1, STATION_NUMBER).max(ROW_ID_MAX, TOO_LARGE_ID),
+  loaded: z.boolean({ message: 'Send loaded as true or false.' }),
+  clamped: z.boolean({ message: 'Send clamped as true or false.' }),
+});
+export type LoadListTick = z.infer<typeof LoadListTickSchema>;
+
+/**
+ * Ticks for the stations named (the others keep theirs), made on the load list the operator sees:
+ * its stock check and revision, so a tick never lands on a list that changed meanwhile.
+ */
+export const LoadListTicksInputSchema = z.object({
+  /** The ticks' revision the operator read (0 before the first tick on this list). */
+  revision: z.number().int().min(0).max(ROW_ID_MAX, TOO_LARGE_ID),
+  /** The load list ticked: its stock check and its revision, as GET answered them. */
+  stockCheckId: z.number().int().min(1).max(ROW_ID_MAX, TOO_LARGE_ID),
+  listRevision: z.number().int().min(0).max(ROW_ID_MAX, TOO_LARGE_ID),
+  stations: z.array(LoadListTickSchema).min(1, 'Name at least one station to tick.').max(LIMITS.stations, `Tick at most ${LIMITS.stations} stations at once.`),
+});
+export type LoadListTicksInput = z.infer<typeof LoadListTicksInputSchema>;
+
+/** The ticks kept for the load list as it stands; none (revision 0) once the list changes. */
+export const LoadListTicksSchema = z.object({
+  revision: z.number().int(),
+  /** Only stations with a tick, ascending. */
+  stations: z.array(LoadListTickSchema),
+  /** When and by whom the last tick was made, or null before the first. */
+  at: z.string().nullable(),
+  by: z.string().nullable(),
+});
+export type LoadListTicks = z.infer<typeof LoadListTicksSchema>;
+
 export const LoadListSchema = z.object({
   /** True when nothing is stored yet and this is Gridset's proposal. */
   proposed: z.boolean(),
@@ -31,6 +66,8 @@ export const LoadListSchema = z.object({
   rails: z.array(LoadListRailSchema.extend({ targetOpening: z.number(), room: z.number(), shift: z.number() })),
   /** Station numbers with no bar this cycle, ascending. */
   emptyStations: z.array(z.number().int()),
+  /** Loaded and clamped ticks of this list at the machine; cleared when a new check or an edit changes the list. */
+  ticks: LoadListTicksSchema,
 });
 export type LoadList = z.infer<typeof LoadListSchema>;
 

@@ -77,6 +77,14 @@ export async function apiStatus(page: Page, baseUrl: string, method: 'post' | 'p
   return res.status();
 }
 
+/** A JSON call with the page's own session and CSRF token; the answer's body (a non-2xx answer throws with its text). */
+export async function apiJson(page: Page, baseUrl: string, method: 'GET' | 'POST' | 'PUT', url: string, data?: object) {
+  const token = (await (await page.request.get(`${baseUrl}/api/auth/csrf`)).json()).token as string;
+  const res = await page.request.fetch(`${baseUrl}${url}`, { method, data, headers: { 'X-CSRF-Token': token } });
+  if (!res.ok()) throw new Error(`${method} ${url} answered ${res.status()}: ${await res.text()}`);
+  return res.json();
+}
+
 /**
  * Every element that reaches past the right edge of the screen (or the page scrolling sideways),
  * named by tag, id and first classes: empty when a page fits a phone. Elements inside a scroller

@@ -1,19 +1,14 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
 import ExcelJS from 'exceljs';
-import { elementsWiderThanScreen, startE2E, type E2E } from './browser';
+import { apiJson, elementsWiderThanScreen, startE2E, type E2E } from './browser';
 
 let e2e: E2E;
 beforeAll(async () => { e2e = await startE2E(); });
 afterAll(async () => { await e2e?.close(); });
 
 /** A JSON call with the page's own session and CSRF token; the answer's body. */
-async function call(page: Page, method: 'GET' | 'POST' | 'PUT', url: string, data?: object) {
-  const token = (await (await page.request.get(`${e2e.baseUrl}/api/auth/csrf`)).json()).token as string;
-  const res = await page.request.fetch(`${e2e.baseUrl}${url}`, { method, data, headers: { 'X-CSRF-Token': token } });
-  expect(res.ok(), `${method} ${url}: ${await res.text()}`).toBe(true);
-  return res.json();
-}
+const call = (page: Page, method: 'GET' | 'POST' | 'PUT', url: string, data?: object) => apiJson(page, e2e.baseUrl, method, url, data);
 
 /** Elements whose box is wider than the viewport or reaches past its right edge (the page would scroll sideways). */
 

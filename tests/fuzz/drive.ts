@@ -150,6 +150,8 @@ export async function buildCases(t: TestApp, a: Agent, perRoute: number, seed: n
   jsonRoute('POST /api/templates/:id/versions', 'post', () => '/api/templates/1/versions', () => ({ from: 1 }));
   const loadList = await get(`/api/jobs/${job.id}/load-list`);
   jsonRoute('PUT /api/jobs/:id/load-list', 'put', () => `/api/jobs/${job.id}/load-list`, () => ({ rails: loadList.rails.map((r: { jawPlacement: string; setting: number; stations: unknown[] }) => ({ jawPlacement: r.jawPlacement, setting: r.setting, stations: r.stations })) }));
+  const firstLoaded = loadList.rails.flatMap((r: { stations: { station: number; bar: string | null }[] }) => r.stations).find((st: { bar: string | null }) => st.bar);
+  jsonRoute('PUT /api/jobs/:id/load-list/ticks', 'put', () => `/api/jobs/${job.id}/load-list/ticks`, () => ({ revision: loadList.ticks.revision, stockCheckId: loadList.stockCheckId, listRevision: loadList.revision, stations: [{ station: firstLoaded?.station ?? 1, loaded: true, clamped: false }] }));
   // The G-code downloads read only their query: every answer a file or a 4xx, never a 5xx.
   const queryRoute = (name: string, url: string) => routes.push({ name, named: [], make: () => ({ route: name, label: 'query', send: (ag) => ag.get(`${url}?${hostileQuery(rng)}`) }) });
   queryRoute('GET /api/templates/:id/versions/:n/offsets.nc', '/api/templates/1/versions/1/offsets.nc');

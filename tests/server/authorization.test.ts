@@ -78,6 +78,7 @@ const EXPECTED: Record<string, typeof PUBLIC | typeof SIGNED_IN | Action> = {
   'GET /jobs/:id/load-list': SIGNED_IN,
   'GET /admin/backup': 'backups',
   'PUT /jobs/:id/load-list': 'editLoadLists',
+  'PUT /jobs/:id/load-list/ticks': 'editLoadLists',
   'GET /jobs/:id/setup-sheet.html': SIGNED_IN,
   'GET /jobs/:id/package.zip': SIGNED_IN,
   'GET /jobs/:id/drawing.svg': SIGNED_IN,

@@ -1,5 +1,5 @@
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
-import { makeTestApp, tableCounts, type Agent, type TestApp } from './test-app';
+import { allRows, makeTestApp, tableCounts, type Agent, type TestApp } from './test-app';
 
 /**
  * The load list of the demo job: its latest stock check (10 measured bars on both rails the job
@@ -102,5 +102,89 @@ describe('the load list', () => {
     expect(res.body.proposed).toBe(true);
     const bars = res.body.rails.flatMap((r: { stations: { bar: string | null }[] }) => r.stations.map((s) => s.bar)).filter(Boolean);
     expect(bars).toEqual(['N1']);
+  });
+});
+
+type Tick = { station: number; loaded: boolean; clamped: boolean };
+type ListBody = { revision: number; stockCheckId: number; rails: { stations: { station: number; bar: string | null }[] }[]; emptyStations: number[]; ticks: { revision: number; stations: Tick[] } };
+const ticksOf = (l: ListBody) => ({ revision: l.ticks.revision, stockCheckId: l.stockCheckId, listRevision: l.revision });
+const loadedStations = (l: ListBody) => l.rails.flatMap((r) => r.stations).filter((s) => s.bar).map((s) => s.station);
+
+/**
+ * Ticks at the machine: each station with a bar ticked loaded, then clamped (common practice: the
+ * clamp is tightened on a bar already in place), kept with the job for the list they were made on.
+ */
+describe('the load list ticks', () => {
+  it('keeps loaded and clamped per station, audited, and refuses a stale revision', async () => {
+    const list: ListBody = (await operator.get(`/api/jobs/${jobId}/load-list`).expect(200)).body;
+    expect(list.ticks).toEqual({ revision: 0, stations: [], at: null, by: null });
+    const [a, b] = loadedStations(list);
+    expect(b).toBeDefined();
+    const auditBefore = (await tableCounts(t.db, ['audit'])).audit!;
+    const one = await operator.put(`/api/jobs/${jobId}/load-list/ticks`, { ...ticksOf(list), stations: [{ station: a, loaded: true, clamped: false }] }).expect(200);
+    expect(one.body.ticks.revision).toBe(1);
+    expect(one.body.ticks.stations).toEqual([{ station: a, loaded: true, clamped: false }]);
+    const two = await operator.put(`/api/jobs/${jobId}/load-list/ticks`, { ...ticksOf(one.body), stations: [{ station: b, loaded: true, clamped: true }] }).expect(200);
+    // The stations not named keep their ticks.
+    expect(two.body.ticks.stations).toEqual([{ station: a!, loaded: true, clamped: false }, { station: b!, loaded: true, clamped: true }].sort((x, y) => x.station - y.station));
+    const again: ListBody = (await reviewer.get(`/api/jobs/${jobId}/load-list`).expect(200)).body;
+    expect(again.ticks).toMatchObject({ revision: 2, stations: two.body.ticks.stations, by: expect.any(String) });
+    const lines = (await allRows(t.db, 'audit')).filter((r: { action: string }) => r.action === 'job.load-list-ticks');
+    expect(lines).toHaveLength(2);
+    expect((await tableCounts(t.db, ['audit'])).audit).toBe(auditBefore + 2);
+
+    const before = await tableCounts(t.db, ['job_load_list_ticks', 'audit']);
+    const stale = await operator.put(`/api/jobs/${jobId}/load-list/ticks`, { ...ticksOf(one.body), stations: [{ station: a, loaded: false, clamped: false }] });
+    expect(stale.status).toBe(409);
+    expect(stale.body.error.message).toMatch(/reload it and tick again\.$/);
+    expect(await tableCounts(t.db, ['job_load_list_ticks', 'audit'])).toEqual(before);
+    // The reviewer reads the ticks but does not make them (README Roles table: load lists: edit).
+    expect((await reviewer.put(`/api/jobs/${jobId}/load-list/ticks`, { ...ticksOf(again), stations: [{ station: a, loaded: false, clamped: false }] })).status).toBe(403);
+  });
+
+  it('answers a sentence for a tick it cannot keep, and writes nothing', async () => {
+    const list: ListBody = (await operator.get(`/api/jobs/${jobId}/load-list`)).body;
+    const [a] = loadedStations(list);
+    const all = list.rails.flatMap((r) => r.stations.map((s) => s.station));
+    const outside = Math.max(...all, ...used) + 1;
+    const before = await tableCounts(t.db, ['job_load_list_ticks', 'audit']);
+    const cases: [unknown[], RegExp][] = [
+      [[{ station: a, loaded: false, clamped: true }], new RegExp(`^Station ${a} is ticked clamped but not loaded`)],
+      [[{ station: a, loaded: true, clamped: false }, { station: a, loaded: true, clamped: true }], new RegExp(`^Station ${a} is ticked twice`)],
+      [[{ station: outside, loaded: true, clamped: false }], new RegExp(`^Station ${outside} is not in this load list`)],
+      [[{ station: 0, loaded: true, clamped: false }], /./],
+      [[{ station: 2 ** 31, loaded: true, clamped: false }], /./],
+      [[{ station: a, loaded: 'yes', clamped: false }], /./],
+      [[], /./],
+      [Array.from({ length: 20_001 }, (_, i) => ({ station: i + 1, loaded: true, clamped: false })), /./],
+    ];
+    if (list.emptyStations.length) cases.push([[{ station: list.emptyStations[0], loaded: true, clamped: false }], /is left empty this cycle/]);
+    for (const [stations, message] of cases) {
+      const res = await operator.put(`/api/jobs/${jobId}/load-list/ticks`, { ...ticksOf(list), stations });
+      expect(res.status, JSON.stringify(stations).slice(0, 80)).toBe(400);
+      expect(res.body.error.message).toMatch(message);
+      expect(res.body.error.message).toMatch(/\.$/);
+    }
+    expect(await tableCounts(t.db, ['job_load_list_ticks', 'audit'])).toEqual(before);
+  });
+
+  it('clears the ticks when the list changes: a kept edit or a new check; ticks sent for the old list answer 409', async () => {
+    const list: ListBody = (await operator.get(`/api/jobs/${jobId}/load-list`)).body;
+    const [a] = loadedStations(list);
+    const ticked = (await operator.put(`/api/jobs/${jobId}/load-list/ticks`, { ...ticksOf(list), stations: [{ station: a, loaded: true, clamped: true }] }).expect(200)).body;
+    // A kept edit (here the proposal kept as it is) is a new revision of the list.
+    const kept = (await operator.put(`/api/jobs/${jobId}/load-list`, { revision: list.revision, rails: (list.rails as unknown as { jawPlacement: string; setting: number; stations: unknown[] }[]).map((r) => ({ jawPlacement: r.jawPlacement, setting: r.setting, stations: r.stations })) }).expect(200)).body;
+    expect(kept.ticks).toEqual({ revision: 0, stations: [], at: null, by: null });
+    expect((await operator.get(`/api/jobs/${jobId}/load-list`)).body.ticks.stations).toEqual([]);
+    const old = await operator.put(`/api/jobs/${jobId}/load-list/ticks`, { ...ticksOf(ticked), stations: [{ station: a, loaded: false, clamped: false }] });
+    expect(old.status).toBe(409);
+    expect(old.body.error.message).toMatch(/^This load list changed after you opened it/);
+    // Ticked afresh on the kept list, then a new check: the ticks go again.
+    const fresh = (await operator.put(`/api/jobs/${jobId}/load-list/ticks`, { ...ticksOf(kept), stations: [{ station: a, loaded: true, clamped: false }] }).expect(200)).body;
+    expect(fresh.ticks.revision).toBe(1);
+    await operator.post(`/api/jobs/${jobId}/stock-check`, { bars: [{ id: 'N1', width: 1.0, thickness: 0.5, cornerRadius: 0.02 }] }).expect(200);
+    const after: ListBody = (await operator.get(`/api/jobs/${jobId}/load-list`)).body;
+    expect(after.ticks.stations).toEqual([]);
+    expect((await operator.put(`/api/jobs/${jobId}/load-list/ticks`, { ...ticksOf(fresh), stations: [{ station: a, loaded: true, clamped: false }] })).status).toBe(409);
   });
 });

@@ -4,8 +4,8 @@ import { z } from 'zod';
 import { UnitSchema, type Unit } from '../../../shared/schemas/common';
 import { JobDetailSchema, JobListSchema, JobStockCheckInputSchema, RailCheckSchema, type JobInput } from '../../../shared/schemas/job';
 import { StockCheckResponseSchema, type MeasuredBarInput } from '../../../shared/schemas/stock-check';
-import { api, uploadWithProgress } from '../../lib/api-client';
-import { LoadListSchema, type LoadListInput } from '../../../shared/schemas/load-list';
+import { api, ApiError, uploadWithProgress } from '../../lib/api-client';
+import { LoadListSchema, type LoadListInput, type LoadListTicksInput } from '../../../shared/schemas/load-list';
 
 export const jobKeys = {
   all: ['jobs'] as const,
@@ -111,6 +111,17 @@ export function useSaveLoadList(id: number) {
   return useMutation({
     mutationFn: (input: LoadListInput) => api.put(`/api/jobs/${id}/load-list`, input, LoadListSchema),
     onSuccess: (list) => qc.setQueryData(loadListQuery(id).queryKey, list),
+  });
+}
+
+/** Stations ticked loaded and clamped at the machine; a 409 (the list or its ticks changed) reloads the list. */
+export function useTickLoadList(id: number) {
+  const qc = useQueryClient();
+  return useMutation({
+    mutationFn: (input: LoadListTicksInput) => api.put(`/api/jobs/${id}/load-list/ticks`, input, LoadListSchema),
+    retry: false,
+    onSuccess: (list) => qc.setQueryData(loadListQuery(id).queryKey, list),
+    onError: (err) => { if (err instanceof ApiError && err.status === 409) void qc.invalidateQueries({ queryKey: loadListQuery(id).queryKey }); },
   });
 }
 

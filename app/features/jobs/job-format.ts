@@ -1,3 +1,8 @@
+import type { Unit } from '../../../shared/schemas/common';
+import type { LoadList } from '../../../shared/schemas/load-list';
+import { shiftInWords } from '../../../shared/clamps/shift-words';
+import { formatLength } from '../../../shared/units/units';
+
 /** Runtime as the shop reads it: whole minutes, and hours:minutes for the shift board ("270 min", "4:30"). */
 export function formatMinutes(minutes: number): string {
   const rounded = Math.round(minutes * 10) / 10;
@@ -21,4 +26,21 @@ export function stationRuns(numbers: readonly number[]): string {
     i = j + 1;
   }
   return runs.join(', ');
+}
+
+/**
+ * A rail setting's room said in words: how far the opening set may be from its target, either way,
+ * with every bar of that setting still inside its clamp window (room: rail-settings.ts, half the
+ * width of the bars' common window).
+ */
+export function roomInWords(room: string, zero: boolean): string {
+  return zero
+    ? 'no room either way: set the opening exactly to the target'
+    : `the opening may be up to ${room} smaller or larger than the target and every bar of this setting still fits`;
+}
+
+/** A rail's target opening and its room, in the words the operator sets it by (screen and print). */
+export function railSettingWords(r: LoadList['rails'][number], unit: Unit) {
+  const room = formatLength(r.room, unit);
+  return { target: formatLength(r.targetOpening, unit), room, shift: shiftInWords(r.shift, unit), roomWords: roomInWords(room, Number(room.split(' ')[0]) === 0) };
 }

@@ -7,7 +7,7 @@ import { jobFileUrl } from '../api';
 import { formatHoursMinutes, formatMinutes } from '../job-format';
 import { compareUrl } from './jobs-table';
 
-const linkClass = 'inline-flex min-h-10 items-center gap-2 rounded border border-slate-400 bg-white px-3 font-semibold text-slate-900 hover:bg-slate-100';
+const linkClass = 'inline-flex min-h-10 items-center gap-2 rounded border border-slate-400 bg-white px-3 font-semibold text-slate-900 hover:bg-slate-100 max-md:min-h-11 max-md:px-2 max-md:text-sm';
 
 /** Unattended runtime of one load: stations the job uses × cycle + load (common practice, shared/stations/runtime.ts). */
 export function RuntimeCard({ job }: { job: JobDetail }) {
@@ -80,5 +80,19 @@ export function NewerReleaseNotice({ job, canEdit }: { job: JobDetail; canEdit: 
         {canEdit ? ' before moving the job to it with Edit job.' : ' to see what changed; a programmer or lead decides whether the job moves.'}
       </p>
     </Notice>
+  );
+}
+
+/** The job in one short block at the top of its page: the stock, the stations used and the runtime of a load. */
+export function JobFactsLine({ job }: { job: JobDetail }) {
+  const u = job.unit;
+  const s = job.stock;
+  return (
+    <dl className="flex flex-wrap gap-x-5 gap-y-1 rounded border border-slate-300 bg-white px-4 py-2 text-slate-800" data-testid="job-facts-line">
+      <div className="flex gap-1"><dt className="text-slate-700">Stock</dt><dd className="font-mono [font-variant-numeric:tabular-nums]">{formatLength(s.width, u)} × {formatLength(s.thickness, u)}{s.material ? ` ${s.material}` : ''}</dd></div>
+      <div className="flex gap-1"><dt className="text-slate-700">Stations used</dt><dd className="num">{job.stationsUsed.length} of {job.stations}</dd></div>
+      <div className="flex gap-1"><dt className="text-slate-700">One load</dt><dd className="num">{formatMinutes(job.runtimeMinutes)}</dd></div>
+      <div className="flex gap-1"><dt className="text-slate-700">Checks</dt><dd className="num">{job.stockChecks.length}</dd></div>
+    </dl>
   );
 }
