@@ -1,7 +1,7 @@
-import { forwardRef, useEffect, useMemo, useRef, useState, type FormEvent } from 'react';
+import { forwardRef, useEffect, useMemo, useRef, useState } from 'react';
 import { Link, useParams } from 'react-router-dom';
 import { useQuery } from '@tanstack/react-query';
-import { Pencil, ScanLine } from 'lucide-react';
+import { Pencil } from 'lucide-react';
 import { STOCK_CHECK_ADVICE } from '../../shared/clamps/reason-text';
 import { may } from '../../shared/schemas/auth';
 import type { ClampModel } from '../../shared/schemas/catalog';
@@ -11,10 +11,9 @@ import { formatLength, formatNumber } from '../../shared/units/units';
 import { Page } from '../components/ui/page';
 import { Button } from '../components/ui/button';
 import { ErrorText, Notice } from '../components/ui/notice';
-import { ApiError } from '../lib/api-client';
 import { applyServerIssues } from '../lib/form-errors';
 import { useMe } from '../features/auth/api';
-import { useJob, useJobStockCheck, useUpdateJob } from '../features/jobs/api';
+import { useJob, useUpdateJob } from '../features/jobs/api';
 import { formatServerTime } from '../lib/server-time';
 import { checkedBeforeEdit, jobCheckRun, jobRails, railClamp, railOfCheck, type JobCheckRun, type JobRail } from '../features/jobs/job-rails';
 import { JobDrawing } from '../features/jobs/components/job-drawing';
@@ -27,11 +26,8 @@ import { PairingTable } from '../features/jobs/components/pairing-table';
 import { PartOutlineUpload } from '../features/jobs/components/part-outline-upload';
 import { PartProgramPanel } from '../features/jobs/components/part-program-panel';
 import { useTemplates, versionFileUrl, versionQuery } from '../features/templates/api';
-import { BarTable, barCellId, firstBarRows, tableIdRows, withPastedRows, type BarRow } from '../features/stock-check/components/bar-table';
-import { BarsPaste } from '../features/stock-check/components/bars-paste';
+import { JobBarsForm } from '../features/stock-check/components/job-bar-entry';
 import { BarByBar, StockCheckResults } from '../features/stock-check/components/stock-check-results';
-import { BAR_FIELDS, BAR_FIELD_LABEL, readBarTable, type BarField, type TableProblem } from '../features/stock-check/bar-cells';
-import type { PastedRow } from '../features/stock-check/parse-bars';
 
 const NO_TEMPLATES: TemplateSummary[] = [];
 
@@ -43,7 +39,6 @@ const jumpTargets = (checked: boolean) => [
   { id: 'job-facts', label: 'Stock and runtime' },
   { id: 'part-program', label: 'Part program' },
 ];
-const SHOWN_PROBLEMS = 12;
 
 /**
  * One screen, one job: where the part sits at every station, how long a load runs, which bars go
@@ -146,7 +141,6 @@ function StockCheckSection({ job, version, canRecord }: { job: JobDetail; versio
     const part = selected && latest ? railOfCheck(latest, selected.jawPlacement) : null;
     return selected && clamp && latest && part ? jobCheckRun(job, { ...latest, ...part }, railFor(selected, clamp)) : null;
   }, [job, latest, selected, clamp]);
-  const checkable = rails.filter(usable);
   const resultsHeading = useRef<HTMLHeadingElement>(null);
   const [focusCheck, setFocusCheck] = useState<number | null>(null);
 
@@ -170,7 +164,12 @@ function StockCheckSection({ job, version, canRecord }: { job: JobDetail; versio
       {selected && clamp ? (
         <>
           <div className="grid grid-cols-1 items-start gap-6 xl:grid-cols-[minmax(0,31rem)_minmax(0,1fr)]">
-            {canRecord ? <BarsEntry job={job} rail={selected} clamp={clamp} checkable={checkable.map((r) => r.jawPlacement)} onChecked={() => setFocusCheck(latest?.id ?? -1)} /> : <p className="text-slate-700">Operators, programmers and leads record measured bars; your role reads the checks.</p>}
+            {canRecord ? (
+              <div className="flex min-w-0 flex-col gap-4">
+                <ClampWindowFacts job={job} rail={selected} clamp={clamp} />
+                <JobBarsForm job={job} onChecked={() => setFocusCheck(latest?.id ?? -1)} />
+              </div>
+            ) : <p className="text-slate-700">Operators, programmers and leads record measured bars; your role reads the checks.</p>}
             <section aria-label="Latest check" className="flex flex-col gap-4">
               {latest && run ? (
                 <LatestCheck ref={resultsHeading} job={job} rail={selected} check={latest} run={run} count={checks.length} />
@@ -228,64 +227,13 @@ function RailsCovered({ check }: { check: JobStockCheck }) {
   );
 }
 
-/** The measured bars, typed or pasted, posted with the chosen rail; problems shown on the cells that cause them. */
-function BarsEntry({ job, rail, clamp, checkable, onChecked }: { job: JobDetail; rail: JobRail; clamp: ClampModel; checkable: string[]; onChecked: () => void }) {
-  const [rows, setRows] = useState<BarRow[]>(firstBarRows);
-  const [problems, setProblems] = useState<TableProblem[]>([]);
-  const check = useJobStockCheck(job.id);
+/** The chosen rail's clamp window and the job's own settings, beside the bars they are checked with. */
+function ClampWindowFacts({ job, rail, clamp }: { job: JobDetail; rail: JobRail; clamp: ClampModel }) {
   const unit = job.unit;
-
-  const focusCell = (index: number, field: BarField) => {
-    const row = rows[index];
-    if (row) document.getElementById(barCellId(row.key, field))?.focus();
-  };
-
-  const submit = (e: FormEvent) => {
-    e.preventDefault();
-    const table = readBarTable(rows, unit);
-    if (!table.ok) {
-      setProblems(table.problems);
-      focusCell(table.problems[0]!.index, table.problems[0]!.field);
-      return;
-    }
-    if (table.bars.length === 0) {
-      setProblems([{ index: 0, field: 'width', message: 'No bars yet: type each bar in the table, or paste rows from a spreadsheet.' }]);
-      focusCell(0, 'width');
-      return;
-    }
-    setProblems([]);
-    onChecked();
-    // No rail named: the server checks every rail the job uses, each against its own clamp.
-    check.mutate({ bars: table.bars }, {
-      onError: (err) => {
-        if (!(err instanceof ApiError)) return;
-        // bars.3.width is the table row of bar 4.
-        const rowIssues: TableProblem[] = [];
-        for (const issue of err.issues) {
-          const m = /^bars\.(\d+)\.(\w+)$/.exec(issue.path);
-          const field = m?.[2] as BarField | undefined;
-          if (m && field && (BAR_FIELDS as readonly string[]).includes(field)) {
-            const index = table.rowOf[Number(m[1])] ?? 0;
-            rowIssues.push({ index, field, message: `row ${index + 1}, ${BAR_FIELD_LABEL[field]}: ${issue.message}` });
-          }
-        }
-        if (rowIssues.length > 0) setProblems(rowIssues);
-      },
-    });
-  };
-
-  const applyPaste = (pasted: PastedRow[], mode: 'replace' | 'append') => {
-    setRows((rs) => withPastedRows(rs, pasted, mode));
-    setProblems([]);
-  };
-
-  const tableIds = tableIdRows(rows);
-
   return (
-    <form noValidate onSubmit={submit} aria-labelledby="bars-entry-title" className="flex flex-col gap-4 rounded border border-slate-300 bg-white p-4">
-      <h3 id="bars-entry-title" className="text-lg font-semibold">Measured bars <span className="font-normal text-slate-700">— checked on {checkable.length === 1 ? 'rail' : 'rails'} <span className="font-mono">{checkable.join(', ')}</span></span></h3>
+    <section aria-label={`Clamp window of ${rail.jawPlacement}`} className="rounded border border-slate-300 bg-white p-3 sm:p-4">
       <p className="text-slate-700">Clamp window of <span className="font-mono font-semibold">{rail.jawPlacement}</span> <span className="font-mono">{rail.jawComponent}</span>, the rail shown:</p>
-      <dl className="grid grid-cols-[minmax(0,1fr)_auto] gap-x-4 gap-y-0.5 text-slate-800">
+      <dl className="mt-1 grid grid-cols-[minmax(0,1fr)_auto] gap-x-4 gap-y-0.5 text-slate-800">
         {([
           ['Nominal opening', formatLength(rail.width, unit)],
           ['Width window', `−${formatNumber(clamp.acceptBelow, unit)} / +${formatLength(clamp.acceptAbove, unit)}`],
@@ -297,22 +245,6 @@ function BarsEntry({ job, rail, clamp, checkable, onChecked }: { job: JobDetail;
           <div key={k} className="contents"><dt>{k}</dt><dd className="num">{v}</dd></div>
         ))}
       </dl>
-      <BarsPaste unit={unit} tableIds={tableIds} onApply={applyPaste} />
-      <BarTable rows={rows} onRowsChange={setRows} unit={unit} problems={problems}
-        onCellEdit={(index, field) => setProblems((ps) => (ps.some((p) => p.index === index && p.field === field) ? ps.filter((p) => !(p.index === index && p.field === field)) : ps))} />
-      {problems.length > 0 ? (
-        <div role="alert" className="rounded border-l-4 border-danger-700 bg-danger-50 p-3 text-danger-700">
-          <p className="font-semibold">{problems.length === 1 ? 'One cell needs fixing' : `${problems.length} cells need fixing`} before the check can run:</p>
-          <ul className="mt-1 list-disc pl-5 text-slate-900">{problems.slice(0, SHOWN_PROBLEMS).map((p, i) => <li key={i}>{p.message}</li>)}</ul>
-          {problems.length > SHOWN_PROBLEMS ? <p className="mt-1 text-slate-900">…and {problems.length - SHOWN_PROBLEMS} more.</p> : null}
-        </div>
-      ) : null}
-      <div className="sticky bottom-0 flex flex-col gap-2 border-t border-slate-300 bg-white py-3">
-        <ErrorText error={check.error} />
-        <Button type="submit" disabled={check.isPending} className="min-h-12 text-lg">
-          <ScanLine aria-hidden className="h-5 w-5" />{check.isPending ? 'Checking…' : checkable.length === 1 ? `Check the bars on ${checkable[0]}` : `Check the bars on all ${checkable.length} rails`}
-        </Button>
-      </div>
-    </form>
+    </section>
   );
 }
