@@ -5,6 +5,7 @@ import DxfParser from 'dxf-parser';
 import { parseString as parseDxfIndependent } from 'dxf';
 import { parse as parseSvg, type INode } from 'svgson';
 import JSZip from 'jszip';
+import { SaxesParser } from 'saxes';
 import { makeTestApp, type Agent, type TestApp, bodyBytes } from './test-app';
 import { runRs274, type Canon } from '../shared/rs274';
 import { generatePartProgram } from '../bench/generate-program';
@@ -41,6 +42,36 @@ const expectMark = (text: string | undefined, state: string, contentHash = hash)
   expect(text).toMatch(/NOT RELEASED/);
   expect(text).toContain(state.toUpperCase());
   expect(text).toContain(contentHash);
+};
+
+/** One element of the setup sheet as saxes read it: its name, attributes, its own text and its child elements. */
+interface El { name: string; attributes: Record<string, string>; text: string; children: El[] }
+/**
+ * The setup sheet read by saxes (the streaming XML reader exceljs depends on; no HTML reader is
+ * installed). React's renderToStaticMarkup writes well-formed markup (void elements closed, text and
+ * attributes escaped); the HTML5 doctype, which has no XML form (WHATWG HTML, "The DOCTYPE"), is
+ * dropped first. A sheet that is not well formed fails here.
+ */
+function readSheet(html: string): El {
+  expect(html.slice(0, 15).toLowerCase()).toBe('<!doctype html>');
+  const stack: El[] = [{ name: '#document', attributes: {}, text: '', children: [] }];
+  const parser = new SaxesParser();
+  parser.on('opentag', (tag) => {
+    const el: El = { name: tag.name, attributes: tag.attributes as Record<string, string>, text: '', children: [] };
+    stack.at(-1)!.children.push(el);
+    stack.push(el);
+  });
+  parser.on('text', (t) => { for (const el of stack) el.text += t; });
+  parser.on('closetag', () => { stack.pop(); });
+  parser.write(html.slice(15)).close();
+  return stack[0]!.children[0]!;
+}
+const child = (el: El, name: string) => el.children.find((c) => c.name === name)!;
+/** The sheet's draft mark: the first element in the body, the one that carries the mark's class. */
+const sheetMark = (html: string) => {
+  const body = child(readSheet(html), 'body');
+  const first = body.children[0]!;
+  return { first, marks: body.children.filter((c) => /\bdraft-mark\b/.test(c.attributes.class ?? '')), footer: child(body, 'footer'), title: child(child(readSheet(html), 'head'), 'title') };
 };
 
 const text = async (r: import('supertest').Test) => ((await bodyBytes(r).expect(200)).body as Buffer).toString('utf8');
@@ -161,6 +192,10 @@ describe('a job whose version was retired after it was made', () => {
     await programmer.http.post(`/api/jobs/${job.id}/part-program`).set('X-CSRF-Token', programmer.token).attach('file', Buffer.from(generatePartProgram(80)), 'part.nc').expect(200);
     const tools = [1, 2, 3, 4].map((n) => ({ t: n, z: 1 + n / 10, d: 0.25 }));
     const before = await text(operator.get(`/api/jobs/${job.id}/program.nc`));
+    const sheetBefore = sheetMark(await text(operator.get(`/api/jobs/${job.id}/setup-sheet.html`)));
+    expect(sheetBefore.marks).toEqual([]);
+    expect(sheetBefore.first.name).toBe('h1');
+    expect(sheetBefore.footer.text).not.toMatch(/NOT RELEASED/);
     expect(before).not.toMatch(/NOT RELEASED/);
     const v1 = (await operator.get('/api/templates/1/versions/1').expect(200)).body;
     await lead.post('/api/templates/1/versions/1/retire', {}).expect(200);
@@ -175,5 +210,18 @@ describe('a job whose version was retired after it was made', () => {
     const offsets = Object.keys(zip.files).find((n) => /^offsets-.*\.nc$/.test(n))!;
     expectMark((await zip.file(offsets)!.async('string')).split('\n').find((l) => l.startsWith('(')), 'retired', v1.contentHash);
     expectMark((await zip.file('stations.csv')!.async('string')).split('\r\n')[0], 'retired', v1.contentHash);
+    // The setup sheet, from its own address and from the package: the mark is the body's first element.
+    const retired = (await operator.get('/api/templates/1/versions/1').expect(200)).body;
+    expect(retired).toMatchObject({ state: 'retired', contentHash: v1.contentHash });
+    for (const html of [await text(operator.get(`/api/jobs/${job.id}/setup-sheet.html`)), await zip.file('setup-sheet.html')!.async('string')]) {
+      const sheet = sheetMark(html);
+      expect(sheet.marks).toHaveLength(1);
+      expect(sheet.first).toBe(sheet.marks[0]);
+      expectMark(sheet.first.text, retired.state, retired.contentHash);
+      expect(sheet.first.attributes).toMatchObject({ 'data-draft-state': retired.state, 'data-content-hash': retired.contentHash });
+      // Each printed page's foot and the document's title say it too.
+      expectMark(sheet.footer.text, retired.state, retired.contentHash);
+      expect(sheet.title.text).toMatch(/^NOT RELEASED/);
+    }
   });
 });
