@@ -6,6 +6,8 @@ import { parseString as parseDxfIndependent } from 'dxf';
 import { parse as parseSvg, type INode } from 'svgson';
 import JSZip from 'jszip';
 import { SaxesParser } from 'saxes';
+import { chromium, type Browser } from 'playwright-core';
+import { CHROMIUM_ARGS, CHROMIUM_PATH } from '../e2e/browser';
 import { makeTestApp, type Agent, type TestApp, bodyBytes } from './test-app';
 import { runRs274, type Canon } from '../shared/rs274';
 import { generatePartProgram } from '../bench/generate-program';
@@ -14,7 +16,8 @@ import { generatePartProgram } from '../bench/generate-program';
  * Files written from a version that is not released carry a mark at their top naming the state and
  * the content hash; a released version's files carry none. Each file is read back by a reader that is
  * not Gridset's: LinuxCNC's rs274 for G-code, exceljs for XLSX, csv-parse for CSV, dxf-parser and the
- * `dxf` package for DXF, svgson for SVG. The metric demo template's v1 is released; its v2 is a draft
+ * `dxf` package for DXF, svgson for SVG, and for the setup sheet saxes (as XML) and Chromium's HTML
+ * parser (DOMParser, the WHATWG HTML parsing algorithm). The metric demo template's v1 is released; its v2 is a draft
  * copied from it, so both hold the same stations and the same content hash, and the files differ only
  * by the mark.
  */
@@ -24,15 +27,16 @@ let programmer: Agent;
 let lead: Agent;
 let operator: Agent;
 let hash: string;
+let browser: Browser;
 beforeAll(async () => {
-  t = await makeTestApp();
+  [t, browser] = await Promise.all([makeTestApp(), chromium.launch({ executablePath: CHROMIUM_PATH, args: CHROMIUM_ARGS })]);
   [programmer, lead, operator] = await Promise.all([t.agent('programmer'), t.agent('lead'), t.agent('operator')]);
   const draft = (await programmer.post('/api/templates/2/versions', { from: 1 }).expect(201)).body;
   expect(draft).toMatchObject({ version: 2, state: 'draft' });
   hash = draft.contentHash;
   expect((await operator.get('/api/templates/2/versions/1').expect(200)).body).toMatchObject({ state: 'released', contentHash: hash });
 }, 60_000);
-afterAll(async () => { await t.close(); });
+afterAll(async () => { await Promise.all([t?.close(), browser?.close()]); });
 
 const DRAFT = '/api/templates/2/versions/2';
 const RELEASED = '/api/templates/2/versions/1';
@@ -223,5 +227,60 @@ describe('a job whose version was retired after it was made', () => {
       expectMark(sheet.footer.text, retired.state, retired.contentHash);
       expect(sheet.title.text).toMatch(/^NOT RELEASED/);
     }
+  });
+});
+
+/** A job on version 1 of a demo template (the released one), stock in the template's unit. */
+const newJob = async (templateId: number, stock: { width: number; thickness: number; length: number }, fit: { carrier: number; clearance: number; minBite: number }) =>
+  (await programmer.post('/api/jobs', {
+    name: `Run on template ${templateId}`, partNumber: `BR-100${templateId}`, partRevision: 'B', templateId, version: 1,
+    stock: { ...stock, material: '6061-T6' }, ...fit, cycleMinutes: 13, loadMinutes: 10,
+  }).expect(201)).body as { id: number };
+
+/**
+ * What Chromium's HTML parser finds in a setup sheet: the body's first element, the banner (if any)
+ * with its text and data attributes, the title and the footer. The page is parsed with DOMParser
+ * (scripts off in a parsed document), never loaded, so nothing of it runs or fetches.
+ */
+interface SheetRead { first: string; banner: { text: string; state: string | null; hash: string | null } | null; title: string; footer: string; marks: number }
+async function parseInChromium(html: string): Promise<SheetRead> {
+  const page = await browser.newPage();
+  try {
+    return await page.evaluate((source) => {
+      const doc = new DOMParser().parseFromString(source, 'text/html');
+      const b = doc.querySelector('body > .draft-mark');
+      const text = (n: Element | null) => (n?.textContent ?? '').replace(/\s+/g, ' ').trim();
+      return {
+        first: doc.body.firstElementChild?.className || doc.body.firstElementChild?.tagName.toLowerCase() || '',
+        banner: b ? { text: text(b), state: b.getAttribute('data-draft-state'), hash: b.getAttribute('data-content-hash') } : null,
+        title: doc.title,
+        footer: text(doc.querySelector('footer')),
+        marks: (doc.body.textContent ?? '').split('NOT RELEASED').length - 1,
+      };
+    }, html);
+  } finally {
+    await page.close();
+  }
+}
+
+describe('the job setup sheet, read back by Chromium\'s HTML parser', () => {
+  it('carries no mark while its version is released, and a banner first in the page once the version is retired', async () => {
+    const job = await newJob(2, { width: 20, thickness: 10, length: 60 }, { carrier: 5, clearance: 0.8, minBite: 1.5 });
+    const url = `/api/jobs/${job.id}/setup-sheet.html`;
+    const released = await parseInChromium(await text(operator.get(url)));
+    expect(released.banner).toBeNull();
+    expect(released.marks).toBe(0);
+    expect(released.first).toBe('h1');
+    // The version as the API answers it, after the lead retires it (the lifecycle's one path to a state change).
+    await lead.post('/api/templates/2/versions/1/retire', {}).expect(200);
+    const v = (await operator.get(RELEASED).expect(200)).body as { state: string; contentHash: string };
+    expect(v.state).toBe('retired');
+    const retired = await parseInChromium(await text(operator.get(url)));
+    expect(retired.first).toBe('draft-mark');
+    expectMark(retired.banner?.text, v.state, v.contentHash);
+    expect(retired.banner).toMatchObject({ state: v.state, hash: v.contentHash });
+    expect(retired.title).toMatch(/^NOT RELEASED/);
+    // On paper the footer repeats at the foot of each page (position: fixed in print), so it carries the mark too.
+    expectMark(retired.footer, v.state, v.contentHash);
   });
 });
