@@ -90,7 +90,7 @@ export function PartOutlineUpload({ job }: { job: JobDetail }) {
     setProblem(null);
     setDone(null);
     if (!file || !inspection) {
-      setProblem(file && inspect.isPending ? 'Wait until the drawing has been read.' : 'Choose the part’s DXF file first.');
+      setProblem(!file ? 'Choose the part’s DXF file first.' : inspect.isPending ? 'Wait until the drawing has been read.' : 'Choose another DXF file: this one could not be read (see above).');
       if (!file) input.current?.focus();
       return;
     }
