@@ -1,4 +1,4 @@
-import { useRef, useState } from 'react';
+import { useState } from 'react';
 import { Link, useNavigate } from 'react-router-dom';
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
@@ -6,6 +6,7 @@ import { may } from '../../shared/schemas/auth';
 import { CreateTemplateInputSchema, type CreateTemplateInput, type TemplateSummary } from '../../shared/schemas/template-api';
 import { Page } from '../components/ui/page';
 import { Button } from '../components/ui/button';
+import { FilePicker } from '../components/ui/file-picker';
 import { SelectField, TextField } from '../components/ui/field';
 import { DataTable, columnHelperFor } from '../components/ui/data-table';
 import { ErrorText } from '../components/ui/notice';
@@ -70,7 +71,6 @@ function NewTemplateForm() {
 function ImportTemplate() {
   const importer = useImportTemplate();
   const navigate = useNavigate();
-  const input = useRef<HTMLInputElement>(null);
   const [readError, setReadError] = useState<string | null>(null);
   const onFile = async (file: File | undefined) => {
     setReadError(null);
@@ -89,7 +89,7 @@ function ImportTemplate() {
     <div className="flex flex-col gap-3 rounded border border-slate-300 bg-white p-4">
       <h2 className="text-lg font-semibold">Import a template.json</h2>
       <p className="text-slate-700">The file becomes a new template whose version 1 is a draft; its stations are recomputed.</p>
-      <input ref={input} type="file" accept="application/json,.json" aria-label="template.json file" className="min-h-10" onChange={(e) => onFile(e.target.files?.[0])} />
+      <FilePicker label="template.json file" buttonLabel="Choose a template.json" accept="application/json,.json" onFile={(f) => void onFile(f)} />
       {readError ? <ErrorText error={readError} /> : <ErrorText error={importer.error} />}
       {issues?.length ? <ul className="list-disc pl-6 text-sm text-danger-700">{issues.slice(0, 10).map((i) => <li key={i.pointer + i.message}><span className="font-mono">{i.pointer}</span> {i.message}</li>)}</ul> : null}
     </div>

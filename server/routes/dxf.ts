@@ -2,7 +2,7 @@ import { z } from 'zod';
 import { CAN } from '../../shared/schemas/auth';
 import { IdParamSchema, UnitSchema } from '../../shared/schemas/common';
 import { LIMITS } from '../../shared/schemas/limits';
-import { InspectedOutlineInputSchema } from '../../shared/schemas/dxf-inspection';
+import { InspectedOutlineInputSchema, InspectedPartOutlineInputSchema } from '../../shared/schemas/dxf-inspection';
 import { currentUser } from '../middleware/auth';
 import { singleFileUpload, usingUpload } from '../middleware/upload';
 import { keepOriginal } from '../services/dxf-uploads';
@@ -53,5 +53,11 @@ export function dxfRoutes(deps: { dataDir: string; files: FileStore; uploadLimit
       await keepOriginal(files, file.path, sha256);
       res.json(await jobs.setPartOutline(currentUser(req), id, outline, { name: file.originalname, size: file.size, sha256, unit, datum }));
     }) },
+    // The part outline of a drawing POST /dxf/inspect read a moment ago, named by its SHA-256: the file is sent once.
+    { method: 'post', path: '/jobs/:id/outline/from-inspection', access: CAN.editJobs, handler: async (req, res) => {
+      const { id } = parseOr400(IdParamSchema, req.params, 'address');
+      const input = parseOr400(InspectedPartOutlineInputSchema, req.body, 'part outline from the inspected drawing');
+      res.json(await outlines.storeInspectedPart(currentUser(req), id, input));
+    } },
   ];
 }

@@ -5,11 +5,12 @@
  */
 import type { Unit } from '../../shared/schemas/common';
 import type { Outline } from '../../shared/schemas/geometry';
-import type { InspectedOutlineInput } from '../../shared/schemas/dxf-inspection';
+import type { InspectedOutlineInput, InspectedPartOutlineInput } from '../../shared/schemas/dxf-inspection';
 import type { FileStore } from '../storage/file-store';
 import type { WorkerPool } from '../workers/pool';
 import type { CatalogService } from './catalog';
 import type { JobsService } from './jobs';
+import type { User } from '../../shared/schemas/auth';
 import type { NamingService } from './naming';
 import { keepOriginal, mapLayers } from './dxf-uploads';
 import { inspectedUploads } from './inspected-uploads';
@@ -31,6 +32,12 @@ export function outlineImportService(deps: { workers: WorkerPool; naming: Naming
     const read = await workers.run('dxf-outline', { path: file.path, fileUnit: f.unit ?? null, targetUnit: component.unit, datum: { x: f.datumX, y: f.datumY }, datumDefault: 'origin' });
     const convention = await naming.current();
     return { ...read, outline: mapLayers(convention.layer, read.outline, f.layerMap) };
+  }
+
+  /** A job's part outline; its datum corner defaults to the lower-left corner of the extents, the corner that sits against the stop. */
+  async function jobOutline(id: number, file: UploadedFile, f: OutlineFields): Promise<OutlineRead> {
+    const job = await jobs.detail(id);
+    return workers.run('dxf-outline', { path: file.path, fileUnit: f.unit ?? null, targetUnit: job.unit, datum: { x: f.datumX, y: f.datumY }, datumDefault: 'extents' });
   }
 
   return {
@@ -57,10 +64,18 @@ export function outlineImportService(deps: { workers: WorkerPool; naming: Naming
       });
     },
     componentOutline,
-    /** A job's part outline; its datum corner defaults to the lower-left corner of the extents, the corner that sits against the stop. */
-    async jobOutline(id: number, file: UploadedFile, f: OutlineFields): Promise<OutlineRead> {
-      const job = await jobs.detail(id);
-      return workers.run('dxf-outline', { path: file.path, fileUnit: f.unit ?? null, targetUnit: job.unit, datum: { x: f.datumX, y: f.datumY }, datumDefault: 'extents' });
+    jobOutline,
+    /**
+     * POST /api/jobs/:id/outline/from-inspection: the part outline of a file inspected a moment ago,
+     * read again from the kept copy with the user's choices, its original kept and the outline stored.
+     */
+    async storeInspectedPart(user: User, id: number, input: InspectedPartOutlineInput) {
+      const { sha256, name, ...fields } = input;
+      return inspected.using(sha256, async (file) => {
+        const read = await jobOutline(id, file, fields);
+        await keepOriginal(files, file.path, read.sha256);
+        return jobs.setPartOutline(user, id, read.outline, { name, size: file.size, sha256: read.sha256, unit: read.unit, datum: read.datum });
+      });
     },
   };
 }

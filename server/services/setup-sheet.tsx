@@ -11,6 +11,7 @@ import type { TemplateVersion } from '../../shared/schemas/template-api';
 import { componentLayer } from '../../shared/interchange/drawing-layers';
 import { formatLength, formatNumber } from '../../shared/units/units';
 import { reasonText, STOCK_CHECK_ADVICE } from '../../shared/clamps/reason-text';
+import { draftMark } from '../../shared/interchange/draft-mark';
 import { drawingToSvg } from '../dxf/drawing-svg';
 import { jobDrawing, unusedStations, usedVersion } from './job-drawing';
 
@@ -30,10 +31,16 @@ const STYLE = `
   .page { break-before: page; } svg { width: 100%; height: auto; max-height: 160mm; }
   .caution { border: 2px solid #000; padding: 6pt; margin-top: 10pt; } .box { display: inline-block; width: 10pt; height: 10pt; border: 1px solid #000; margin-right: 6pt; }
   table.signoff th { width: 16%; } table.signoff td { height: 28pt; width: 34%; }
-  footer { font-size: 8pt; border-top: 1px solid #000; padding-top: 2pt; margin-top: 12pt; }
-  /* On paper the footer repeats at the foot of every page; on screen it stays after the last line, never over a table. */
-  @media print { footer { position: fixed; bottom: 0; left: 0; right: 0; margin: 0; } }
+  .draft-mark { border: 3pt solid #000; padding: 6pt 8pt; margin: 0 0 10pt; font-weight: 700; font-size: 12pt; overflow-wrap: anywhere; }
+  .draft-mark span { display: block; font-size: 9pt; font-weight: 400; }
+  footer { font-size: 8pt; border-top: 1px solid #000; padding-top: 2pt; margin-top: 12pt; overflow-wrap: anywhere; }
+  /*
+   * The footer stays in the flow, after the last line, on screen and on paper, so it never lies over a
+   * table. On paper each page's foot also carries the version and hash in the page's own margin
+   * (CSS Paged Media Level 3, page-margin boxes), which page content cannot reach.
+   */
   @media screen { body { max-width: 60rem; margin: 1rem auto; padding: 0 1rem; } }
+  svg { max-width: 100%; } table { table-layout: auto; } td, th { overflow-wrap: anywhere; }
 `;
 
 type StockCheck = JobDetail['stockChecks'][number];
@@ -72,6 +79,33 @@ function StockCheckSection({ job, latest }: { job: JobDetail; latest: StockCheck
   );
 }
 
+/**
+ * A version that is not released says so first, in the same words as every other file written from it
+ * (shared/interchange/draft-mark.ts), on screen and at the head of the printed sheet.
+ */
+function DraftBanner({ v }: { v: TemplateVersion }) {
+  const mark = draftMark(v);
+  if (!mark) return null;
+  return (
+    <p className="draft-mark" role="note" data-draft-state={v.state} data-content-hash={v.contentHash}>
+      {mark}
+      <span>{`${v.name} version ${v.version} is ${v.state}, not released: do not set up production from this sheet.`}</span>
+    </p>
+  );
+}
+
+/**
+ * A CSS string literal (CSS Syntax Level 3, §4.3.5: a backslash and hex digits escape any code point).
+ * `<`, `>` and `&` are escaped too, so a typed name can never close the <style> element it sits in.
+ */
+const cssString = (s: string) => `"${s.replace(/["\\\n\r\f<>&]/g, (c) => `\\${c.charCodeAt(0).toString(16)} `)}"`;
+
+/** The foot of every printed page, in the page margin so it never covers a table (CSS Paged Media Level 3, §5 page-margin boxes). */
+function pageFoot(v: TemplateVersion, printed: string): string {
+  const text = `${draftMark(v) ?? `${v.name} v${v.version} · content hash ${v.contentHash}`} · printed ${printed}`;
+  return `\n  @page { margin-bottom: 16mm; @bottom-left { content: ${cssString(text)}; font: 7pt system-ui, sans-serif; } @bottom-right { content: "page " counter(page) " of " counter(pages); font: 7pt system-ui, sans-serif; } }\n`;
+}
+
 function offsetPlace(v: TemplateVersion): string {
   const o = v.sharedOffset;
   if (o.kind === 'hole') return `grid hole (${o.hole.col}, ${o.hole.row})`;
@@ -90,10 +124,11 @@ export function SetupSheet({ job, v, svg, printed }: { job: JobDetail; v: Templa
     <html lang="en">
       <head>
         <meta charSet="utf-8" />
-        <title>{`Setup sheet — ${job.name}`}</title>
-        <style dangerouslySetInnerHTML={{ __html: STYLE }} />
+        <title>{`${draftMark(v) ? 'NOT RELEASED · ' : ''}Setup sheet — ${job.name}`}</title>
+        <style dangerouslySetInnerHTML={{ __html: STYLE + pageFoot(v, printed) }} />
       </head>
       <body>
+        <DraftBanner v={v} />
         <h1>{`Setup sheet — ${job.name}`}</h1>
         <p>
           Part <b>{job.partNumber}</b>{job.partRevision ? ` rev ${job.partRevision}` : ''}{' · template '}<b>{v.name}</b>
@@ -155,7 +190,7 @@ export function SetupSheet({ job, v, svg, printed }: { job: JobDetail; v: Templa
           </tbody>
         </table>
         <div className="caution"><b>Cautions.</b><ul>{[...CAUTIONS, STOCK_CHECK_ADVICE].map((c) => <li key={c}>{c}</li>)}</ul></div>
-        <footer>{`${v.name} v${v.version} · content hash ${v.contentHash} · printed ${printed} · Gridset`}</footer>
+        <footer>{`${draftMark(v) ?? `${v.name} v${v.version} · content hash ${v.contentHash}`} · printed ${printed} · Gridset`}</footer>
       </body>
     </html>
   );

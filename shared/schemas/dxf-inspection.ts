@@ -85,3 +85,11 @@ export const NamingRefusalSchema = z.object({
   layers: z.array(z.object({ layer: z.string(), problems: z.array(NamingProblemSchema), proposed: z.string().nullable() })),
 });
 export type NamingRefusal = z.infer<typeof NamingRefusalSchema>;
+
+/**
+ * POST /api/jobs/:id/outline/from-inspection: a job's part outline from a file inspected a moment
+ * ago, named by its SHA-256. The same choices as the multipart POST /api/jobs/:id/outline (a part's
+ * layers are kept as drawn, so no layer map); the datum defaults to the lower-left corner of the extents.
+ */
+export const InspectedPartOutlineInputSchema = InspectedOutlineInputSchema.omit({ layerMap: true });
+export type InspectedPartOutlineInput = z.infer<typeof InspectedPartOutlineInputSchema>;

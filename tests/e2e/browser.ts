@@ -12,7 +12,7 @@ import type { Role } from '../../shared/schemas/auth';
 
 /** Debian's chromium, never a downloaded browser; flags keep it off this machine's closed network. */
 export const CHROMIUM_PATH = process.env.CHROMIUM_PATH ?? '/usr/bin/chromium';
-const CHROMIUM_ARGS = ['--headless', '--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update', '--no-first-run'];
+export const CHROMIUM_ARGS = ['--headless', '--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update', '--no-first-run'];
 
 export interface E2E {
   baseUrl: string;

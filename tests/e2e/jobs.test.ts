@@ -72,10 +72,14 @@ describe('jobs in a real browser', () => {
 
     // The outline: the file has no $INSUNITS, so the unit chosen here (in) is used.
     const upload = page.getByRole('form', { name: 'Part outline' });
+    // The file is sent once, to be read; the outline is then stored by the file's SHA-256 (JSON, no file).
+    const posts: string[] = [];
+    page.on('request', (r) => { if (r.method() === 'POST' && /\/api\/(dxf|jobs\/\d+\/outline)/.test(r.url())) posts.push(`${new URL(r.url()).pathname} ${r.headers()['content-type']?.split(';')[0]}`); });
     await upload.getByLabel('DXF file of the part').setInputFiles({ name: 'bracket.dxf', mimeType: 'application/dxf', buffer: Buffer.from(partDxf) });
     await upload.getByLabel('Drawing unit').selectOption('in');
     await upload.getByRole('button', { name: 'Upload the outline' }).click();
     await upload.getByText(/^bracket\.dxf read: \d+ paths? and 0 circles/).waitFor();
+    expect(posts).toEqual(['/api/dxf/inspect multipart/form-data', `/api/jobs/${stored.id}/outline/from-inspection application/json`]);
     const part = JSON.parse((await e2e.db('jobs').where({ id: stored.id }).first()).part_outline);
     const xs = part.paths.flatMap((p: { points: { x: number }[] }) => p.points.map((v) => v.x));
     // Datum at the lower-left corner of the extents: x from 0 to 2.5 in.

@@ -139,6 +139,9 @@ export async function buildCases(t: TestApp, a: Agent, perRoute: number, seed: n
   jsonRoute('POST /api/components/:id/outline/from-inspection', 'post', () => `/api/components/${component.id}/outline/from-inspection`,
     () => ({ sha256: inspected.sha256, name: 'a.dxf', unit: 'mm', datumX: 0, datumY: 0, layerMap: onOneLayer }),
     [['a hash never inspected', { sha256: 'f'.repeat(64), name: 'a.dxf' }], ['a path for a hash', { sha256: '../../gridset.sqlite', name: 'a.dxf' }]]);
+  jsonRoute('POST /api/jobs/:id/outline/from-inspection', 'post', () => `/api/jobs/${job.id}/outline/from-inspection`,
+    () => ({ sha256: inspected.sha256, name: 'a.dxf', unit: 'mm', datumX: 0, datumY: 0 }),
+    [['a hash never inspected', { sha256: 'f'.repeat(64), name: 'a.dxf' }], ['a path for a hash', { sha256: '../../gridset.sqlite', name: 'a.dxf' }]]);
   jsonRoute('POST /api/jobs/:id/stock-check', 'post', () => `/api/jobs/${job.id}/stock-check`, () => ({ bars }));
   jsonRoute('POST /api/stock-check', 'post', () => '/api/stock-check', () => stockBody);
   // Text cells as the bar table holds them; revision 0 succeeds once, then 409s (a refusal that must write nothing too).

@@ -92,6 +92,7 @@ const EXPECTED: Record<string, typeof PUBLIC | typeof SIGNED_IN | Action> = {
   'GET /components/:id/outline-file.dxf': SIGNED_IN,
   'GET /jobs/:id/part-file.dxf': SIGNED_IN,
   'POST /jobs/:id/outline': 'editJobs',
+  'POST /jobs/:id/outline/from-inspection': 'editJobs',
   'POST /jobs/:id/part-program': 'uploadPartPrograms',
   'GET /jobs/:id/program.nc': SIGNED_IN,
   'GET /jobs/:id/part-program.nc': SIGNED_IN,

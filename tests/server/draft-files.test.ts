@@ -5,6 +5,9 @@ import DxfParser from 'dxf-parser';
 import { parseString as parseDxfIndependent } from 'dxf';
 import { parse as parseSvg, type INode } from 'svgson';
 import JSZip from 'jszip';
+import { SaxesParser } from 'saxes';
+import { chromium, type Browser } from 'playwright-core';
+import { CHROMIUM_ARGS, CHROMIUM_PATH } from '../e2e/browser';
 import { makeTestApp, type Agent, type TestApp, bodyBytes } from './test-app';
 import { runRs274, type Canon } from '../shared/rs274';
 import { generatePartProgram } from '../bench/generate-program';
@@ -13,7 +16,8 @@ import { generatePartProgram } from '../bench/generate-program';
  * Files written from a version that is not released carry a mark at their top naming the state and
  * the content hash; a released version's files carry none. Each file is read back by a reader that is
  * not Gridset's: LinuxCNC's rs274 for G-code, exceljs for XLSX, csv-parse for CSV, dxf-parser and the
- * `dxf` package for DXF, svgson for SVG. The metric demo template's v1 is released; its v2 is a draft
+ * `dxf` package for DXF, svgson for SVG, and for the setup sheet saxes (as XML) and Chromium's HTML
+ * parser (DOMParser, the WHATWG HTML parsing algorithm). The metric demo template's v1 is released; its v2 is a draft
  * copied from it, so both hold the same stations and the same content hash, and the files differ only
  * by the mark.
  */
@@ -23,15 +27,16 @@ let programmer: Agent;
 let lead: Agent;
 let operator: Agent;
 let hash: string;
+let browser: Browser;
 beforeAll(async () => {
-  t = await makeTestApp();
+  [t, browser] = await Promise.all([makeTestApp(), chromium.launch({ executablePath: CHROMIUM_PATH, args: CHROMIUM_ARGS })]);
   [programmer, lead, operator] = await Promise.all([t.agent('programmer'), t.agent('lead'), t.agent('operator')]);
   const draft = (await programmer.post('/api/templates/2/versions', { from: 1 }).expect(201)).body;
   expect(draft).toMatchObject({ version: 2, state: 'draft' });
   hash = draft.contentHash;
   expect((await operator.get('/api/templates/2/versions/1').expect(200)).body).toMatchObject({ state: 'released', contentHash: hash });
 }, 60_000);
-afterAll(async () => { await t.close(); });
+afterAll(async () => { await Promise.all([t?.close(), browser?.close()]); });
 
 const DRAFT = '/api/templates/2/versions/2';
 const RELEASED = '/api/templates/2/versions/1';
@@ -41,6 +46,36 @@ const expectMark = (text: string | undefined, state: string, contentHash = hash)
   expect(text).toMatch(/NOT RELEASED/);
   expect(text).toContain(state.toUpperCase());
   expect(text).toContain(contentHash);
+};
+
+/** One element of the setup sheet as saxes read it: its name, attributes, its own text and its child elements. */
+interface El { name: string; attributes: Record<string, string>; text: string; children: El[] }
+/**
+ * The setup sheet read by saxes (the streaming XML reader exceljs depends on; no HTML reader is
+ * installed). React's renderToStaticMarkup writes well-formed markup (void elements closed, text and
+ * attributes escaped); the HTML5 doctype, which has no XML form (WHATWG HTML, "The DOCTYPE"), is
+ * dropped first. A sheet that is not well formed fails here.
+ */
+function readSheet(html: string): El {
+  expect(html.slice(0, 15).toLowerCase()).toBe('<!doctype html>');
+  const stack: El[] = [{ name: '#document', attributes: {}, text: '', children: [] }];
+  const parser = new SaxesParser();
+  parser.on('opentag', (tag) => {
+    const el: El = { name: tag.name, attributes: tag.attributes as Record<string, string>, text: '', children: [] };
+    stack.at(-1)!.children.push(el);
+    stack.push(el);
+  });
+  parser.on('text', (t) => { for (const el of stack) el.text += t; });
+  parser.on('closetag', () => { stack.pop(); });
+  parser.write(html.slice(15)).close();
+  return stack[0]!.children[0]!;
+}
+const child = (el: El, name: string) => el.children.find((c) => c.name === name)!;
+/** The sheet's draft mark: the first element in the body, the one that carries the mark's class. */
+const sheetMark = (html: string) => {
+  const body = child(readSheet(html), 'body');
+  const first = body.children[0]!;
+  return { first, marks: body.children.filter((c) => /\bdraft-mark\b/.test(c.attributes.class ?? '')), footer: child(body, 'footer'), title: child(child(readSheet(html), 'head'), 'title') };
 };
 
 const text = async (r: import('supertest').Test) => ((await bodyBytes(r).expect(200)).body as Buffer).toString('utf8');
@@ -161,6 +196,10 @@ describe('a job whose version was retired after it was made', () => {
     await programmer.http.post(`/api/jobs/${job.id}/part-program`).set('X-CSRF-Token', programmer.token).attach('file', Buffer.from(generatePartProgram(80)), 'part.nc').expect(200);
     const tools = [1, 2, 3, 4].map((n) => ({ t: n, z: 1 + n / 10, d: 0.25 }));
     const before = await text(operator.get(`/api/jobs/${job.id}/program.nc`));
+    const sheetBefore = sheetMark(await text(operator.get(`/api/jobs/${job.id}/setup-sheet.html`)));
+    expect(sheetBefore.marks).toEqual([]);
+    expect(sheetBefore.first.name).toBe('h1');
+    expect(sheetBefore.footer.text).not.toMatch(/NOT RELEASED/);
     expect(before).not.toMatch(/NOT RELEASED/);
     const v1 = (await operator.get('/api/templates/1/versions/1').expect(200)).body;
     await lead.post('/api/templates/1/versions/1/retire', {}).expect(200);
@@ -175,5 +214,73 @@ describe('a job whose version was retired after it was made', () => {
     const offsets = Object.keys(zip.files).find((n) => /^offsets-.*\.nc$/.test(n))!;
     expectMark((await zip.file(offsets)!.async('string')).split('\n').find((l) => l.startsWith('(')), 'retired', v1.contentHash);
     expectMark((await zip.file('stations.csv')!.async('string')).split('\r\n')[0], 'retired', v1.contentHash);
+    // The setup sheet, from its own address and from the package: the mark is the body's first element.
+    const retired = (await operator.get('/api/templates/1/versions/1').expect(200)).body;
+    expect(retired).toMatchObject({ state: 'retired', contentHash: v1.contentHash });
+    for (const html of [await text(operator.get(`/api/jobs/${job.id}/setup-sheet.html`)), await zip.file('setup-sheet.html')!.async('string')]) {
+      const sheet = sheetMark(html);
+      expect(sheet.marks).toHaveLength(1);
+      expect(sheet.first).toBe(sheet.marks[0]);
+      expectMark(sheet.first.text, retired.state, retired.contentHash);
+      expect(sheet.first.attributes).toMatchObject({ 'data-draft-state': retired.state, 'data-content-hash': retired.contentHash });
+      // Each printed page's foot and the document's title say it too.
+      expectMark(sheet.footer.text, retired.state, retired.contentHash);
+      expect(sheet.title.text).toMatch(/^NOT RELEASED/);
+    }
+  });
+});
+
+/** A job on version 1 of a demo template (the released one), stock in the template's unit. */
+const newJob = async (templateId: number, stock: { width: number; thickness: number; length: number }, fit: { carrier: number; clearance: number; minBite: number }) =>
+  (await programmer.post('/api/jobs', {
+    name: `Run on template ${templateId}`, partNumber: `BR-100${templateId}`, partRevision: 'B', templateId, version: 1,
+    stock: { ...stock, material: '6061-T6' }, ...fit, cycleMinutes: 13, loadMinutes: 10,
+  }).expect(201)).body as { id: number };
+
+/**
+ * What Chromium's HTML parser finds in a setup sheet: the body's first element, the banner (if any)
+ * with its text and data attributes, the title and the footer. The page is parsed with DOMParser
+ * (scripts off in a parsed document), never loaded, so nothing of it runs or fetches.
+ */
+interface SheetRead { first: string; banner: { text: string; state: string | null; hash: string | null } | null; title: string; footer: string; marks: number }
+async function parseInChromium(html: string): Promise<SheetRead> {
+  const page = await browser.newPage();
+  try {
+    return await page.evaluate((source) => {
+      const doc = new DOMParser().parseFromString(source, 'text/html');
+      const b = doc.querySelector('body > .draft-mark');
+      const text = (n: Element | null) => (n?.textContent ?? '').replace(/\s+/g, ' ').trim();
+      return {
+        first: doc.body.firstElementChild?.className || doc.body.firstElementChild?.tagName.toLowerCase() || '',
+        banner: b ? { text: text(b), state: b.getAttribute('data-draft-state'), hash: b.getAttribute('data-content-hash') } : null,
+        title: doc.title,
+        footer: text(doc.querySelector('footer')),
+        marks: (doc.body.textContent ?? '').split('NOT RELEASED').length - 1,
+      };
+    }, html);
+  } finally {
+    await page.close();
+  }
+}
+
+describe('the job setup sheet, read back by Chromium\'s HTML parser', () => {
+  it('carries no mark while its version is released, and a banner first in the page once the version is retired', async () => {
+    const job = await newJob(2, { width: 20, thickness: 10, length: 60 }, { carrier: 5, clearance: 0.8, minBite: 1.5 });
+    const url = `/api/jobs/${job.id}/setup-sheet.html`;
+    const released = await parseInChromium(await text(operator.get(url)));
+    expect(released.banner).toBeNull();
+    expect(released.marks).toBe(0);
+    expect(released.first).toBe('h1');
+    // The version as the API answers it, after the lead retires it (the lifecycle's one path to a state change).
+    await lead.post('/api/templates/2/versions/1/retire', {}).expect(200);
+    const v = (await operator.get(RELEASED).expect(200)).body as { state: string; contentHash: string };
+    expect(v.state).toBe('retired');
+    const retired = await parseInChromium(await text(operator.get(url)));
+    expect(retired.first).toBe('draft-mark');
+    expectMark(retired.banner?.text, v.state, v.contentHash);
+    expect(retired.banner).toMatchObject({ state: v.state, hash: v.contentHash });
+    expect(retired.title).toMatch(/^NOT RELEASED/);
+    // On paper the footer repeats at the foot of each page (position: fixed in print), so it carries the mark too.
+    expectMark(retired.footer, v.state, v.contentHash);
   });
 });

@@ -158,3 +158,63 @@ describe('the inspected drawing is sent once: POST /api/components/:id/outline/f
     }
   });
 });
+
+describe('a job\'s part outline from the inspected drawing: POST /api/jobs/:id/outline/from-inspection names it', () => {
+  const sha = (b: Buffer) => createHash('sha256').update(b).digest('hex'); // FIPS 180-4, by node:crypto
+  const job = {
+    name: 'Outline once', partNumber: 'OO-1', partRevision: 'A', templateId: 1, version: 1,
+    stock: { width: 1, thickness: 0.5, length: 2.75, material: '6061-T6' }, carrier: 0.25, clearance: 0.03, minBite: 0.06, cycleMinutes: 13, loadMinutes: 10,
+  };
+  const newJob = async () => (await lead.post('/api/jobs', job).expect(201)).body as { id: number; unit: string };
+  // tests/fixtures/facts.json, read with ezdxf: a 4 × 2 part whose right edge is a half circle, one circle at (2, 1) r 0.5, no $INSUNITS.
+  const fact = facts['dxf/part-outline-r12.dxf'];
+
+  it('stores the same outline as the multipart upload, and the second call carries JSON only, no file', async () => {
+    const file = fixture('part-outline-r12.dxf');
+    const inspected = await post('/api/dxf/inspect', file, 'part.dxf').expect(200);
+    expect(inspected.body.sha256).toBe(sha(file));
+    const [a, b] = [await newJob(), await newJob()];
+    expect(a.unit).toBe('in');
+    const choices = { unit: 'in', datumX: 0, datumY: 0 };
+    const body = { sha256: inspected.body.sha256, name: 'part.dxf', ...choices };
+    // The second call: a JSON body of a few dozen bytes (RFC 8259), not a multipart form carrying the drawing (RFC 7578).
+    const second = lead.http.post(`/api/jobs/${a.id}/outline/from-inspection`).set('X-CSRF-Token', lead.token).type('json').send(body);
+    const byName = await second.expect(200);
+    expect(Buffer.byteLength(JSON.stringify(body))).toBeLessThan(file.length / 4);
+    expect(second.get('Content-Type')).toMatch(/^application\/json/);
+    const byUpload = await post(`/api/jobs/${b.id}/outline`, file, 'part.dxf', { unit: 'in', datumX: '0', datumY: '0' }).expect(200);
+    expect(byName.body.partOutline).toEqual(byUpload.body.partOutline);
+    expect(byName.body.partFile).toEqual({ ...byUpload.body.partFile });
+    expect(byName.body.partFile).toMatchObject({ name: 'part.dxf', sha256: sha(file), size: file.length, unit: 'in', datum: { x: 0, y: 0 } });
+    // The circle where the other program drew it (datum at the drawing's origin, inches both sides).
+    const [cx, cy, r] = fact.circles[0]!;
+    expect(byName.body.partOutline.circles).toEqual([expect.objectContaining({ x: expect.closeTo(cx!, 9), y: expect.closeTo(cy!, 9), r: expect.closeTo(r!, 9) })]);
+    // A file sent along is not read: the route takes JSON only, so the form's fields are missing and it is refused.
+    const withFile = await post(`/api/jobs/${a.id}/outline/from-inspection`, file, 'part.dxf', { sha256: inspected.body.sha256, name: 'part.dxf' });
+    expect(withFile.status).toBe(400);
+    expect(readdirSync(path.join(t.dataDir, 'uploads', 'tmp'))).toEqual([]);
+  });
+
+  it('refuses a stale or unknown inspection (410) and a bad hash or field (400) with one sentence, writing nothing', async () => {
+    const { id } = await newJob();
+    const before = await tableCounts(t.db, ['jobs', 'audit']);
+    const sentence = /^\S[^\n]*\.$/; // one line ending in a full stop: the sentence that says what to fix (the error contract in README)
+    const gone = await lead.post(`/api/jobs/${id}/outline/from-inspection`, { sha256: sha(Buffer.from('never inspected')), name: 'x.dxf' });
+    expect(gone.status).toBe(410);
+    expect(gone.body.error.message).toMatch(/choose the file again/);
+    expect(gone.body.error.message).toMatch(sentence);
+    const badHash = await lead.post(`/api/jobs/${id}/outline/from-inspection`, { sha256: 'f'.repeat(63), name: 'x.dxf' });
+    expect(badHash.status).toBe(400);
+    expect(badHash.body.error.details.issues[0].path).toBe('sha256');
+    expect(badHash.body.error.details.issues[0].message).toMatch(sentence);
+    expect(badHash.body.error.message).toMatch(sentence);
+    const { sha256 } = (await post('/api/dxf/inspect', fixture('part-outline-r12.dxf')).expect(200)).body;
+    const badDatum = await lead.post(`/api/jobs/${id}/outline/from-inspection`, { sha256, name: 'x.dxf', datumX: 1e12, datumY: 0 });
+    expect(badDatum.status).toBe(400);
+    expect(badDatum.body.error.details.issues[0].path).toBe('datumX');
+    const noJob = await lead.post('/api/jobs/999999/outline/from-inspection', { sha256, name: 'x.dxf', unit: 'in' });
+    expect(noJob.status).toBe(404);
+    expect(await tableCounts(t.db, ['jobs', 'audit'])).toEqual(before);
+    expect((await lead.get(`/api/jobs/${id}`).expect(200)).body.partOutline).toBeNull();
+  });
+});

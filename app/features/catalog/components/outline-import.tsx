@@ -1,12 +1,13 @@
-import { useId, useMemo, useReducer, type ChangeEvent } from 'react';
-import { FileUp } from 'lucide-react';
+import { useId, useMemo, useReducer } from 'react';
 import type { Component } from '../../../../shared/schemas/catalog';
 import type { NamingRule } from '../../../../shared/schemas/naming';
 import { Button } from '../../../components/ui/button';
+import { FilePicker } from '../../../components/ui/file-picker';
 import { ErrorText, Notice } from '../../../components/ui/notice';
 import { ApiError } from '../../../lib/api-client';
 import { usePlates, useSaveComponent } from '../api';
-import { useInspectDxf, useStoreInspectedOutline } from '../outline-api';
+import { useStoreInspectedOutline } from '../outline-api';
+import { useInspectDxf } from '../../../lib/dxf-inspection';
 import { emptyImport, importReducer, type StoredWith } from '../outline-import-state';
 import { defaultRoles, groupCircles, layerMapFor, namingProblemsByFileLayer, progressText, targetName, type PlateHole } from '../outline-preview';
 import { CircleTables, dowelOrderOf, marksOf } from './outline-circles';
@@ -46,10 +47,7 @@ export function OutlineImport({ component, layerRule }: { component: Component; 
     saveDowels.reset();
   }
 
-  function pick(e: ChangeEvent<HTMLInputElement>) {
-    const f = e.target.files?.[0] ?? null;
-    e.target.value = ''; // so picking the same file again reads it again
-    if (!f) return;
+  function pick(f: File) {
     startOver();
     dispatch({ type: 'picked', file: { name: f.name, size: f.size } });
     inspect.mutate(
@@ -97,16 +95,13 @@ export function OutlineImport({ component, layerRule }: { component: Component; 
           <h2 id="outline-import" className="text-lg font-semibold">Outline from a drawing</h2>
           <p className="text-sm text-slate-600">Read a DXF of {component.code}: nothing is stored until you use the outline.</p>
         </div>
-        <label className="inline-flex min-h-10 cursor-pointer items-center gap-2 rounded bg-accent-700 px-4 py-2 font-semibold text-white focus-within:outline focus-within:outline-3 focus-within:outline-offset-2 focus-within:outline-accent-600 hover:bg-accent-800">
-          <FileUp aria-hidden className="h-5 w-5" />
-          <span>{file ? 'Choose another DXF file' : 'Choose a DXF file'}</span>
-          <input type="file" accept=".dxf,.DXF,application/dxf,image/vnd.dxf" className="sr-only" onChange={pick} aria-label="Choose a DXF file" />
-        </label>
+        <FilePicker label="Choose a DXF file" hideLabel variant="primary" accept=".dxf,.DXF,application/dxf,image/vnd.dxf" onFile={pick}
+          buttonLabel={file ? 'Choose another DXF file' : 'Choose a DXF file'} chosen={file?.name ?? null} />
       </div>
 
       {file ? (
         <p className="text-slate-800">
-          <span className="font-semibold">{file.name}</span> <span className="num inline-block text-slate-600">{(file.size / 1024).toFixed(1)} KiB</span>
+          <span className="num inline-block text-slate-600">{(file.size / 1024).toFixed(1)} KiB</span>
           {inspect.isPending ? <span role="status" className="ml-3 text-slate-700">{progressText(state.progress, 'Reading the drawing…')}</span> : null}
         </p>
       ) : null}

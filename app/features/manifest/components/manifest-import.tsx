@@ -1,6 +1,7 @@
 import { useState } from 'react';
 import { ArrowRight, Download, Upload } from 'lucide-react';
 import { Button } from '../../../components/ui/button';
+import { FilePicker } from '../../../components/ui/file-picker';
 import { ErrorText, Notice } from '../../../components/ui/notice';
 import { ApiError } from '../../../lib/api-client';
 import type { ManifestAnswer, ManifestChange } from '../../../../shared/schemas/manifest';
@@ -28,12 +29,11 @@ function FieldChanges({ change }: { change: ManifestChange }) {
 /**
  * The lead downloads the catalog as a workbook, edits it, and brings it back: every row is
  * checked and shown before one transaction writes it; with any error nothing is written.
- * Once imported, the preview and its button leave the screen (the file input is cleared too), so
+ * Once imported, the preview and its button leave the screen (the chosen file's name is cleared too), so
  * an old preview is never imported twice or read as still pending.
  */
 export function ManifestImport({ canWrite, onCommitted }: { canWrite: boolean; onCommitted: () => Promise<unknown> }) {
   const [file, setFile] = useState<File | null>(null);
-  const [inputKey, setInputKey] = useState(0);
   const [imported, setImported] = useState<string | null>(null);
   const [progress, setProgress] = useState(0);
   const preview = usePreviewManifest(setProgress);
@@ -47,7 +47,6 @@ export function ManifestImport({ canWrite, onCommitted }: { canWrite: boolean; o
       const n = done.changes.filter((c) => c.action !== 'same').length;
       setImported(`Imported ${n} change${n === 1 ? '' : 's'} from ${f.name}. The catalog now matches the manifest.`);
       setFile(null);
-      setInputKey((k) => k + 1);
       preview.reset();
     },
   });
@@ -58,10 +57,9 @@ export function ManifestImport({ canWrite, onCommitted }: { canWrite: boolean; o
       <div><a className="inline-flex min-h-10 items-center gap-2 rounded border border-slate-400 bg-white px-3 font-semibold hover:bg-slate-100" href="/api/manifest.xlsx" download><Download aria-hidden className="h-4 w-4" />Download the manifest</a></div>
       {canWrite ? (
         <>
-          <label className="flex flex-col gap-1 font-semibold text-slate-700">Bring back an edited manifest (.xlsx or .csv)
-            <input key={inputKey} type="file" accept=".xlsx,.csv,application/vnd.openxmlformats-officedocument.spreadsheetml.sheet,text/csv" className="font-normal"
-              onChange={(e) => { const f = e.target.files?.[0] ?? null; setFile(f); setImported(null); commit.reset(); if (f) preview.mutate(f); }} />
-          </label>
+          <FilePicker label="Bring back an edited manifest (.xlsx or .csv)" buttonLabel="Choose the workbook"
+            accept=".xlsx,.csv,application/vnd.openxmlformats-officedocument.spreadsheetml.sheet,text/csv" chosen={file?.name ?? null}
+            onFile={(f) => { setFile(f); setImported(null); commit.reset(); preview.mutate(f); }} />
           {preview.isPending || commit.isPending ? <progress className="w-64 max-w-full" max={1} value={progress} aria-label="Upload progress" /> : null}
           {imported ? <Notice tone="info" title={imported} /> : null}
           <ErrorText error={preview.error} />

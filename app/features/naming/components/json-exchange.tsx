@@ -1,6 +1,7 @@
 import { useId, useState } from 'react';
 import { Download, Upload } from 'lucide-react';
 import { Button } from '../../../components/ui/button';
+import { FilePicker } from '../../../components/ui/file-picker';
 import { inputClass } from '../../../components/ui/field';
 import { Notice } from '../../../components/ui/notice';
 import { loadRulesJson, rulesJson, type RulesDraft } from '../rule-draft';
@@ -17,7 +18,6 @@ export function JsonExchange({ rules, onLoad }: { rules: RulesDraft; onLoad: (ru
   const [text, setText] = useState('');
   const [message, setMessage] = useState<{ tone: 'danger' | 'info'; text: string } | null>(null);
   const areaId = useId();
-  const fileId = useId();
 
   const load = (source: string) => {
     const loaded = loadRulesJson(source);
@@ -55,10 +55,7 @@ export function JsonExchange({ rules, onLoad }: { rules: RulesDraft; onLoad: (ru
           <Button variant="secondary" onClick={() => { setText(rulesJson(rules)); setMessage(null); }}>Show the form's rules here</Button>
           <Button variant="secondary" onClick={download}><Download aria-hidden className="h-4 w-4" />Download as a file</Button>
         </div>
-        <div className="flex flex-col gap-1">
-          <label htmlFor={fileId} className="text-sm font-semibold text-slate-700">Or read a JSON file into the form</label>
-          <input id={fileId} type="file" accept=".json,application/json" className="min-h-10 max-w-full text-base" onChange={(e) => { void readFile(e.target.files?.[0]); e.target.value = ''; }} />
-        </div>
+        <FilePicker label="Or read a JSON file into the form" buttonLabel="Choose a JSON file" accept=".json,application/json" onFile={(f) => void readFile(f)} />
       </div>
     </details>
   );
