@@ -40,7 +40,18 @@ const STYLE = `
    * (CSS Paged Media Level 3, page-margin boxes), which page content cannot reach.
    */
   @media screen { body { max-width: 60rem; margin: 1rem auto; padding: 0 1rem; } }
-  svg { max-width: 100%; } table { table-layout: auto; } td, th { overflow-wrap: anywhere; }
+  svg { max-width: 100%; }
+  /*
+   * On a phone (DESIGN.md, "At the machine": nothing scrolled sideways) each row of a data table becomes a
+   * block of "label value" lines, the label from the cell's data-label; on paper and at a desk, a table.
+   */
+  @media screen and (max-width: 40rem) {
+    table:not(.signoff), table:not(.signoff) tbody, table:not(.signoff) tr, table:not(.signoff) td { display: block; }
+    table:not(.signoff) thead { display: none; }
+    table:not(.signoff) tr { border: 1px solid #555; margin-bottom: 6pt; padding: 2pt 0; }
+    table:not(.signoff) td { border: 0; display: flex; justify-content: space-between; gap: 8pt; text-align: right; white-space: normal; }
+    table:not(.signoff) td::before { content: attr(data-label); font-family: system-ui, sans-serif; font-weight: 600; text-align: left; }
+  }
 `;
 
 type StockCheck = JobDetail['stockChecks'][number];
@@ -63,7 +74,7 @@ function StockCheckSection({ job, latest }: { job: JobDetail; latest: StockCheck
             <thead><tr><th>Rail setting</th><th>Shift</th><th>Bars</th></tr></thead>
             <tbody>
               {r.result.settings.map((s, i) => (
-                <tr key={i}><td>{`Setting ${i + 1}`}</td><td className="n">{`${s.shift >= 0 ? '+' : ''}${formatLength(s.shift, latest.unit)}`}</td><td>{s.bars.join(', ')}</td></tr>
+                <tr key={i}><td data-label="Rail setting">{`Setting ${i + 1}`}</td><td data-label="Shift" className="n">{`${s.shift >= 0 ? '+' : ''}${formatLength(s.shift, latest.unit)}`}</td><td data-label="Bars">{s.bars.join(', ')}</td></tr>
               ))}
             </tbody>
           </table>
@@ -155,8 +166,8 @@ export function SetupSheet({ job, v, svg, printed }: { job: JobDetail; v: Templa
               const c = byCode.get(p.component);
               return (
                 <tr key={p.id}>
-                  <td>{p.id}</td><td>{p.component}</td><td className="n">{`(${p.hole.col}, ${p.hole.row})`}</td><td className="n">{`${p.rotation}°`}</td>
-                  <td>{c ? componentLayer(c) : ''}</td><td>{(p.stopsInUse ?? []).map((s) => s + 1).join(', ') || '—'}</td>
+                  <td data-label="Placement">{p.id}</td><td data-label="Component">{p.component}</td><td data-label="Grid hole" className="n">{`(${p.hole.col}, ${p.hole.row})`}</td><td data-label="Rotation" className="n">{`${p.rotation}°`}</td>
+                  <td data-label="Layer">{c ? componentLayer(c) : ''}</td><td data-label="Stops in use">{(p.stopsInUse ?? []).map((s) => s + 1).join(', ') || '—'}</td>
                 </tr>
               );
             })}
@@ -169,8 +180,8 @@ export function SetupSheet({ job, v, svg, printed }: { job: JobDetail; v: Templa
           <tbody>
             {used.stations.map((s) => (
               <tr key={s.number}>
-                <td className="n">{s.number}</td><td className="n">{formatNumber(s.x, u)}</td><td className="n">{formatNumber(s.y, u)}</td><td className="n">{formatNumber(s.z, u)}</td>
-                <td className="n">{`${formatNumber(s.c, 'mm')}°`}</td><td className="n">{s.nominalWidth === null ? '—' : formatNumber(s.nominalWidth, u)}</td><td>{s.placement}</td>
+                <td data-label="Station" className="n">{s.number}</td><td data-label="X" className="n">{formatNumber(s.x, u)}</td><td data-label="Y" className="n">{formatNumber(s.y, u)}</td><td data-label="Z" className="n">{formatNumber(s.z, u)}</td>
+                <td data-label="C" className="n">{`${formatNumber(s.c, 'mm')}°`}</td><td data-label="Width held" className="n">{s.nominalWidth === null ? '—' : formatNumber(s.nominalWidth, u)}</td><td data-label="Placement">{s.placement}</td>
               </tr>
             ))}
           </tbody>
