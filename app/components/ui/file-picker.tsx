@@ -44,7 +44,7 @@ export function FilePicker({ label, accept, onFile, chosen, buttonLabel = 'Choos
           <FileUp aria-hidden className="h-5 w-5" />
           <span aria-hidden>{buttonLabel}</span>
           <input ref={inputRef} id={id} type="file" accept={accept} disabled={disabled} aria-describedby={describedBy}
-            className="absolute inset-0 h-full w-full cursor-pointer opacity-0 disabled:cursor-not-allowed"
+            className="absolute -inset-px h-[calc(100%+2px)] w-[calc(100%+2px)] cursor-pointer opacity-0 disabled:cursor-not-allowed"
             onChange={(e) => {
               const file = e.target.files?.[0];
               e.target.value = '';

@@ -1,4 +1,4 @@
-import { useId, useMemo, useRef, useState, type FormEvent } from 'react';
+import { useMemo, useRef, useState, type FormEvent } from 'react';
 import { useQuery } from '@tanstack/react-query';
 import { Download, Upload } from 'lucide-react';
 import type { JobDetail } from '../../../../shared/schemas/job';
@@ -8,6 +8,7 @@ import { readPartProgram } from '../../../../shared/gcode/read-part-program';
 import { tablePreview } from '../../../../shared/gcode/program-preview';
 import { formatLength, formatNumber } from '../../../../shared/units/units';
 import { Button } from '../../../components/ui/button';
+import { FilePicker } from '../../../components/ui/file-picker';
 import { SelectField, TextField } from '../../../components/ui/field';
 import { ErrorText, Notice } from '../../../components/ui/notice';
 import { parseDecimal } from '../../../../shared/units/decimal';
@@ -123,7 +124,6 @@ export function PartProgramPanel({ job, canEdit }: { job: JobDetail; canEdit: bo
 
 function ProgramUpload({ job }: { job: JobDetail }) {
   const upload = useUploadPartProgram(job.id);
-  const fileId = useId();
   const input = useRef<HTMLInputElement>(null);
   const [file, setFile] = useState<File | null>(null);
   const [problem, setProblem] = useState<string | null>(null);
@@ -131,16 +131,13 @@ function ProgramUpload({ job }: { job: JobDetail }) {
     e.preventDefault();
     setProblem(null);
     if (!file) { setProblem('Choose the part program file first.'); input.current?.focus(); return; }
-    upload.mutate(file, { onSuccess: () => { setFile(null); if (input.current) input.current.value = ''; } });
+    upload.mutate(file, { onSuccess: () => setFile(null) });
   };
   const pct = upload.progress === null ? null : Math.round(upload.progress * 100);
   return (
     <form noValidate onSubmit={submit} aria-label="Upload the part program" className="flex flex-wrap items-end gap-3 rounded border border-slate-300 bg-white p-4">
-      <div className="flex flex-col gap-1">
-        <label htmlFor={fileId} className="text-sm font-semibold text-slate-700">Part program (G-code, program zero at the part datum)</label>
-        <input ref={input} id={fileId} type="file" accept=".nc,.ngc,.tap,.gcode,.txt,text/plain" className="min-h-10"
-          onChange={(e) => { setFile(e.target.files?.[0] ?? null); setProblem(null); upload.reset(); }} />
-      </div>
+      <FilePicker label="Part program (G-code, program zero at the part datum)" accept=".nc,.ngc,.tap,.gcode,.txt,text/plain" inputRef={input}
+        chosen={file?.name ?? null} onFile={(f) => { setFile(f); setProblem(null); upload.reset(); }} />
       <Button type="submit" variant="secondary" disabled={upload.isPending}><Upload aria-hidden className="h-4 w-4" />{upload.isPending ? 'Reading…' : job.partProgram ? 'Replace the program' : 'Upload the program'}</Button>
       {pct !== null && pct < 100 ? <span role="status" className="text-sm text-slate-700">Sending… {pct} %</span> : null}
       <div className="w-full">{problem ? <ErrorText error={problem} /> : <ErrorText error={upload.error} />}</div>

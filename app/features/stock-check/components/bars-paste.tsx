@@ -4,6 +4,7 @@ import type { Unit } from '../../../../shared/schemas/common';
 import { Button } from '../../../components/ui/button';
 import { inputClass } from '../../../components/ui/field';
 import { parseBarsPaste, type PastedRow, type PasteProblem } from '../parse-bars';
+import { FilePicker } from '../../../components/ui/file-picker';
 import { readBarsFile } from '../api';
 
 const SEPARATOR_WORD = { tab: 'tab', semicolon: 'semicolon', comma: 'comma' } as const;
@@ -66,9 +67,7 @@ export function BarsPaste({ unit, tableIds, onApply }: {
 
   return (
     <div className="flex flex-col gap-2">
-      <label className="flex flex-col gap-1 text-sm font-semibold text-slate-700">Or read a CSV or XLSX file of bars
-        <input type="file" accept=".csv,.xlsx,text/csv,application/vnd.openxmlformats-officedocument.spreadsheetml.sheet" className="min-h-10 font-normal max-sm:min-h-11" onChange={(e) => void onFile(e.target.files?.[0])} />
-      </label>
+      <FilePicker label="Or read a CSV or XLSX file of bars" accept=".csv,.xlsx,text/csv,application/vnd.openxmlformats-officedocument.spreadsheetml.sheet" onFile={(f) => void onFile(f)} />
       {fileNote ? <p role="status" className="text-sm text-slate-800">{fileNote}</p> : null}
       <label htmlFor={id} className="text-sm font-semibold text-slate-700">Paste from a spreadsheet</label>
       <p id={`${id}-hint`} className="text-sm text-slate-600">
