@@ -68,10 +68,13 @@ export function loadListService(deps: { db: Db; jobs: JobsService; audit: AuditR
      */
     async tick(user: User, jobId: number, input: LoadListTicksInput): Promise<LoadList> {
       const list = await current(jobId);
-      if (input.stockCheckId !== list.stockCheckId || input.listRevision !== list.revision) {
-        throw conflict('This load list changed after you opened it (a new stock check or a kept edit), which clears its ticks; reload it and tick the stations again.');
-      }
+      const changed = () => conflict('This load list changed after you opened it (a new stock check or a kept edit), which clears its ticks; reload it and tick the stations again.');
+      if (input.stockCheckId !== list.stockCheckId || input.listRevision !== list.revision) throw changed();
       return db.transaction(async (trx) => {
+        // The list was worked out before this transaction: a check or an edit kept in between would
+        // leave these ticks on a list no longer shown (kept, but never answered), so it is asked again here.
+        const now = await lists.stamp(jobId, trx);
+        if (now.revision !== list.revision || now.latestCheckId !== list.stockCheckId) throw changed();
         const row = await ticks.get(jobId, trx);
         const kept = ticksOf(row, list);
         const stale = () => conflict(`Someone ticked this load list after you opened it (ticks revision ${kept.revision}); reload it and tick again.`);
