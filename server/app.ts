@@ -17,6 +17,7 @@ import { catalogService } from './services/catalog';
 import { apiNotFound, errorHandler } from './middleware/errors';
 import { uploadLimit } from './middleware/upload-limit';
 import { leanSessionReads } from './middleware/lean-session';
+import { fixedHeaders } from './middleware/fixed-headers';
 import { mount, type RouteDef } from './routes/route-table';
 import { authRoutes } from './routes/auth';
 import { userRoutes } from './routes/users';
@@ -119,8 +120,9 @@ export function createApp(deps: AppDeps): GridsetApp {
   app.set('trust proxy', deps.trustProxy ?? 'loopback');
   // HTTPS-only headers (HSTS, upgrade-insecure-requests) only where the browser came over HTTPS: on
   // a plain-HTTP shop network they would make http://server:3000 load no script at all.
-  const overHttp = helmet({ contentSecurityPolicy: { directives: { upgradeInsecureRequests: null } }, strictTransportSecurity: false });
-  const overHttps = helmet();
+  // Helmet's headers here are fixed (no nonce, no directive computed per request): set in one step.
+  const overHttp = fixedHeaders(helmet({ contentSecurityPolicy: { directives: { upgradeInsecureRequests: null } }, strictTransportSecurity: false }));
+  const overHttps = fixedHeaders(helmet());
   // req.secure asks the trust-proxy rule (an address parse) each time; a plain socket can only be
   // secure through a forwarded protocol header, so the rule is asked only when one came.
   const overHttpsRequest = (req: express.Request) => deps.https || (req.socket as { encrypted?: boolean }).encrypted === true || (req.headers['x-forwarded-proto'] !== undefined && req.secure);
