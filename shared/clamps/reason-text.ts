@@ -21,6 +21,12 @@ export const STOCK_CHECK_ADVICE =
   "Check every clamp by hand before cycle start, follow the machine builder's instructions, " +
   'and defer to local codes and licensed practice.';
 
+/** The printed load list's advice line: the same caution, said of the paper the operator loads by. */
+export const LOAD_LIST_ADVICE =
+  'A load list is advice, worked out from the measured bars, the clamp model and the job entered. ' +
+  'The operator checks every clamp before cycle start, follows the machine builder’s instructions, ' +
+  'and defers to local codes and licensed practice.';
+
 export function reasonText(code: StockCheckReason): string {
   return REASON_TEXT[code];
 }

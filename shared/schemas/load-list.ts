@@ -23,10 +23,13 @@ export const LoadListInputSchema = z.object({
 });
 export type LoadListInput = z.infer<typeof LoadListInputSchema>;
 
+/** A whole number from `min` up, refused with `what` (a sentence saying what to send). */
+const wholeFrom = (min: number, what: string) => z.number({ message: what }).int(what).min(min, what).max(ROW_ID_MAX, TOO_LARGE_ID);
+
 /** One station's ticks at the machine: the bar is in the station, and the clamp is tightened on it. */
 const STATION_NUMBER = 'A station number is a whole number from 1 up, as the load list shows it.';
 export const LoadListTickSchema = z.object({
-  station: z.number({ message: STATION_NUMBER }).int(STATION_NUMBER).min(1, STATION_NUMBER).max(ROW_ID_MAX, TOO_LARGE_ID),
+  station: wholeFrom(1, STATION_NUMBER),
   loaded: z.boolean({ message: 'Send loaded as true or false.' }),
   clamped: z.boolean({ message: 'Send clamped as true or false.' }),
 });
@@ -38,10 +41,10 @@ export type LoadListTick = z.infer<typeof LoadListTickSchema>;
  */
 export const LoadListTicksInputSchema = z.object({
   /** The ticks' revision the operator read (0 before the first tick on this list). */
-  revision: z.number().int().min(0).max(ROW_ID_MAX, TOO_LARGE_ID),
+  revision: wholeFrom(0, 'Send the ticks revision the load list was read with (ticks.revision, 0 before the first tick).'),
   /** The load list ticked: its stock check and its revision, as GET answered them. */
-  stockCheckId: z.number().int().min(1).max(ROW_ID_MAX, TOO_LARGE_ID),
-  listRevision: z.number().int().min(0).max(ROW_ID_MAX, TOO_LARGE_ID),
+  stockCheckId: wholeFrom(1, 'Send the stockCheckId of the load list as it was read.'),
+  listRevision: wholeFrom(0, 'Send the revision of the load list as it was read.'),
   stations: z.array(LoadListTickSchema).min(1, 'Name at least one station to tick.').max(LIMITS.stations, `Tick at most ${LIMITS.stations} stations at once.`),
 });
 export type LoadListTicksInput = z.infer<typeof LoadListTicksInputSchema>;

@@ -165,6 +165,16 @@ describe('the load list ticks', () => {
       expect(res.body.error.message).toMatch(message);
       expect(res.body.error.message).toMatch(/\.$/);
     }
+    // The list it was read with must be named by numbers; a missing or typed-in one says what to send.
+    for (const [body, message] of [
+      [{ ...ticksOf(list), revision: 'x' }, /Send the ticks revision/],
+      [{ ...ticksOf(list), stockCheckId: undefined }, /Send the stockCheckId/],
+      [{ ...ticksOf(list), listRevision: -1 }, /Send the revision of the load list/],
+    ] as const) {
+      const res = await operator.put(`/api/jobs/${jobId}/load-list/ticks`, { ...body, stations: [{ station: a, loaded: true, clamped: false }] });
+      expect(res.status).toBe(400);
+      expect(res.body.error.message).toMatch(message);
+    }
     expect(await tableCounts(t.db, ['job_load_list_ticks', 'audit'])).toEqual(before);
   });
 

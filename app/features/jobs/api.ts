@@ -1,11 +1,12 @@
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
 import { z } from 'zod';
-import { UnitSchema, type Unit } from '../../../shared/schemas/common';
+import { UnitSchema } from '../../../shared/schemas/common';
 import { JobDetailSchema, JobListSchema, JobStockCheckInputSchema, RailCheckSchema, type JobInput } from '../../../shared/schemas/job';
 import { StockCheckResponseSchema, type MeasuredBarInput } from '../../../shared/schemas/stock-check';
 import { api, ApiError, uploadWithProgress } from '../../lib/api-client';
 import { LoadListSchema, type LoadListInput, type LoadListTicksInput } from '../../../shared/schemas/load-list';
+import type { InspectedPartOutlineInput } from '../../../shared/schemas/dxf-inspection';
 
 export const jobKeys = {
   all: ['jobs'] as const,
@@ -42,38 +43,17 @@ export function useUpdateJob(id: number) {
   });
 }
 
-export interface PartOutlineUpload {
-  file: File;
-  /** The drawing's unit, used only when the file does not say ($INSUNITS 0 or missing). */
-  unit: Unit;
-  /** The part's datum in drawing coordinates; the lower-left corner of its extents when left out. */
-  datumX?: number;
-  datumY?: number;
-}
-
-/** The part's DXF outline, with the fraction sent so far (null before the first progress event). */
-export function useUploadPartOutline(id: number) {
+/** Stores the part outline of the drawing inspected a moment ago, named by its SHA-256: JSON only, the file is not sent again. */
+export function useStoreInspectedPartOutline(id: number) {
   const qc = useQueryClient();
-  const [progress, setProgress] = useState<number | null>(null);
-  const mutation = useMutation({
-    mutationFn: ({ file, unit, datumX, datumY }: PartOutlineUpload) => {
-      const form = new FormData();
-      form.append('unit', unit);
-      if (datumX !== undefined) form.append('datumX', String(datumX));
-      if (datumY !== undefined) form.append('datumY', String(datumY));
-      // The file last: multer reads the text fields before it streams the file.
-      form.append('file', file, file.name);
-      setProgress(0);
-      return uploadWithProgress(`/api/jobs/${id}/outline`, form, setProgress, { schema: JobDetailSchema });
-    },
+  return useMutation({
+    mutationFn: (input: InspectedPartOutlineInput) => api.post(`/api/jobs/${id}/outline/from-inspection`, input, JobDetailSchema),
     retry: false,
     onSuccess: (job) => {
       qc.setQueryData(jobKeys.detail(id), job);
       void qc.invalidateQueries({ queryKey: jobKeys.list() });
     },
-    onSettled: () => setProgress(null),
   });
-  return { ...mutation, progress };
 }
 
 /**

@@ -82,12 +82,6 @@ const FIXED_ORDER: readonly BarField[] = BAR_FIELDS;
 const EXPECTED = 'id, width, thickness, corner radius';
 
 /**
- * Read pasted rows of id, width, thickness, corner radius, tab-, semicolon- or comma-separated,
- * with an optional header row. With a header, columns are found by name (in any order; other
- * columns are ignored and reported); without one they must be the four, in that order.
- * A first row is a header when none of its cells is a number.
- */
-/**
  * The one reading of pasted or uploaded text into rows of cells, for the paste box and for a paste
  * into a cell of the bar table: line breaks of any system (CRLF, CR, LF), the separator detected,
  * papaparse's quoting, a final line break dropped.
@@ -98,6 +92,12 @@ export function readPastedGrid(text: string): { records: string[][]; separator: 
   return { ...pasteRecords(normalized, separator), separator };
 }
 
+/**
+ * Read pasted rows of id, width, thickness, corner radius, tab-, semicolon- or comma-separated,
+ * with an optional header row. With a header, columns are found by name (in any order; other
+ * columns are ignored and reported); without one they must be the four, in that order.
+ * A first row is a header when none of its cells is a number.
+ */
 export function parseBarsPaste(text: string, unit: Unit | null): PasteReading {
   const { records, unclosedQuoteRow, separator } = readPastedGrid(text);
   if (unclosedQuoteRow !== null) {

@@ -1,13 +1,8 @@
 import type { JobDetail } from '../../../../shared/schemas/job';
 import type { LoadList } from '../../../../shared/schemas/load-list';
+import { LOAD_LIST_ADVICE } from '../../../../shared/clamps/reason-text';
 import { formatServerTime } from '../../../lib/server-time';
 import { railSettingWords } from '../job-format';
-
-/** The paper's advice line: what the list is worked out from, and who checks the clamps (DESIGN.md, safety wording). */
-const LOAD_LIST_ADVICE =
-  'A load list is advice, worked out from the measured bars, the clamp model and the job entered. ' +
-  'The operator checks every clamp before cycle start, follows the machine builder’s instructions, ' +
-  'and defers to local codes and licensed practice.';
 
 const cell = 'border border-black px-2 py-1 text-left';
 const box = <span aria-hidden className="inline-block h-4 w-4 border border-black align-middle" />;

@@ -1,34 +1,20 @@
 import { useRef, useState, type FormEvent } from 'react';
-import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { Upload } from 'lucide-react';
 import type { Unit } from '../../../../shared/schemas/common';
-import { JobDetailSchema, type JobDetail } from '../../../../shared/schemas/job';
-import type { DxfInspection, InspectedPartOutlineInput } from '../../../../shared/schemas/dxf-inspection';
+import type { JobDetail } from '../../../../shared/schemas/job';
+import type { DxfInspection } from '../../../../shared/schemas/dxf-inspection';
 import { formatNumber } from '../../../../shared/units/units';
 import { Button } from '../../../components/ui/button';
 import { FilePicker } from '../../../components/ui/file-picker';
 import { SelectField, TextField } from '../../../components/ui/field';
 import { ErrorText } from '../../../components/ui/notice';
 import { parseDecimal } from '../../../../shared/units/decimal';
-import { api, ApiError } from '../../../lib/api-client';
+import { ApiError } from '../../../lib/api-client';
 import { useInspectDxf } from '../../../lib/dxf-inspection';
-import { jobFileUrl, jobKeys } from '../api';
+import { jobFileUrl, useStoreInspectedPartOutline } from '../api';
 
 const kb = (bytes: number) => `${(bytes / 1024).toLocaleString('en-US', { maximumFractionDigits: 1 })} KB`;
 const plural = (n: number, word: string) => `${n.toLocaleString('en-US')} ${word}${n === 1 ? '' : 's'}`;
-
-/** Stores the part outline of the drawing inspected a moment ago, named by its SHA-256: JSON only, the file is not sent again. */
-function useStoreInspectedPartOutline(id: number) {
-  const qc = useQueryClient();
-  return useMutation({
-    mutationFn: (input: InspectedPartOutlineInput) => api.post(`/api/jobs/${id}/outline/from-inspection`, input, JobDetailSchema),
-    retry: false,
-    onSuccess: (job) => {
-      qc.setQueryData(jobKeys.detail(id), job);
-      void qc.invalidateQueries({ queryKey: jobKeys.list() });
-    },
-  });
-}
 
 /** What the reading found, in a line: size of the drawing, its unit (said by the file or not) and its extents. */
 function InspectionFacts({ inspection, unit }: { inspection: DxfInspection; unit: Unit }) {
